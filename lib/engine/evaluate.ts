@@ -1,0 +1,124 @@
+/**
+ * Evaluating a case: validate (unless trusted), set up each truck, run the
+ * three policies, assemble cash flows, results, comparisons and the fleet.
+ */
+import {
+  CaseValidationError,
+  validateCase,
+  type CaseFileInput,
+  type Engine,
+  type RepowerOffer,
+} from '@/lib/validation/case';
+import { assembleCashFlows } from './cash-flow';
+import { rollUpFleet } from './fleet';
+import { bestPolicy, comparePolicies, policyResult } from './results';
+import { buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
+import { simulatePolicy } from './simulate';
+import type {
+  CaseResult,
+  DetailedCaseResult,
+  EvaluateOptions,
+  PolicyDetail,
+  PolicyKey,
+  TruckDetail,
+  TruckResult,
+} from './types';
+
+interface Evaluated {
+  result: TruckResult;
+  detail: TruckDetail;
+}
+
+function checked(c: CaseFileInput, options: EvaluateOptions): CaseFileInput {
+  if (options.trusted) return c;
+  const v = validateCase(c);
+  if (!v.ok) throw new CaseValidationError(v.problems);
+  return v.value;
+}
+
+function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, only?: string): Evaluated[] {
+  const a = resolveAssumptions(c.assumptions);
+  const engines = new Map<string, Engine>(c.engines.map((e) => [e.id, e]));
+  const offers = new Map<string, RepowerOffer>(c.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
+  const out: Evaluated[] = [];
+  for (const input of c.trucks) {
+    if (only !== undefined && input.id !== only) continue;
+    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers);
+    const run = (policy: PolicyKey): PolicyDetail =>
+      assembleCashFlows(setup, simulatePolicy(setup, policy, options.failureAge));
+    const policies = { keep: run('keep'), rebuild: run('rebuild'), repower: run('repower') };
+    const opts = {
+      keep: policyResult(policies.keep, a.discountRate, a.taxRate),
+      rebuild: policyResult(policies.rebuild, a.discountRate, a.taxRate),
+      repower: policyResult(policies.repower, a.discountRate, a.taxRate),
+    };
+    const df = setup.discountFactor;
+    const r = a.discountRate;
+    const capital = (p: PolicyKey) => opts[p].breakdown.map((b) => b.capital);
+    const result: TruckResult = {
+      id: input.id,
+      horizonYears: setup.n,
+      options: opts,
+      repowerVsRebuild: comparePolicies(opts.repower.cashFlows, opts.rebuild.cashFlows, df, r, capital('repower')),
+      repowerVsKeep: comparePolicies(opts.repower.cashFlows, opts.keep.cashFlows, df, r, capital('repower')),
+      rebuildVsKeep: comparePolicies(opts.rebuild.cashFlows, opts.keep.cashFlows, df, r, capital('rebuild')),
+      best: bestPolicy({ keep: opts.keep.npv, rebuild: opts.rebuild.npv, repower: opts.repower.npv }),
+    };
+    const detail: TruckDetail = {
+      truckId: input.id,
+      horizonYears: setup.n,
+      startEngineId: setup.start.id,
+      repowerEngineId: setup.next.id,
+      repowerOfferId: setup.offer.id,
+      powerKw: setup.powerKw,
+      calibrationFactor: setup.calibration,
+      burnLitresPerHour: { [setup.start.id]: setup.burnStart, [setup.next.id]: setup.burnNext },
+      policies,
+    };
+    out.push({ result, detail });
+  }
+  return out;
+}
+
+/**
+ * Evaluate a `case/1` into `case-result/1` (MODEL.md section 10).
+ * The case is validated first and a `CaseValidationError` (with every
+ * problem) is thrown if it does not pass; nothing is simulated then.
+ * `options.trusted` skips validation for a case already validated (e.g.
+ * many evaluations of modified clones); `options.failureAge` replaces the
+ * median failure path (Monte Carlo).
+ *
+ * @example evaluateCase(oneTruck).trucks[0].best // 'repower' for scenarios/one-truck.json
+ */
+export function evaluateCase(c: CaseFileInput, options: EvaluateOptions = {}): CaseResult {
+  const valid = checked(c, options);
+  const trucks = evaluateTrucks(valid, options).map((e) => e.result);
+  return { format: 'case-result/1', name: valid.name, trucks, fleet: rollUpFleet(trucks) };
+}
+
+/**
+ * `evaluateCase` plus, per truck and policy, every period's physical
+ * quantities, prices, events, segments, depreciation and residual: enough to
+ * rebuild each money figure from quantities and assumptions (workbook export)
+ * or to draw an event timeline.
+ */
+export function evaluateCaseDetailed(c: CaseFileInput, options: EvaluateOptions = {}): DetailedCaseResult {
+  const valid = checked(c, options);
+  const evaluated = evaluateTrucks(valid, options);
+  const trucks = evaluated.map((e) => e.result);
+  return {
+    result: { format: 'case-result/1', name: valid.name, trucks, fleet: rollUpFleet(trucks) },
+    details: evaluated.map((e) => e.detail),
+  };
+}
+
+/**
+ * One truck of a case, with its detail (for sensitivity runs on a single truck).
+ * Throws if the truck id is not in the case.
+ */
+export function evaluateTruck(c: CaseFileInput, truckId: string, options: EvaluateOptions = {}): Evaluated {
+  const valid = checked(c, options);
+  const [found] = evaluateTrucks(valid, options, truckId);
+  if (!found) throw new Error(`no truck with id "${truckId}"`);
+  return found;
+}
