@@ -9,7 +9,7 @@ import {
   type Engine,
   type RepowerOffer,
 } from '@/lib/validation/case';
-import { assembleCashFlows } from './cash-flow';
+import { assembleCashFlows, buildPolicyDetail, type PolicyCash } from './cash-flow';
 import { rollUpFleet } from './fleet';
 import { bestPolicy, comparePolicies, policyResult } from './results';
 import { buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
@@ -18,7 +18,6 @@ import type {
   CaseResult,
   DetailedCaseResult,
   EvaluateOptions,
-  PolicyDetail,
   PolicyKey,
   TruckDetail,
   TruckResult,
@@ -26,7 +25,7 @@ import type {
 
 interface Evaluated {
   result: TruckResult;
-  detail: TruckDetail;
+  detail?: TruckDetail;
 }
 
 function checked(c: CaseFileInput, options: EvaluateOptions): CaseFileInput {
@@ -36,34 +35,41 @@ function checked(c: CaseFileInput, options: EvaluateOptions): CaseFileInput {
   return v.value;
 }
 
-function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, only?: string): Evaluated[] {
+function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, detailed: boolean, only?: string): Evaluated[] {
   const a = resolveAssumptions(c.assumptions);
   const engines = new Map<string, Engine>(c.engines.map((e) => [e.id, e]));
   const offers = new Map<string, RepowerOffer>(c.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
   const out: Evaluated[] = [];
+  const r = a.discountRate;
   for (const input of c.trucks) {
     if (only !== undefined && input.id !== only) continue;
     const setup = buildTruckSetup(resolveTruck(input), a, engines, offers);
-    const run = (policy: PolicyKey): PolicyDetail =>
-      assembleCashFlows(setup, simulatePolicy(setup, policy, options.failureAge));
-    const policies = { keep: run('keep'), rebuild: run('rebuild'), repower: run('repower') };
-    const opts = {
-      keep: policyResult(policies.keep, a.discountRate, a.taxRate),
-      rebuild: policyResult(policies.rebuild, a.discountRate, a.taxRate),
-      repower: policyResult(policies.repower, a.discountRate, a.taxRate),
-    };
     const df = setup.discountFactor;
-    const r = a.discountRate;
+    const run = (policy: PolicyKey): PolicyCash =>
+      assembleCashFlows(setup, simulatePolicy(setup, policy, options.failureAge, detailed));
+    const keep = run('keep');
+    const rebuild = run('rebuild');
+    const repower = run('repower');
+    const opts = {
+      keep: policyResult(keep, df, r, a.taxRate),
+      rebuild: policyResult(rebuild, df, r, a.taxRate),
+      repower: policyResult(repower, df, r, a.taxRate),
+    };
     const capital = (p: PolicyKey) => opts[p].breakdown.map((b) => b.capital);
+    const repowerCapital = capital('repower');
     const result: TruckResult = {
       id: input.id,
       horizonYears: setup.n,
       options: opts,
-      repowerVsRebuild: comparePolicies(opts.repower.cashFlows, opts.rebuild.cashFlows, df, r, capital('repower')),
-      repowerVsKeep: comparePolicies(opts.repower.cashFlows, opts.keep.cashFlows, df, r, capital('repower')),
+      repowerVsRebuild: comparePolicies(opts.repower.cashFlows, opts.rebuild.cashFlows, df, r, repowerCapital),
+      repowerVsKeep: comparePolicies(opts.repower.cashFlows, opts.keep.cashFlows, df, r, repowerCapital),
       rebuildVsKeep: comparePolicies(opts.rebuild.cashFlows, opts.keep.cashFlows, df, r, capital('rebuild')),
       best: bestPolicy({ keep: opts.keep.npv, rebuild: opts.rebuild.npv, repower: opts.repower.npv }),
     };
+    if (!detailed) {
+      out.push({ result });
+      continue;
+    }
     const detail: TruckDetail = {
       truckId: input.id,
       horizonYears: setup.n,
@@ -73,7 +79,11 @@ function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, only?: strin
       powerKw: setup.powerKw,
       calibrationFactor: setup.calibration,
       burnLitresPerHour: { [setup.start.id]: setup.burnStart, [setup.next.id]: setup.burnNext },
-      policies,
+      policies: {
+        keep: buildPolicyDetail(setup, keep),
+        rebuild: buildPolicyDetail(setup, rebuild),
+        repower: buildPolicyDetail(setup, repower),
+      },
     };
     out.push({ result, detail });
   }
@@ -92,7 +102,7 @@ function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, only?: strin
  */
 export function evaluateCase(c: CaseFileInput, options: EvaluateOptions = {}): CaseResult {
   const valid = checked(c, options);
-  const trucks = evaluateTrucks(valid, options).map((e) => e.result);
+  const trucks = evaluateTrucks(valid, options, false).map((e) => e.result);
   return { format: 'case-result/1', name: valid.name, trucks, fleet: rollUpFleet(trucks) };
 }
 
@@ -104,11 +114,11 @@ export function evaluateCase(c: CaseFileInput, options: EvaluateOptions = {}): C
  */
 export function evaluateCaseDetailed(c: CaseFileInput, options: EvaluateOptions = {}): DetailedCaseResult {
   const valid = checked(c, options);
-  const evaluated = evaluateTrucks(valid, options);
+  const evaluated = evaluateTrucks(valid, options, true);
   const trucks = evaluated.map((e) => e.result);
   return {
     result: { format: 'case-result/1', name: valid.name, trucks, fleet: rollUpFleet(trucks) },
-    details: evaluated.map((e) => e.detail),
+    details: evaluated.map((e) => e.detail as TruckDetail),
   };
 }
 
@@ -116,9 +126,13 @@ export function evaluateCaseDetailed(c: CaseFileInput, options: EvaluateOptions 
  * One truck of a case, with its detail (for sensitivity runs on a single truck).
  * Throws if the truck id is not in the case.
  */
-export function evaluateTruck(c: CaseFileInput, truckId: string, options: EvaluateOptions = {}): Evaluated {
+export function evaluateTruck(
+  c: CaseFileInput,
+  truckId: string,
+  options: EvaluateOptions = {},
+): { result: TruckResult; detail: TruckDetail } {
   const valid = checked(c, options);
-  const [found] = evaluateTrucks(valid, options, truckId);
-  if (!found) throw new Error(`no truck with id "${truckId}"`);
-  return found;
+  const [found] = evaluateTrucks(valid, options, true, truckId);
+  if (!found || !found.detail) throw new Error(`no truck with id "${truckId}"`);
+  return { result: found.result, detail: found.detail };
 }

@@ -69,61 +69,165 @@ export function scanIrrRoots(values: readonly number[]): IrrRoot[] {
   return roots;
 }
 
+/** Working state of `findIrrRoots` (plain functions over it, no closures, for speed). */
+interface RootSearch {
+  values: readonly number[];
+  /** the flows as coefficients of x^y, their magnitudes, and two work buffers */
+  coef: Float64Array;
+  mag: Float64Array;
+  work: Float64Array;
+  workMag: Float64Array;
+  roots: IrrRoot[];
+  limit: number;
+}
+
+function gridValue(s: RootSearch, k: number): number {
+  return presentValueAt(s.values, irrGridRate(k));
+}
+
+function opposite(a: number, b: number): boolean {
+  return (a < 0 && b > 0) || (a > 0 && b < 0);
+}
+
+function pushCell(s: RootSearch, ka: number, kb: number, fa: number, fb: number): void {
+  if (opposite(fa, fb)) s.roots.push({ lo: irrGridRate(ka), hi: irrGridRate(kb), exact: false });
+}
+
+/** a(x) → a(x + c), in place (Horner's scheme, O(degree²)). */
+function taylorShift(a: Float64Array, c: number): void {
+  const d = a.length - 1;
+  for (let i = 0; i < d; i++) for (let j = d - 1; j >= i; j--) a[j] += c * a[j + 1];
+}
+
+/**
+ * Descartes' bound on the roots of f in the open x-interval of the run
+ * (ka, kb): the sign variations of (1+t)^N · f((xa + xb·t)/(1+t)). Returns
+ * 0, 1 (exactly one root, a simple one) or 2 (two or more, or unsure:
+ * a coefficient too small to trust its sign, or an overflow).
+ */
+function descartesBound(s: RootSearch, ka: number, kb: number): number {
+  const xa = 1 / (1 + irrGridRate(kb));
+  const h = 1 / (1 + irrGridRate(ka)) - xa;
+  const w = s.work;
+  const m = s.workMag;
+  const d = w.length - 1;
+  w.set(s.coef);
+  m.set(s.mag);
+  taylorShift(w, xa); // f(xa + u)
+  taylorShift(m, xa);
+  let scale = 1; // f(xa + h·u), coefficients reversed: u^N f(xa + h/u)
+  for (let j = 0; j <= d; j++) {
+    w[j] *= scale;
+    m[j] *= scale;
+    scale *= h;
+  }
+  w.reverse();
+  m.reverse();
+  taylorShift(w, 1);
+  taylorShift(m, 1);
+  let variations = 0;
+  let last = 0;
+  for (let j = 0; j <= d; j++) {
+    const v = w[j];
+    if (!Number.isFinite(v) || !Number.isFinite(m[j])) return 2;
+    if (m[j] === 0) continue; // exactly zero: every term was zero
+    if (Math.abs(v) <= 1e-9 * m[j]) return 2; // sign not to be trusted
+    const sign = v > 0 ? 1 : -1;
+    if (last !== 0 && sign !== last) variations++;
+    last = sign;
+    if (variations >= 2) return 2;
+  }
+  return variations;
+}
+
+/** A run with one crossing and opposite signs at its ends: the crossing found by halving the run. */
+function locateCrossing(s: RootSearch, ka: number, kb: number, fa: number, fb: number): void {
+  while (kb > ka + 1) {
+    const km = (ka + kb) >> 1;
+    const fm = gridValue(s, km);
+    if (fm === 0) {
+      s.roots.push({ lo: irrGridRate(km), hi: irrGridRate(km), exact: true });
+      return;
+    }
+    if (fm > 0 === fa > 0) {
+      ka = km;
+      fa = fm;
+    } else {
+      kb = km;
+      fb = fm;
+    }
+  }
+  pushCell(s, ka, kb, fa, fb);
+}
+
+/** Step by step through a run, as the reference scan does (used only where rounding leaves doubt). */
+function scanRun(s: RootSearch, ka: number, kb: number, fa: number): void {
+  let prev = fa;
+  for (let k = ka + 1; k <= kb && s.roots.length < s.limit; k++) {
+    const f = gridValue(s, k);
+    if (k < kb && f === 0) s.roots.push({ lo: irrGridRate(k), hi: irrGridRate(k), exact: true });
+    else pushCell(s, k - 1, k, prev, f);
+    prev = f;
+  }
+}
+
+/** Roots in the pairs (k, k+1), ka ≤ k < kb, and exact zeros at steps strictly inside (ka, kb). */
+function visit(s: RootSearch, ka: number, kb: number, fa: number, fb: number): void {
+  if (s.roots.length >= s.limit) return;
+  if (kb === ka + 1) {
+    pushCell(s, ka, kb, fa, fb);
+    return;
+  }
+  const bound = descartesBound(s, ka, kb);
+  if (bound === 0) {
+    // no root inside; ends of opposite sign mean a root at an end that rounding moved inside
+    if (opposite(fa, fb)) locateCrossing(s, ka, kb, fa, fb);
+    return;
+  }
+  if (bound === 1) {
+    if (opposite(fa, fb)) locateCrossing(s, ka, kb, fa, fb);
+    else scanRun(s, ka, kb, fa);
+    return;
+  }
+  const km = (ka + kb) >> 1;
+  const fm = gridValue(s, km);
+  visit(s, ka, km, fa, fm);
+  if (fm === 0 && s.roots.length < s.limit) s.roots.push({ lo: irrGridRate(km), hi: irrGridRate(km), exact: true });
+  visit(s, km, kb, fm, fb);
+}
+
 /**
  * The same roots as `scanIrrRoots`, found without visiting every step.
  *
- * With x = 1/(1+i) > 0 the sum is P(x) − Q(x), P gathering the positive flows
- * and Q the negative ones, both increasing in x. Over a run of steps with x in
- * [xLo, xHi] the sum lies in [P(xLo) − Q(xHi), P(xHi) − Q(xLo)]; when that
- * interval excludes 0 (with a margin for rounding) every step of the run has
- * the same strict sign, so the run holds no root and is skipped. Other runs
- * are halved down to single pairs of steps, which are judged exactly as the
- * scan judges them. Stops once `limit` roots are found.
+ * With x = 1/(1+i) the sum is a polynomial f(x) = Σ values[y]·x^y. For a run
+ * of steps, Descartes' rule of signs applied to f mapped onto the run's
+ * x-interval (Vincent's transformation) bounds the roots inside: none → the
+ * run is skipped; exactly one → it is found by halving the run; otherwise
+ * the run is halved and each half examined again, down to single pairs of
+ * steps, judged exactly as the scan judges them. Where rounding makes a
+ * coefficient's sign doubtful the run is halved too, and a run whose ends
+ * disagree with the bound is scanned step by step, so the answer is the
+ * scan's. Stops once `limit` roots are found.
  */
 export function findIrrRoots(values: readonly number[], limit = Infinity): IrrRoot[] {
   const n = values.length;
-  const positive = new Float64Array(n);
-  const negative = new Float64Array(n);
-  for (let y = 0; y < n; y++) {
-    if (values[y] > 0) positive[y] = values[y];
-    else negative[y] = -values[y];
-  }
-  const poly = (coef: Float64Array, x: number): number => {
-    let acc = 0;
-    for (let y = n - 1; y >= 0; y--) acc = acc * x + coef[y];
-    return acc;
+  const s: RootSearch = {
+    values,
+    coef: Float64Array.from(values),
+    mag: Float64Array.from(values, Math.abs),
+    work: new Float64Array(n),
+    workMag: new Float64Array(n),
+    roots: [],
+    limit,
   };
-  const roots: IrrRoot[] = [];
-  const at = (k: number) => presentValueAt(values, irrGridRate(k));
-
-  // counts the pairs (k, k+1) for ka ≤ k < kb and exact zeros strictly inside (ka, kb)
-  const visit = (ka: number, kb: number, fa: number, fb: number): void => {
-    if (roots.length >= limit) return;
-    if (kb === ka + 1) {
-      if ((fa < 0 && fb > 0) || (fa > 0 && fb < 0)) roots.push({ lo: irrGridRate(ka), hi: irrGridRate(kb), exact: false });
-      return;
-    }
-    const xHi = 1 / (1 + irrGridRate(ka)); // x falls as k rises
-    const xLo = 1 / (1 + irrGridRate(kb));
-    const pHi = poly(positive, xHi);
-    const qHi = poly(negative, xHi);
-    const margin = 1e-12 * (pHi + qHi);
-    if (poly(positive, xLo) - qHi > margin || pHi - poly(negative, xLo) < -margin) return;
-    const km = (ka + kb) >> 1;
-    const fm = at(km);
-    visit(ka, km, fa, fm);
-    if (fm === 0 && roots.length < limit) roots.push({ lo: irrGridRate(km), hi: irrGridRate(km), exact: true });
-    visit(km, kb, fm, fb);
-  };
-
-  const f0 = at(IRR_GRID_FIRST_K);
-  const fLast = at(IRR_GRID_LAST_K);
-  if (f0 === 0) roots.push({ lo: irrGridRate(IRR_GRID_FIRST_K), hi: irrGridRate(IRR_GRID_FIRST_K), exact: true });
-  visit(IRR_GRID_FIRST_K, IRR_GRID_LAST_K, f0, fLast);
-  if (fLast === 0 && roots.length < limit) {
-    roots.push({ lo: irrGridRate(IRR_GRID_LAST_K), hi: irrGridRate(IRR_GRID_LAST_K), exact: true });
+  const f0 = gridValue(s, IRR_GRID_FIRST_K);
+  const fLast = gridValue(s, IRR_GRID_LAST_K);
+  if (f0 === 0) s.roots.push({ lo: irrGridRate(IRR_GRID_FIRST_K), hi: irrGridRate(IRR_GRID_FIRST_K), exact: true });
+  if (n > 1) visit(s, IRR_GRID_FIRST_K, IRR_GRID_LAST_K, f0, fLast);
+  if (fLast === 0 && s.roots.length < limit) {
+    s.roots.push({ lo: irrGridRate(IRR_GRID_LAST_K), hi: irrGridRate(IRR_GRID_LAST_K), exact: true });
   }
-  return roots;
+  return s.roots;
 }
 
 /**

@@ -11,17 +11,18 @@ import {
   paybackYears,
   ZERO,
 } from './time-value';
-import type { Comparison, PolicyDetail, PolicyKey, PolicyResult } from './types';
+import type { PolicyCash } from './cash-flow';
+import type { Comparison, PolicyKey, PolicyResult } from './types';
 
 /**
- * Results of one policy from its detailed periods.
+ * Results of one policy from its cash flows.
  * - npv = Σ CF_y·DF_y (negative: a cost)
  * - eac = −npv·(A/P, r, N) (an end-of-year annuity whatever the timing; −npv/N at r = 0)
  * - costPerHour = −(npv − PV of the after-tax extra margin) / Σ H_y·DF_y; costPerTonne on Σ tonnes_y·DF_y
  */
-export function policyResult(detail: PolicyDetail, discountRate: number, taxRate: number): PolicyResult {
-  const periods = detail.periods;
-  const n = periods.length - 1;
+export function policyResult(cash: PolicyCash, discountFactors: ArrayLike<number>, discountRate: number, taxRate: number): PolicyResult {
+  const n = cash.n;
+  const periods = cash.run.periods;
   let npv = 0;
   let pvExtra = 0;
   let pvHours = 0;
@@ -30,21 +31,17 @@ export function policyResult(detail: PolicyDetail, discountRate: number, taxRate
   let co2 = 0;
   let tonnes = 0;
   let hours = 0;
-  const cashFlows = new Array<number>(n + 1);
-  const breakdown = new Array<PolicyResult['breakdown'][number]>(n + 1);
   for (let y = 0; y <= n; y++) {
     const p = periods[y];
-    const df = p.discountFactor;
-    npv += p.cashFlow * df;
-    pvExtra += (1 - taxRate) * p.breakdown.extraMargin * df;
+    const df = discountFactors[y];
+    npv += cash.cashFlows[y] * df;
+    pvExtra += (1 - taxRate) * cash.breakdown[y].extraMargin * df;
     pvHours += p.hours * df;
     pvTonnes += p.tonnes * df;
     fuelLitres += p.fuelLitres;
-    co2 += p.co2Tonnes;
+    co2 += cash.co2Tonnes[y];
     tonnes += p.tonnes;
     hours += p.hours;
-    cashFlows[y] = p.cashFlow;
-    breakdown[y] = { ...p.breakdown };
   }
   const levelised = -(npv - pvExtra);
   return {
@@ -57,8 +54,8 @@ export function policyResult(detail: PolicyDetail, discountRate: number, taxRate
     tonnes,
     hours,
     fuelLitresPerHour: fuelLitres / hours,
-    cashFlows,
-    breakdown,
+    cashFlows: cash.cashFlows,
+    breakdown: cash.breakdown,
   };
 }
 
