@@ -35,14 +35,19 @@ export interface IrrRoot {
   exact: boolean;
 }
 
-/** Refine a bracketed root by bisection until the bracket is at most 1e-9 wide. */
+/**
+ * Refine a bracketed root by bisection: MODEL.md asks for 1e-9; we go on to
+ * the last bit (adjacent doubles, at most ~60 halvings), which is within 1e-9
+ * and makes npv(irr) vanish to rounding.
+ */
 export function refineRoot(values: readonly number[], root: IrrRoot): number {
   if (root.exact) return root.lo;
   let lo = root.lo;
   let hi = root.hi;
   let flo = presentValueAt(values, lo);
-  while (hi - lo > 1e-9) {
+  for (let iter = 0; iter < 200; iter++) {
     const mid = (lo + hi) / 2;
+    if (mid <= lo || mid >= hi) break;
     const fm = presentValueAt(values, mid);
     if (fm === 0) return mid;
     if (fm > 0 === flo > 0) {
@@ -50,7 +55,7 @@ export function refineRoot(values: readonly number[], root: IrrRoot): number {
       flo = fm;
     } else hi = mid;
   }
-  return (lo + hi) / 2;
+  return Math.abs(presentValueAt(values, hi)) < Math.abs(flo) ? hi : lo;
 }
 
 /** Every root on the grid, visiting all 10,991 steps (the reference procedure). */
