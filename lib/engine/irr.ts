@@ -215,6 +215,8 @@ function visit(s: RootSearch, ka: number, kb: number, fa: number, fb: number): v
  * scan's. Stops once `limit` roots are found.
  */
 export function findIrrRoots(values: readonly number[], limit = Infinity): IrrRoot[] {
+  // the zero polynomial is zero at every step: nothing to isolate
+  if (values.every((v) => v === 0)) return scanIrrRoots(values).slice(0, limit);
   const n = values.length;
   const s: RootSearch = {
     values,
