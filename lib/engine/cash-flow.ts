@@ -14,7 +14,7 @@ import type { BreakdownEntry, DepreciatedSpend, PeriodDetail, PolicyDetail, Resi
  * for the unused share of its life, at year-N prices:
  * overhaulCost · max(0, 1 − a_N / lifeHours) · index_N.
  *
- * @example residualCredit(900000, 14500, 20000, 1) // = 247500
+ * @example residualCredit(900000, 14500, 20000, 1) // ≈ 247500
  */
 export function residualCredit(overhaulCost: number, age: number, lifeHours: number, priceIndex: number): number {
   return overhaulCost * Math.max(0, 1 - age / lifeHours) * priceIndex;
