@@ -32,9 +32,9 @@ export interface PolicyCash {
   /** CF_0..CF_N */
   cashFlows: number[];
   breakdown: BreakdownEntry[];
-  co2Tonnes: Float64Array;
-  deductibleCosts: Float64Array;
-  depreciation: Float64Array;
+  co2Tonnes: number[];
+  deductibleCosts: number[];
+  depreciation: number[];
   /** basis written off in year N */
   writeOff: number;
   spends: DepreciatedSpend[];
@@ -48,7 +48,7 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
   const expense = a.rebuildAccounting === 'expense';
 
   // capital spends and their schedules: the repower always, overhauls and repairs when capitalised
-  const depreciation = new Float64Array(n + 1);
+  const depreciation = new Array<number>(n + 1).fill(0);
   let writeOff = 0;
   const spends: DepreciatedSpend[] = [];
   for (const ev of run.events) {
@@ -77,8 +77,8 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
 
   const cashFlows = new Array<number>(n + 1);
   const breakdown = new Array<BreakdownEntry>(n + 1);
-  const co2 = new Float64Array(n + 1);
-  const deductible = new Float64Array(n + 1);
+  const co2 = new Array<number>(n + 1);
+  const deductible = new Array<number>(n + 1);
   for (let y = 0; y <= n; y++) {
     const r = run.periods[y];
     co2[y] = co2Tonnes(r.fuelLitres, a.co2KgPerLitre);
