@@ -113,6 +113,7 @@ describe('business cases in the browser', () => {
     const box = (await page.getByTestId('chart-fuel').locator('svg').first().boundingBox())!;
     await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
     await page.getByText(/kL \([\d.,]+ L\/h\)/).first().waitFor();
+    await screenshot(page, 'case-truck-charts');
     expect(await page.getByTestId('event-timeline').textContent()).toMatch(/Repower/);
     const cli09 = cli.find((t) => t.id === 'T3-09')!;
     expect(num((await page.getByTestId('npv-repower').textContent()) ?? '')).toBe(Math.round(cli09.options.repower.npv));
@@ -141,6 +142,13 @@ describe('business cases in the browser', () => {
     expect(months.length).toBeGreaterThan(0);
     expect(new Set(months).size).toBe(months.length); // one swap a month
     await screenshot(page, 'case-plan');
+    // every result links to the methodology
+    await page.getByRole('link', { name: /Methodology/ }).click();
+    await page.waitForURL(/\/methodology$/);
+    expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Methodology');
+    expect(await page.getByRole('heading', { name: /Ranking, capital plan and schedule/ }).count()).toBe(1);
+    expect(await page.getByTestId('engine-methodology').textContent()).toMatch(/Discount factor/);
+    await screenshot(page, 'methodology');
     await signOut(page);
   });
 
@@ -148,6 +156,7 @@ describe('business cases in the browser', () => {
     await signIn(page, baseURL, 'viewer@aldervane.test');
     await page.goto(`${baseURL}/${WS}/cases`);
     await page.getByTestId('cases-table').waitFor();
+    await screenshot(page, 'cases-list-viewer');
     expect(await page.getByRole('button', { name: 'New case' }).count()).toBe(0);
     expect(await page.getByRole('button', { name: 'Delete' }).count()).toBe(0);
     await page.goto(caseUrl);
