@@ -137,7 +137,7 @@ describe('business cases in the browser', () => {
     expect(num((await row.locator('td').nth(1).textContent()) ?? '')).toBe(3000);
     expect(num((await row.locator('td').nth(2).textContent()) ?? '')).toBeLessThanOrEqual(3000);
     expect(await page.getByTestId(`chosen-${y}`).textContent()).not.toBe('—');
-    expect(await page.getByTestId(`left-out-${y}`).textContent()).toMatch(/\(\+[\d,]+\)/);
+    expect(await page.getByTestId(`left-out-${y}`).textContent()).toMatch(/forgoes [\d,]+ · needs \+[\d,]+/);
     const months = await page.getByTestId('schedule-table').locator('tbody tr td:first-child').allTextContents();
     expect(months.length).toBeGreaterThan(0);
     expect(new Set(months).size).toBe(months.length); // one swap a month
