@@ -20,6 +20,11 @@ export function residualCredit(overhaulCost: number, age: number, lifeHours: num
   return overhaulCost * Math.max(0, 1 - age / lifeHours) * priceIndex;
 }
 
+/** A cost as cash: negative, and 0 rather than −0 when there is none. */
+function negate(x: number): number {
+  return x === 0 ? 0 : -x;
+}
+
 /** Cash flows of a policy run: tax, depreciation, residual and the breakdown by category. */
 export interface PolicyCash {
   run: PolicyRun;
@@ -84,13 +89,13 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
     const credit = y === n ? residual.credit : 0;
     const taxEffect = t * (deductible[y] - r.extraMargin + depreciation[y] + wo - credit);
     const b: BreakdownEntry = {
-      fuel: -fuel,
-      carbon: -carbon,
-      lube: -r.lube,
-      overhauls: -r.overhauls,
-      failures: -r.failures,
-      capital: -r.capital,
-      lostMargin: -r.lostMargin,
+      fuel: negate(fuel),
+      carbon: negate(carbon),
+      lube: negate(r.lube),
+      overhauls: negate(r.overhauls),
+      failures: negate(r.failures),
+      capital: negate(r.capital),
+      lostMargin: negate(r.lostMargin),
       extraMargin: r.extraMargin,
       taxEffect,
       residual: credit,
