@@ -79,7 +79,11 @@ export function FleetImport({ ws, columns }: { ws: WorkspaceView; columns: Impor
       <section className="card p-4">
         <h2 className="text-base font-semibold">2. Check the file</h2>
         <label htmlFor="fleet-file" className="label mt-2">Fleet file (.csv or .xlsx)</label>
-        <input id="fleet-file" type="file" accept=".csv,.xlsx" className="text-sm" onChange={(e) => check(e.target.files?.[0] ?? null)} />
+        <input id="fleet-file" type="file" accept=".csv,.xlsx" className="text-sm" onChange={(e) => {
+            void check(e.target.files?.[0] ?? null);
+            // Cleared so that choosing the same file again, once fixed, checks it again.
+            e.target.value = '';
+          }} />
         {busy ? <p className="mt-2 text-sm text-muted">Working…</p> : null}
         {fileError ? <p role="alert" className="mt-2 text-sm text-loss" data-testid="import-file-error">{fileError} Nothing was saved.</p> : null}
         {done ? <p role="status" className="mt-2 text-sm text-gain" data-testid="import-done">{done} <Link className="underline" href={`/${ws.slug}/fleet`}>Back to the register</Link></p> : null}
