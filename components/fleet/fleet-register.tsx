@@ -4,10 +4,12 @@ import {
   flexRender, getCoreRowModel, getFilteredRowModel, getSortedRowModel, useReactTable,
   type ColumnDef, type SortingState, type VisibilityState,
 } from '@tanstack/react-table';
+import Link from 'next/link';
 import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import { DISPLAY_DIGITS, toDisplay, UNIT_LABEL } from '@/lib/display-units';
 import { formatNumber } from '@/lib/format';
+import { EmptyState } from '@/components/ui/empty-state';
 import { TruckForm } from './truck-form';
 import { api, type TruckRow, type WorkspaceView } from './types';
 
@@ -60,6 +62,21 @@ export function FleetRegister({ ws }: { ws: WorkspaceView }) {
   if (error) return <p role="alert" className="text-sm text-loss">Could not load the register: {error.message}</p>;
   if (isLoading) return <p className="text-sm text-muted">Loading trucks…</p>;
   const rows = table.getRowModel().rows;
+  if (data?.items.length === 0 && !editing) {
+    return (
+      <EmptyState
+        title="No trucks yet"
+        action={ws.canEdit ? (
+          <div className="flex gap-2">
+            <Link className="btn btn-primary" href={`/${ws.slug}/fleet/import`}>Import from a file</Link>
+            <button type="button" className="btn" onClick={() => setEditing('new')}>Add a truck</button>
+          </div>
+        ) : null}
+      >
+        Each truck&rsquo;s unit number, payload class, engine type, engine hours, remaining life, annual operating hours, load factor, productivity (t/h) and measured fuel burn belong here.
+      </EmptyState>
+    );
+  }
   return (
     <section>
       {editing ? <TruckForm ws={ws} truck={editing === 'new' ? null : editing} onDone={() => setEditing(null)} /> : null}

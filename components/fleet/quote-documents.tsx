@@ -48,7 +48,7 @@ export function QuoteDocuments({ ws, offerId, offerKey }: { ws: WorkspaceView; o
           {data.items.map((d) => (
             <li key={d.id} className="flex items-center gap-3 py-0.5">
               <a className="text-accent hover:underline" href={`${key}/${d.id}`} download>{d.fileName}</a>
-              <span className="text-xs text-muted">{formatNumber(d.size / 1024, 0)} KB · {d.createdAt.slice(0, 10)}</span>
+              <span className="text-xs text-muted">{d.size < 1024 ? `${d.size} bytes` : `${formatNumber(d.size / 1024, 0)} KB`} · {d.createdAt.slice(0, 10)}</span>
               {ws.canEdit ? <button type="button" className="text-xs text-loss hover:underline" onClick={() => remove(d)}>Remove</button> : null}
             </li>
           ))}

@@ -118,3 +118,61 @@ describe('fleet register, import and quote documents in the browser', () => {
     await signOut(page);
   });
 });
+
+describe('engine library, assumption sets and display units in the browser', () => {
+  let page: Page;
+  let baseURL: string;
+  let close: () => Promise<void>;
+  beforeAll(async () => {
+    ({ page, baseURL, close } = await openBrowser());
+  });
+  afterAll(async () => close());
+
+  it('analyst copies an assumption set and edits the copy', async () => {
+    await signIn(page, baseURL, 'analyst@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/assumptions`);
+    await page.getByRole('button', { name: 'Copy High fuel' }).click();
+    const form = page.getByTestId('assumption-form');
+    await form.waitFor();
+    await form.getByLabel('Name').fill('High fuel, 10 % discount');
+    await form.getByLabel('Discount rate (nominal, fraction)').fill('0.1');
+    await form.getByRole('button', { name: 'Save assumption set' }).click();
+    await form.waitFor({ state: 'detached' });
+    const row = page.getByTestId('assumption-table').locator('tr', { hasText: 'High fuel, 10 % discount' });
+    expect(await row.locator('td').nth(1).textContent()).toBe('10.0 %');
+    await screenshot(page, 'assumption-sets');
+    await signOut(page);
+  });
+
+  it('admin switches display units to US customary: the engine library shows hp and lb/hp-h', async () => {
+    await signIn(page, baseURL, 'admin@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByLabel(/US customary/).check();
+    await page.getByRole('button', { name: 'Save display settings' }).click();
+    await page.getByText('Saved.').waitFor();
+    await page.goto(`${baseURL}/${WS}/engines`);
+    const table = page.getByTestId('engine-table');
+    await table.getByText('Rated (hp)').waitFor();
+    const legacy = table.locator('tr', { hasText: 'ac-2600-legacy' });
+    // 2,600 kW ÷ 0.745 699 872 kW/hp = 3,486.6 hp; 212 g/kWh = 0.349 lb/hp-h
+    expect(await legacy.locator('td').nth(2).textContent()).toBe('3,487');
+    expect(await legacy.locator('td').nth(3).textContent()).toBe('0.349');
+    await screenshot(page, 'engine-library-us-units');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByLabel(/Metric/).check();
+    await page.getByRole('button', { name: 'Save display settings' }).click();
+    await page.getByText('Saved.').waitFor();
+    await signOut(page);
+  });
+
+  it('a viewer sees the settings but cannot change them', async () => {
+    await signIn(page, baseURL, 'viewer@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByText('Only a workspace admin can change these.').waitFor();
+    expect(await page.getByRole('button', { name: 'Save display settings' }).count()).toBe(0);
+    await page.goto(`${baseURL}/${WS}/engines`);
+    await page.getByTestId('engine-table').waitFor();
+    expect(await page.getByRole('button', { name: 'Add engine type' }).count()).toBe(0);
+    await signOut(page);
+  });
+});
