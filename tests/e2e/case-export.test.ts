@@ -10,6 +10,7 @@ import { WS, openBrowser, screenshot, signIn, signOut } from './support/browser'
 describe('case export from the case page', () => {
   let b: Awaited<ReturnType<typeof openBrowser>>;
   let caseId: number;
+  let truckCount: number;
 
   beforeAll(async () => {
     b = await openBrowser();
@@ -22,6 +23,7 @@ describe('case export from the case page', () => {
     });
     expect(made.status()).toBe(201);
     caseId = (await made.json()).case.id;
+    truckCount = opts.trucks.length; // the demo fleet, plus any trucks other browser tests added
     await signOut(b.page);
   });
   afterAll(async () => b?.close());
@@ -48,6 +50,7 @@ describe('case export from the case page', () => {
     const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Summary CSV' }).click()]);
     const text = fs.readFileSync(await csv.path(), 'utf8');
     expect(text.split('\r\n')[0]).toContain('NPV keep (USD)');
-    expect(text.split('\r\n')).toHaveLength(1 + 24 + 1 + 1);
+    expect(truckCount).toBeGreaterThanOrEqual(24);
+    expect(text.split('\r\n')).toHaveLength(1 + truckCount + 1 + 1);
   });
 });
