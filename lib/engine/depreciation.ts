@@ -1,0 +1,111 @@
+/**
+ * Tax depreciation schedules (MODEL.md section 6). A schedule lists the
+ * amounts D_1, D_2, … of one spend; the engine places D_j in year
+ * max(s, 1) + j − 1 for a spend in period s and writes off in year N whatever
+ * falls later.
+ */
+import type { Depreciation } from '@/lib/validation/case';
+
+/**
+ * US MACRS GDS, half-year convention: IRS Publication 946, Table A-1, the
+ * percentages of basis as printed (n + 1 entries for an n-year class; the IRS
+ * rounds them so each column sums to 100). 3-, 5-, 7- and 10-year classes are
+ * 200 % declining balance, 15- and 20-year 150 %.
+ */
+export const MACRS_HALF_YEAR_PERCENT: Readonly<Record<3 | 5 | 7 | 10 | 15 | 20, readonly number[]>> = {
+  3: [33.33, 44.45, 14.81, 7.41],
+  5: [20.0, 32.0, 19.2, 11.52, 11.52, 5.76],
+  7: [14.29, 24.49, 17.49, 12.49, 8.93, 8.92, 8.93, 4.46],
+  10: [10.0, 18.0, 14.4, 11.52, 9.22, 7.37, 6.55, 6.55, 6.56, 6.55, 3.28],
+  15: [5.0, 9.5, 8.55, 7.7, 6.93, 6.23, 5.9, 5.9, 5.91, 5.9, 5.91, 5.9, 5.91, 5.9, 5.91, 2.95],
+  20: [
+    3.75, 7.219, 6.677, 6.177, 5.713, 5.285, 4.888, 4.522, 4.462, 4.461, 4.462, 4.461, 4.462, 4.461, 4.462, 4.461,
+    4.462, 4.461, 4.462, 4.461, 2.231,
+  ],
+};
+
+/**
+ * MACRS GDS half-year schedule of `amount` over a `years`-year class:
+ * D_j = amount · pct_j / 100 with pct from `MACRS_HALF_YEAR_PERCENT`.
+ *
+ * @example macrsSchedule(100000, 7)[0] // = 14290
+ */
+export function macrsSchedule(amount: number, years: number): number[] {
+  const table = MACRS_HALF_YEAR_PERCENT[years as 3 | 5 | 7 | 10 | 15 | 20];
+  if (!table) throw new RangeError(`MACRS: no GDS table for ${years} years (3, 5, 7, 10, 15, 20)`);
+  return table.map((pct) => (amount * pct) / 100);
+}
+
+/**
+ * Straight line: amount / years in each of `years` years.
+ *
+ * @example straightLineSchedule(1000, 4) // = [250, 250, 250, 250]
+ */
+export function straightLineSchedule(amount: number, years: number): number[] {
+  return Array.from({ length: years }, () => amount / years);
+}
+
+/**
+ * Declining balance with a switch to straight line:
+ * D_j = max(B_{j−1}·factor/n, B_{j−1}/(n − j + 1)), j = 1..n, where B is the
+ * basis not yet depreciated (B_0 = amount). The straight-line term takes over
+ * once it is larger, and the last year takes all that is left, so the
+ * schedule always sums to the amount. No half-year convention.
+ *
+ * @example decliningBalanceSchedule(1000, 5, 2) // = [400, 240, 144, 108, 108]
+ */
+export function decliningBalanceSchedule(amount: number, years: number, factor = 2): number[] {
+  const out: number[] = [];
+  let basis = amount;
+  for (let j = 1; j <= years; j++) {
+    const d = Math.max((basis * factor) / years, basis / (years - j + 1));
+    out.push(d);
+    basis -= d;
+  }
+  return out;
+}
+
+/**
+ * Schedule of `amount` under a case's depreciation method. `none` gives an
+ * empty schedule: no depreciation and no write-off.
+ *
+ * @example depreciationSchedule(1000, { method: 'straight-line', years: 2 }) // = [500, 500]
+ */
+export function depreciationSchedule(amount: number, method: Depreciation): number[] {
+  switch (method.method) {
+    case 'none':
+      return [];
+    case 'straight-line':
+      return straightLineSchedule(amount, method.years);
+    case 'declining-balance':
+      return decliningBalanceSchedule(amount, method.years, method.factor ?? 2);
+    case 'macrs':
+      return macrsSchedule(amount, method.years);
+  }
+}
+
+/** Where a spend's depreciation falls within a horizon of N years. */
+export interface PlacedSchedule {
+  /** depreciation by period 0..N (period 0 is always 0), write-off excluded */
+  byPeriod: number[];
+  /** basis not yet depreciated by the end of year N, written off in year N */
+  writeOff: number;
+}
+
+/**
+ * Place a spend's schedule on the horizon: D_j falls in year max(s,1)+j−1;
+ * whatever would fall after year N is written off in year N.
+ *
+ * @example placeSchedule([500, 500], 0, 1) // = { byPeriod: [0, 500], writeOff: 500 }
+ */
+export function placeSchedule(schedule: readonly number[], spendPeriod: number, horizonYears: number): PlacedSchedule {
+  const byPeriod = new Array<number>(horizonYears + 1).fill(0);
+  let writeOff = 0;
+  const first = Math.max(spendPeriod, 1);
+  for (let j = 0; j < schedule.length; j++) {
+    const year = first + j;
+    if (year <= horizonYears) byPeriod[year] += schedule[j];
+    else writeOff += schedule[j];
+  }
+  return { byPeriod, writeOff };
+}

@@ -1,0 +1,56 @@
+/**
+ * Public API of the finance engine (MODEL.md). Pure: no Next, React, database
+ * or I/O. Case in (`case/1`), numbers out (`case-result/1`).
+ */
+export { evaluateCase, evaluateCaseDetailed, evaluateTruck } from './evaluate';
+export * from './types';
+export {
+  ZERO,
+  isZero,
+  npv,
+  discountFactor,
+  capitalRecoveryFactor,
+  capitalRecovery,
+  equivalentAnnualWorth,
+  equivalentAnnualCost,
+  pmt,
+  mirr,
+  paybackYears,
+  firstNonZero,
+  countSignChanges,
+} from './time-value';
+export { irr, findIrrRoots, scanIrrRoots, presentValueAt, refineRoot, irrGridRate } from './irr';
+export {
+  MACRS_HALF_YEAR_PERCENT,
+  macrsSchedule,
+  straightLineSchedule,
+  decliningBalanceSchedule,
+  depreciationSchedule,
+  placeSchedule,
+} from './depreciation';
+export { powerDemandKw, modelledBurnLitresPerHour, calibrationFactor, co2Tonnes } from './fuel';
+export {
+  weibullReliability,
+  weibullCdf,
+  conditionalReliability,
+  medianFailureAge,
+  medianResidualLife,
+  sampleWeibullAge,
+} from './reliability';
+export { horizonYears, priceIndex } from './setup';
+export { countOilServices } from './simulate';
+export { residualCredit } from './cash-flow';
+export { bestPolicy, comparePolicies } from './results';
+export { rollUpFleet, capitalSpent } from './fleet';
+export {
+  kwToHp,
+  hpToKw,
+  litresToUsGallons,
+  usGallonsToLitres,
+  gPerKwhToLbPerHpH,
+  lbPerHpHToGPerKwh,
+  litresPerHourToGallonsPerHour,
+  gallonsPerHourToLitresPerHour,
+} from './units';
+export { validateCase, CaseValidationError } from '@/lib/validation/case';
+export type { CaseFile, CaseFileInput, CaseProblem } from '@/lib/validation/case';

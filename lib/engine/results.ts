@@ -1,0 +1,108 @@
+/**
+ * Per-policy results, the three comparisons and `best` (MODEL.md section 8).
+ */
+import { irr } from './irr';
+import {
+  countSignChanges,
+  equivalentAnnualCost,
+  firstNonZero,
+  isZero,
+  mirr,
+  paybackYears,
+  ZERO,
+} from './time-value';
+import type { PolicyCash } from './cash-flow';
+import type { Comparison, PolicyKey, PolicyResult } from './types';
+
+/**
+ * Results of one policy from its cash flows.
+ * - npv = Σ CF_y·DF_y (negative: a cost)
+ * - eac = −npv·(A/P, r, N) (an end-of-year annuity whatever the timing; −npv/N at r = 0)
+ * - costPerHour = −(npv − PV of the after-tax extra margin) / Σ H_y·DF_y; costPerTonne on Σ tonnes_y·DF_y
+ */
+export function policyResult(cash: PolicyCash, discountFactors: ArrayLike<number>, discountRate: number, taxRate: number): PolicyResult {
+  const n = cash.n;
+  const periods = cash.run.periods;
+  let npv = 0;
+  let pvExtra = 0;
+  let pvHours = 0;
+  let pvTonnes = 0;
+  let fuelLitres = 0;
+  let co2 = 0;
+  let tonnes = 0;
+  let hours = 0;
+  for (let y = 0; y <= n; y++) {
+    const p = periods[y];
+    const df = discountFactors[y];
+    npv += cash.cashFlows[y] * df;
+    pvExtra += (1 - taxRate) * cash.breakdown[y].extraMargin * df;
+    pvHours += p.hours * df;
+    pvTonnes += p.tonnes * df;
+    fuelLitres += p.fuelLitres;
+    co2 += cash.co2Tonnes[y];
+    tonnes += p.tonnes;
+    hours += p.hours;
+  }
+  const levelised = -(npv - pvExtra);
+  return {
+    npv,
+    eac: equivalentAnnualCost(npv, discountRate, n),
+    costPerHour: levelised / pvHours,
+    costPerTonne: levelised / pvTonnes,
+    fuelLitres,
+    co2Tonnes: co2,
+    tonnes,
+    hours,
+    fuelLitresPerHour: fuelLitres / hours,
+    cashFlows: cash.cashFlows,
+    breakdown: cash.breakdown,
+  };
+}
+
+/**
+ * Compare policy `first` with `second` on ΔCF_y = CF_y(first) − CF_y(second).
+ * `firstCapital` is the first policy's `capital` category by period (negative).
+ */
+export function comparePolicies(
+  first: readonly number[],
+  second: readonly number[],
+  discountFactors: ArrayLike<number>,
+  discountRate: number,
+  firstCapital: readonly number[],
+): Comparison {
+  const n = first.length - 1;
+  const delta = new Array<number>(n + 1);
+  const discounted = new Array<number>(n + 1);
+  let deltaNpv = 0;
+  let pvCapital = 0;
+  for (let y = 0; y <= n; y++) {
+    delta[y] = first[y] - second[y];
+    discounted[y] = delta[y] * discountFactors[y];
+    deltaNpv += discounted[y];
+    pvCapital -= firstCapital[y] * discountFactors[y];
+  }
+  const s = firstNonZero(delta);
+  return {
+    deltaNpv,
+    irr: irr(delta),
+    irrSignChanges: countSignChanges(delta),
+    mirr: mirr(delta, discountRate, discountRate),
+    paybackYears: paybackYears(delta, s),
+    discountedPaybackYears: paybackYears(discounted, s),
+    profitabilityIndex: isZero(pvCapital) ? null : 1 + deltaNpv / pvCapital,
+  };
+}
+
+/**
+ * The policy with the highest npv. Policies whose npv is within 1e-6 of the
+ * highest tie with it, and ties go to rebuild, then keep, then repower.
+ *
+ * @example bestPolicy({ keep: -10, rebuild: -10 + 5e-7, repower: -20 }) // = 'rebuild'
+ */
+export function bestPolicy(npvs: Record<PolicyKey, number>): PolicyKey {
+  const top = Math.max(npvs.keep, npvs.rebuild, npvs.repower);
+  for (const key of ['rebuild', 'keep', 'repower'] as const) {
+    if (npvs[key] > top - ZERO) return key;
+  }
+  return 'rebuild';
+}

@@ -1,0 +1,128 @@
+/**
+ * What every policy of one truck shares: the time grid (MODEL.md section 2),
+ * discount factors, price indices and the calibrated fuel burn (section 4).
+ * Built once per truck, then read by the three policy runs.
+ */
+import type { Assumptions, CaseFileInput, Depreciation, Engine, RepowerOffer, Truck } from '@/lib/validation/case';
+import { calibrationFactor, modelledBurnLitresPerHour, powerDemandKw } from './fuel';
+import { ZERO } from './time-value';
+
+/** Assumptions with every default filled in (MODEL.md defaults). */
+export interface ResolvedAssumptions extends Omit<Assumptions, 'depreciation'> {
+  depreciation: Depreciation;
+}
+
+export interface TruckSetup {
+  truck: Truck;
+  a: ResolvedAssumptions;
+  start: Engine;
+  offer: RepowerOffer;
+  next: Engine;
+  /** N: years in the horizon */
+  n: number;
+  /** H_y for y = 0..N (H_0 = 0) */
+  hours: Float64Array;
+  discountFactor: Float64Array;
+  fuelIndex: Float64Array;
+  carbonIndex: Float64Array;
+  generalIndex: Float64Array;
+  powerKw: number;
+  calibration: number;
+  burnStart: number;
+  burnNext: number;
+}
+
+/** Case input (possibly without its defaulted fields) → assumptions with defaults. */
+export function resolveAssumptions(input: CaseFileInput['assumptions']): ResolvedAssumptions {
+  const dep = input.depreciation;
+  return {
+    ...input,
+    timing: input.timing ?? 'end-of-year',
+    horizonYears: input.horizonYears ?? null,
+    rebuildAccounting: input.rebuildAccounting ?? 'expense',
+    depreciation: dep.method === 'declining-balance' ? { ...dep, factor: dep.factor ?? 2 } : (dep as Depreciation),
+  };
+}
+
+export function resolveOffer(input: CaseFileInput['repowerOffers'][number]): RepowerOffer {
+  return { ...input, productivityGain: input.productivityGain ?? 0, timing: input.timing ?? 'at-overhaul' };
+}
+
+export function resolveTruck(input: CaseFileInput['trucks'][number]): Truck {
+  return { ...input, fuelBurnLitresPerHour: input.fuelBurnLitresPerHour ?? null };
+}
+
+/**
+ * Years in a truck's horizon: N = ceil(remainingLifeHours / annualHours),
+ * capped by horizonYears when set. Hours left over in a last year below
+ * 1e-6 count as zero (so 18,000 / 6,000 is 3 years even after rounding).
+ *
+ * @example horizonYears(55000, 6200, null) // = 9
+ */
+export function horizonYears(remainingLifeHours: number, annualHours: number, cap: number | null): number {
+  const whole = Math.floor(remainingLifeHours / annualHours);
+  const leftover = remainingLifeHours - whole * annualHours;
+  const n = Math.max(1, leftover < ZERO ? whole : whole + 1);
+  return cap == null ? n : Math.min(n, cap);
+}
+
+/**
+ * Price index of year y for growth g: 1 in period 0, (1+g)^(y−1) in year y ≥ 1
+ * (case prices are year-1 prices).
+ *
+ * @example priceIndex(0.025, 3) // = 1.025² = 1.050625
+ */
+export function priceIndex(growth: number, period: number): number {
+  return period === 0 ? 1 : Math.pow(1 + growth, period - 1);
+}
+
+export function buildTruckSetup(
+  truck: Truck,
+  a: ResolvedAssumptions,
+  engines: ReadonlyMap<string, Engine>,
+  offers: ReadonlyMap<string, RepowerOffer>,
+): TruckSetup {
+  const start = engines.get(truck.engineId);
+  const offer = offers.get(truck.repowerOfferId);
+  const next = offer && engines.get(offer.engineId);
+  if (!start || !offer || !next) throw new Error(`truck ${truck.id}: unknown engine or repower offer`);
+
+  const n = horizonYears(truck.remainingLifeHours, truck.annualHours, a.horizonYears);
+  const hours = new Float64Array(n + 1);
+  const discountFactor = new Float64Array(n + 1);
+  const fuelIndex = new Float64Array(n + 1);
+  const carbonIndex = new Float64Array(n + 1);
+  const generalIndex = new Float64Array(n + 1);
+  const half = a.timing === 'mid-year' ? 0.5 : 0;
+  for (let y = 0; y <= n; y++) {
+    hours[y] = y === 0 ? 0 : Math.max(0, Math.min(truck.annualHours, truck.remainingLifeHours - (y - 1) * truck.annualHours));
+    discountFactor[y] = y === 0 ? 1 : Math.pow(1 + a.discountRate, -(y - half));
+    fuelIndex[y] = priceIndex(a.fuelEscalation, y);
+    carbonIndex[y] = priceIndex(a.carbonEscalation, y);
+    generalIndex[y] = priceIndex(a.inflation, y);
+  }
+
+  const powerKw = powerDemandKw(truck.loadFactor, start.ratedKw);
+  const modelledStart = modelledBurnLitresPerHour(powerKw, start.bsfcGPerKwh, a.fuelDensityKgPerL);
+  const calibration = calibrationFactor(truck.fuelBurnLitresPerHour, modelledStart);
+  const burnStart = calibration * modelledStart;
+  const burnNext = calibration * modelledBurnLitresPerHour(powerKw, next.bsfcGPerKwh, a.fuelDensityKgPerL);
+
+  return {
+    truck,
+    a,
+    start,
+    offer,
+    next,
+    n,
+    hours,
+    discountFactor,
+    fuelIndex,
+    carbonIndex,
+    generalIndex,
+    powerKw,
+    calibration,
+    burnStart,
+    burnNext,
+  };
+}
