@@ -76,3 +76,8 @@ export async function countWaitingForMe(access: Access): Promise<number> {
   if (!(CAN.decide as readonly string[]).includes(access.role)) return 0;
   return (await fetchInbox(access)).filter((r) => r.mine === 'waiting').length;
 }
+
+/** The last decided cases (approved, rejected, sent back), newest first. */
+export async function fetchRecentDecisions(workspaceId: number, limit = 20): Promise<Array<{ id: number; name: string; status: CaseStatus; decidedAt: string | null }>> {
+  return db()('business_cases').where({ workspaceId }).whereIn('status', ['approved', 'rejected', 'returned']).orderBy('updatedAt', 'desc').limit(limit).select('id', 'name', 'status', 'decidedAt');
+}
