@@ -36,3 +36,8 @@ export const acceptInvitationSchema = z.strictObject({
 
 export const forgotPasswordSchema = z.strictObject({ email: z.string().trim().toLowerCase().email('Enter a valid email address.').max(320) });
 export const resetPasswordSchema = z.strictObject({ token, password });
+
+/** Body of PUT …/settings/approvals: how many distinct people must approve a case. */
+export const approvalsSettingSchema = z.strictObject({
+  approvalsRequired: z.number({ error: 'Enter a whole number.' }).int('Enter a whole number.').min(1, 'At least one approval is needed.').max(10, 'At most 10.'),
+});

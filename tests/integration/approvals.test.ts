@@ -8,6 +8,7 @@ import { POST as submit } from '@/app/api/workspaces/[workspace]/cases/[id]/subm
 import { POST as decide } from '@/app/api/workspaces/[workspace]/cases/[id]/decisions/route';
 import { GET as history } from '@/app/api/workspaces/[workspace]/cases/[id]/history/route';
 import { POST as revise } from '@/app/api/workspaces/[workspace]/cases/[id]/revision/route';
+import { PUT as putApprovals } from '@/app/api/workspaces/[workspace]/settings/approvals/route';
 import { createTestDb } from '../support/test-db';
 import { call } from './support/call';
 import { insertDraftCase, userIds } from './support/cases';
@@ -201,5 +202,20 @@ describe.each(backends)('approval workflow with e-mail through a real SMTP sink 
     signInAs(ids['analyst@aldervane.test']);
     expect((await call(submit, p(id), { body: { version: 7 } })).status).toBe(409);
     expect((await call(submit, p(id), { body: { version: 1 } })).status).toBe(200);
+  });
+
+  it('lets only an admin set how many approvers a case needs, validated and audited', async () => {
+    signInAs(ids['approver@aldervane.test']);
+    expect((await call(putApprovals, { workspace: WS }, { method: 'PUT', body: { approvalsRequired: 2 } })).status).toBe(403);
+    signInAs(ids['admin@aldervane.test']);
+    const bad = await call(putApprovals, { workspace: WS }, { method: 'PUT', body: { approvalsRequired: 0 } });
+    expect(bad.status).toBe(422);
+    expect(bad.body.problems).toEqual([{ path: 'approvalsRequired', message: 'At least one approval is needed.' }]);
+    expect((await call(putApprovals, { workspace: WS }, { method: 'PUT', body: { approvalsRequired: 3 } })).status).toBe(200);
+    const settings = JSON.parse((await k('workspaces').where({ slug: WS }).first('settings')).settings);
+    expect(settings).toEqual({ units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 3 });
+    const audit = await k('audit_log').where({ entity: 'workspace_settings' }).orderBy('id', 'desc').first();
+    expect(JSON.parse(audit.after)).toEqual({ approvalsRequired: 3 });
+    await call(putApprovals, { workspace: WS }, { method: 'PUT', body: { approvalsRequired: 1 } });
   });
 });
