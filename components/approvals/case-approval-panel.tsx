@@ -35,8 +35,9 @@ export function CaseApprovalPanel({ workspace, caseId }: { workspace: string; ca
     try {
       const r = await sendJson<{ id?: number }>(`${base}/${path}`, 'POST', body);
       setComment('');
-      setMessage({ kind: 'ok', text: done });
+      // Reload the status first, so the confirmation never shows beside the old status.
       await mutate();
+      setMessage({ kind: 'ok', text: done });
       if (path === 'revision' && r.id) router.push(`/${workspace}/approvals/${r.id}`);
       else router.refresh();
     } catch (e) {
