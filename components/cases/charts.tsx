@@ -16,7 +16,7 @@ const theme = buildChartTheme({
   svgLabelSmall: { fill: '#5d646d', fontSize: 11 },
   svgLabelBig: { fill: '#15181c', fontSize: 12 },
 });
-const MARGIN = { top: 16, right: 20, bottom: 44, left: 72 };
+const MARGIN = { top: 16, right: 20, bottom: 44, left: 88 };
 type Pt = { x: number; y: number };
 const px = (d: Pt) => d.x;
 const py = (d: Pt) => d.y;
@@ -34,12 +34,13 @@ function Legend({ items }: { items: Array<{ label: string; colour: string; shape
   );
 }
 
-function Figure({ title, children, legend, testId }: { title: string; children: React.ReactNode; legend: React.ReactNode; testId: string }) {
+// XYChart sizes itself to its parent, so the parent needs a height of its own.
+function Figure({ title, children, legend, testId, height }: { title: string; children: React.ReactNode; legend: React.ReactNode; testId: string; height: number }) {
   return (
     <figure className="card p-3" data-testid={testId}>
       <figcaption className="mb-1 text-sm font-semibold">{title}</figcaption>
       {legend}
-      <div role="img" aria-label={title}>{children}</div>
+      <div role="img" aria-label={title} style={{ height }}>{children}</div>
     </figure>
   );
 }
@@ -60,13 +61,14 @@ export function CumulativeDeltaChart({ result, detail, currency }: { result: Tru
   return (
     <Figure
       testId="chart-cumulative"
+      height={260}
       title={`Cumulative discounted Δ cash flow, repower − ${POLICY_LABEL[other].toLowerCase()} (${currency} k)`}
       legend={<Legend items={[{ label: `Repower − ${POLICY_LABEL[other].toLowerCase()}`, colour: POLICY_COLOUR.repower, shape: 'line' }, { label: pay.length ? `Discounted payback: ${formatNumber(c.discountedPaybackYears, 1)} yr after the spend` : 'No discounted payback', colour: '#2e7650', shape: 'dot' }]} />}
     >
       <XYChart height={260} margin={MARGIN} theme={theme} xScale={{ type: 'linear', nice: true }} yScale={{ type: 'linear', nice: true }}>
         <Grid columns={false} numTicks={5} />
         <Axis orientation="bottom" label="Year" numTicks={Math.min(10, data.length)} />
-        <Axis orientation="left" label={`${currency} k (discounted)`} numTicks={5} tickFormat={(v) => formatNumber(Number(v), 0, 'minus')} />
+        <Axis orientation="left" labelOffset={50} label={`${currency} k (discounted)`} numTicks={5} tickFormat={(v) => formatNumber(Number(v), 0, 'minus')} />
         <LineSeries dataKey="Cumulative Δ" data={data} xAccessor={px} yAccessor={py} colorAccessor={() => POLICY_COLOUR.repower} />
         <GlyphSeries dataKey="Years" data={data} xAccessor={px} yAccessor={py} colorAccessor={() => POLICY_COLOUR.repower} size={4} />
         {pay.length ? <GlyphSeries dataKey="Payback" data={pay} xAccessor={px} yAccessor={py} colorAccessor={() => '#2e7650'} size={12} /> : null}
@@ -101,11 +103,11 @@ export function CostStackChart({ detail, currency }: { detail: TruckDetail; curr
     Math.max(0, -detail.policies[p].periods.reduce((s, per) => s + per.breakdown[cat] * per.discountFactor, 0)) / 1000;
   type B = { policy: string; value: number; cat: string };
   return (
-    <Figure testId="chart-costs" title={`Present value of costs by category, before tax (${currency} k)`} legend={<Legend items={COST_CATEGORIES.map(([, label, colour]) => ({ label, colour }))} />}>
+    <Figure testId="chart-costs" height={280} title={`Present value of costs by category, before tax (${currency} k)`} legend={<Legend items={COST_CATEGORIES.map(([, label, colour]) => ({ label, colour }))} />}>
       <XYChart height={280} margin={MARGIN} theme={theme} xScale={{ type: 'band', paddingInner: 0.4 }} yScale={{ type: 'linear', nice: true }}>
         <Grid columns={false} numTicks={5} />
         <Axis orientation="bottom" label="Policy" />
-        <Axis orientation="left" label={`${currency} k (present value)`} numTicks={5} tickFormat={(v) => formatNumber(Number(v), 0)} />
+        <Axis orientation="left" labelOffset={50} label={`${currency} k (present value)`} numTicks={5} tickFormat={(v) => formatNumber(Number(v), 0)} />
         <BarStack>
           {COST_CATEGORIES.map(([cat, label, colour]) => (
             <BarSeries
@@ -134,12 +136,12 @@ export function FuelChart({ detail }: { detail: TruckDetail }) {
   const series = POLICIES.map((p) => ({ p, data: detail.policies[p].periods.filter((x) => x.period > 0).map((x) => ({ x: x.period, y: x.fuelLitres / 1000, lph: x.hours ? x.fuelLitres / x.hours : 0 })) }));
   type F = Pt & { lph: number };
   return (
-    <Figure testId="chart-fuel" title="Fuel burn per policy (kL per year)" legend={<Legend items={POLICIES.map((p) => ({ label: POLICY_LABEL[p], colour: POLICY_COLOUR[p], shape: 'line' as const }))} />}>
+    <Figure testId="chart-fuel" height={260} title="Fuel burn per policy (kL per year)" legend={<Legend items={POLICIES.map((p) => ({ label: POLICY_LABEL[p], colour: POLICY_COLOUR[p], shape: 'line' as const }))} />}>
       <XYChart height={260} margin={MARGIN} theme={theme} xScale={{ type: 'linear', nice: true }} yScale={{ type: 'linear', nice: true, zero: false }}>
         <Grid columns={false} numTicks={5} />
         <Axis orientation="bottom" label="Year" />
-        <Axis orientation="left" label="Fuel (kL/yr)" numTicks={5} tickFormat={(v) => formatNumber(Number(v), 0)} />
-        {series.map(({ p, data }) => (
+        <Axis orientation="left" labelOffset={50} label="Fuel (kL/yr)" numTicks={5} tickFormat={(v) => formatNumber(Number(v), 0)} />
+        {[...series].reverse().map(({ p, data }) => (
           <LineSeries key={p} dataKey={POLICY_LABEL[p]} data={data} xAccessor={px} yAccessor={py} colorAccessor={() => POLICY_COLOUR[p]} strokeDasharray={p === 'keep' ? '4 3' : undefined} />
         ))}
         <Tooltip<F>

@@ -16,7 +16,7 @@ export function EventTimeline({ events, horizonYears, currency }: { events: Reco
   const at = (m: number) => `${Math.min(100, (m / months) * 100)}%`;
   return (
     <section aria-label="Events timeline" className="card p-3" data-testid="event-timeline">
-      <h3 className="text-sm font-semibold">Engine events by policy (year of the event, month within it)</h3>
+      <h3 className="text-sm font-semibold">Engine events by policy (axis: years from now; the table gives the year each event is booked in)</h3>
       <p className="text-xs text-muted">{Object.values(MARK).map((k) => `${k.symbol} ${k.label}`).join('   ')}</p>
       <div className="mt-2 space-y-2">
         {POLICIES.map((p) => (

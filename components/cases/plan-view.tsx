@@ -24,9 +24,9 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
       <PlanControls data={data} slug={slug} canEdit={canEdit} onSaved={() => mutate()} />
       <section aria-label="Capital plan" className="card p-3" data-testid="capital-plan">
         <h2 className="text-sm font-semibold">Capital plan: the repowers that maximise total gain within each year&rsquo;s budget</h2>
-        <p className="text-xs text-muted">Solved exactly per year as a 0/1 knapsack (costs counted in whole {data.currency} thousands, rounded up, so no plan exceeds its budget). Total gain {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital.</p>
+        <p className="text-xs text-muted">Solved exactly per year as a 0/1 knapsack (costs counted in whole units of {formatNumber(Math.max(1000, ...data.plan.years.map((y) => y.unit)), 0)} {data.currency}, rounded up, so no plan exceeds its budget). A truck left out waits: it takes its better other policy and forgoes the gain shown. Total gain {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital.</p>
         <table className="data-table mt-2">
-          <thead><tr><th>Year of spend</th><th className="n">Budget ({data.currency} k)</th><th className="n">Spent ({data.currency} k)</th><th className="n">Gain ({data.currency} k)</th><th>Chosen</th><th>Left out (extra budget to add it, {data.currency} k)</th></tr></thead>
+          <thead><tr><th>Year of spend</th><th className="n">Budget ({data.currency} k)</th><th className="n">Spent ({data.currency} k)</th><th className="n">Gain ({data.currency} k)</th><th>Chosen</th><th>Left out: gain forgone · extra budget to add it ({data.currency} k)</th></tr></thead>
           <tbody>
             {data.plan.years.map((y) => (
               <tr key={y.year} data-year={y.year}>
@@ -35,7 +35,7 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
                 <td className="n">{k(y.spent)}</td>
                 <td className="n">{k(y.gain)}</td>
                 <td className="text-xs" data-testid={`chosen-${y.year}`}>{y.chosen.map((c) => c.truckId).join(', ') || '—'}</td>
-                <td className="text-xs" data-testid={`left-out-${y.year}`}>{y.leftOut.map((l) => `${l.truckId} (+${k(l.extraBudget)})`).join(', ') || '—'}</td>
+                <td className="text-xs" data-testid={`left-out-${y.year}`}>{y.leftOut.map((l) => `${l.truckId} (forgoes ${k(l.gain)} · needs +${k(l.extraBudget)})`).join(', ') || '—'}</td>
               </tr>
             ))}
           </tbody>

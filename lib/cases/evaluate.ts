@@ -31,7 +31,7 @@ export function toSummaryDto(c: CaseRow): CaseSummaryDto {
 
 type Loaded = { row: CaseRow; file: CaseFile; truckRows: Map<string, { id: number; payloadClass: string }> };
 
-async function loadValidCase(access: Access, id: number): Promise<Loaded> {
+export async function loadValidCase(access: Access, id: number): Promise<Loaded> {
   const wsId = access.workspace.id;
   const row = await fetchCase(wsId, id);
   if (!row) throw notFound('No such business case in this workspace.');
