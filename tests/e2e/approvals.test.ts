@@ -1,3 +1,4 @@
+import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
@@ -19,6 +20,7 @@ describe('approval by e-mail, end to end', () => {
   let close: () => Promise<void>;
   let caseId: number;
   const caseName = 'North Pit repower programme 2027';
+  let frozenHash = '';
 
   beforeAll(async () => {
     ({ page, context, baseURL, close } = await openBrowser());
@@ -71,7 +73,8 @@ describe('approval by e-mail, end to end', () => {
     expect(await panel.getByTestId('case-status').textContent()).toBe('Approved');
     const frozen = await panel.getByTestId('frozen-hash').textContent();
     expect(frozen).toContain('Frozen record verifies');
-    expect(frozen).toMatch(/[0-9a-f]{64}/);
+    frozenHash = (frozen ?? '').match(/[0-9a-f]{64}/)?.[0] ?? '';
+    expect(frozenHash).toHaveLength(64);
     await page.getByTestId('frozen-fleet').waitFor();
     expect(await page.getByTestId('frozen-fleet').locator('tbody td').count()).toBe(4);
     await screenshot(page, 'approval-approved-review-page');
@@ -91,6 +94,23 @@ describe('approval by e-mail, end to end', () => {
     expect(history).toContain('Approved by Demo approver');
     expect(history).toContain('schedule swaps from Q2');
     expect(await panel.getByRole('button', { name: 'New revision' }).count()).toBe(1);
+
+    // The workbook of the approved case carries who approved it, when, and the hash.
+    await page.goto(`${baseURL}/${WS}/cases/${caseId}`);
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download workbook (XLSX)' }).click()]);
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.readFile((await download.path()) as string);
+    const cover = wb.getWorksheet('Cover') as ExcelJS.Worksheet;
+    const label = (text: string) => {
+      let found: unknown;
+      cover.eachRow((row) => {
+        if (row.getCell(1).value === text) found = row.getCell(2).value;
+      });
+      return found;
+    };
+    expect(label('Approved by')).toContain('approver@aldervane.test');
+    expect(String(label('Approved at'))).toMatch(/^\d{4}-\d\d-\d\dT/);
+    expect(label('Record hash (SHA-256)')).toBe(frozenHash);
     await signOut(page);
 
     await signIn(page, baseURL, 'admin@aldervane.test');
