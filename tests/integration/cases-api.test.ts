@@ -111,7 +111,8 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
 
   it('saves budgets with the version, answers 409 to a stale one, and plans within the budget', async () => {
     as('analyst');
-    const plan = { budgets: { '0': 3_000_000, '1': 2_000_000 }, swapsPerMonth: 1, startMonth: '2027-01' };
+    // one module costs about 2.5 M: a 1 M budget in year 0 leaves the truck due now out
+    const plan = { budgets: { '0': 1_000_000, '1': 2_000_000 }, swapsPerMonth: 1, startMonth: '2027-01' };
     const ok = await call(patchCase, { workspace: WS, id: String(caseId) }, { method: 'PATCH', body: { version: 1, plan } });
     expect(ok.status).toBe(200);
     expect(ok.body.case.version).toBe(2);
