@@ -128,7 +128,8 @@ describe('business cases in the browser', () => {
     await plan.waitFor();
     const years = await plan.locator('tbody tr').evaluateAll((trs) => trs.map((tr) => Number(tr.getAttribute('data-year'))));
     expect(years.length).toBeGreaterThan(0);
-    const y = years[0];
+    // year 1 holds most of the demo fleet's swaps (engines reaching life within the year): a 3 M budget takes one
+    const y = years.includes(1) ? 1 : years[0];
     await page.getByLabel(new RegExp(`^Year ${y}${y === 0 ? ' \\(now\\)' : ''} budget$`)).fill('3,000,000');
     await page.getByLabel('Swaps per month').fill('1');
     await page.getByRole('button', { name: 'Save and plan' }).click();

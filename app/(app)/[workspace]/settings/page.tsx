@@ -1,24 +1,21 @@
 import type { Metadata } from 'next';
 import { ApprovalsSettingForm } from '@/components/approvals/approvals-setting-form';
-import { EmptyState } from '@/components/ui/empty-state';
+import { DisplaySettings } from '@/components/fleet/display-settings';
 import { PageHeader } from '@/components/ui/page-header';
-import { hasRole } from '@/lib/auth/access';
 import { getPageAccess } from '@/lib/auth/page-access';
-import { CAN } from '@/lib/auth/roles';
 
 export const metadata: Metadata = { title: 'Settings' };
 
 export default async function Page({ params }: { params: Promise<{ workspace: string }> }) {
   const { workspace } = await params;
   const access = await getPageAccess(workspace);
+  const { units, negativeStyle, approvalsRequired } = access.workspace.settings;
   return (
     <>
-      <PageHeader title="Settings" subtitle="Currency, display units and approval rules for this workspace." />
-      <h2 className="mb-2 text-sm font-semibold">Approvals</h2>
-      <ApprovalsSettingForm workspace={workspace} current={access.workspace.settings.approvalsRequired} canEdit={hasRole(access, CAN.administer)} />
-      <div className="mt-6">
-        <EmptyState title="Display settings">Display units (metric or US customary) and how negative amounts are shown.</EmptyState>
-      </div>
+      <PageHeader title="Settings" subtitle={`Currency ${access.workspace.currency}; display units and how negative amounts are shown; approval rule.`} />
+      <DisplaySettings slug={workspace} initial={{ units, negativeStyle }} canEdit={access.role === 'admin'} />
+      <h2 className="mb-2 mt-6 text-sm font-semibold">Approvals</h2>
+      <ApprovalsSettingForm workspace={workspace} current={approvalsRequired} canEdit={access.role === 'admin'} />
     </>
   );
 }
