@@ -14,4 +14,6 @@ export const NAV: NavItem[] = [
   { href: '/audit', label: 'Audit log' },
   { href: '/settings', label: 'Settings' },
   { href: '/members', label: 'Members', roles: ['admin'] },
+  // Only listed while mail goes to the local sink (the layout hides it otherwise).
+  { href: '/outbox', label: 'Outbox', roles: ['admin'] },
 ];

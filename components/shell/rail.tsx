@@ -12,10 +12,12 @@ type Props = {
   email: string;
   workspaces: Array<{ slug: string; name: string; role: Role }>;
   badges?: Record<string, number>;
+  /** Section hrefs not to list (e.g. the outbox when real SMTP is configured). */
+  hidden?: string[];
 };
 
 /** The narrow left rail: workspace switcher, sections, who is signed in. */
-export function Rail({ slug, role, email, workspaces, badges = {} }: Props) {
+export function Rail({ slug, role, email, workspaces, badges = {}, hidden = [] }: Props) {
   return (
     <nav aria-label="Workspace" className="flex h-screen w-56 shrink-0 flex-col border-r border-rule bg-panel">
       <div className="border-b border-rule px-3 py-3">
@@ -23,7 +25,7 @@ export function Rail({ slug, role, email, workspaces, badges = {} }: Props) {
         <WorkspaceSwitcher current={slug} workspaces={workspaces} />
       </div>
       <ul className="flex-1 space-y-0.5 overflow-y-auto px-2 py-3">
-        {NAV.filter((n) => !n.roles || n.roles.includes(role)).map((n) => (
+        {NAV.filter((n) => (!n.roles || n.roles.includes(role)) && !hidden.includes(n.href)).map((n) => (
           <li key={n.href}>
             <NavLink href={`/${slug}${n.href}`} exact={n.href === ''} badge={badges[n.href]}>
               {n.label}

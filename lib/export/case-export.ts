@@ -4,6 +4,7 @@ import 'server-only';
  * beside the figures, the ranking and capital plan, the approval stamp) or
  * the Summary CSV.
  */
+import { fetchApprovalStamp } from '@/lib/approvals/freeze';
 import type { Access } from '@/lib/auth/access';
 import { evaluateStoredCase, loadValidCase } from '@/lib/cases/evaluate';
 import { db } from '@/lib/db';
@@ -16,20 +17,12 @@ import { buildWorkbook } from './workbook';
 
 export type ExportFormat = 'xlsx' | 'csv';
 
-/**
- * Who approved the case, when, and the hash of its frozen record. Hook for
- * the approvals feature: its `fetchApprovalStamp(caseId)` should replace this
- * reading of the stored columns once it lands.
- */
+/** Who approved the case, when, and the hash of its frozen record (from the approvals feature). */
 async function approvalStamp(workspaceId: number, caseId: number): Promise<ApprovalStamp | null> {
-  const row = await db()('business_cases').where({ id: caseId, workspaceId }).first('status', 'frozenHash', 'decidedAt');
-  if (!row || row.status !== 'approved' || !row.frozenHash) return null;
-  const ev = await db()('case_events as e')
-    .leftJoin('users as u', 'u.id', 'e.userId')
-    .where({ 'e.caseId': caseId, 'e.action': 'approve' })
-    .orderBy('e.at', 'desc')
-    .first('u.email as email', 'e.at as at');
-  return { approvedBy: ev?.email ?? 'unknown', approvedAt: ev?.at ?? row.decidedAt ?? '', hash: row.frozenHash };
+  const owned = await db()('business_cases').where({ id: caseId, workspaceId }).first('id');
+  const stamp = owned ? await fetchApprovalStamp(caseId) : null;
+  if (!stamp) return null;
+  return { approvedBy: stamp.approvedBy.map((a) => (a.name ? `${a.name} <${a.email}>` : a.email)).join(', '), approvedAt: stamp.approvedAt, hash: stamp.hash };
 }
 
 function planTables(dto: CaseResultDto): PlanTable[] {

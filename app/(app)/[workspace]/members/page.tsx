@@ -5,6 +5,8 @@ import { hasRole } from '@/lib/auth/access';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN, ROLE_LABELS, type Role } from '@/lib/auth/roles';
 import { fetchMembers } from '@/lib/db/queries/workspace';
+import { fetchPendingInvitations } from '@/lib/accounts/invitations';
+import { InviteForm } from './invite-form';
 
 export const metadata: Metadata = { title: 'Members' };
 
@@ -12,7 +14,7 @@ export default async function MembersPage({ params }: { params: Promise<{ worksp
   const { workspace } = await params;
   const access = await getPageAccess(workspace);
   if (!hasRole(access, CAN.administer)) return <AccessDenied need={CAN.administer} have={access.role} />;
-  const members = await fetchMembers(access.workspace.id);
+  const [members, invitations] = await Promise.all([fetchMembers(access.workspace.id), fetchPendingInvitations(access.workspace.id)]);
   return (
     <>
       <PageHeader title="Members" subtitle="People in this workspace and their roles." />
@@ -38,6 +40,20 @@ export default async function MembersPage({ params }: { params: Promise<{ worksp
           </tbody>
         </table>
       </div>
+      <h2 className="mb-2 mt-6 text-sm font-semibold">Invite someone</h2>
+      <InviteForm workspace={workspace} />
+      {invitations.length ? (
+        <div className="card mt-3 overflow-x-auto">
+          <table className="data-table" data-testid="invitations-table">
+            <thead><tr><th>Invited email</th><th>Role</th><th>Link expires (UTC)</th></tr></thead>
+            <tbody>
+              {invitations.map((i) => (
+                <tr key={i.id}><td className="font-mono text-xs">{i.email}</td><td>{ROLE_LABELS[i.role as Role]}</td><td>{String(i.expiresAt).slice(0, 16).replace('T', ' ')}</td></tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      ) : null}
       <p className="mt-3 text-xs text-muted">
         Roles: admins manage members and settings; analysts keep the data and build cases; approvers decide on submitted
         cases; viewers read.

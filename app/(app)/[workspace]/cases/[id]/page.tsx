@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
+import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { CaseNav } from '@/components/cases/case-nav';
 import { CaseResults } from '@/components/cases/case-results';
 import { ExportButtons } from '@/components/export/export-buttons';
@@ -20,6 +21,7 @@ export default async function CasePage({ params }: { params: Promise<{ workspace
       <PageHeader title={c.name} subtitle="NPV of keep, rebuild and repower for every truck; the best policy; the gain of repowering." action={<ExportButtons slug={workspace} caseId={c.id} />} />
       <CaseNav slug={workspace} caseId={c.id} current="results" />
       <CaseResults slug={workspace} caseId={c.id} />
+      <div className="mt-4 max-w-2xl"><CaseApprovalPanel workspace={workspace} caseId={c.id} /></div>
       <SafetyCaution />
     </>
   );

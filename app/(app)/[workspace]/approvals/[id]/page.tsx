@@ -1,0 +1,55 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
+import { PageHeader } from '@/components/ui/page-header';
+import { SafetyCaution } from '@/components/ui/safety-caution';
+import { readFrozenResult } from '@/lib/approvals/freeze';
+import { fetchCaseSummary } from '@/lib/approvals/summary';
+import { getPageAccess } from '@/lib/auth/page-access';
+import { formatMoney } from '@/lib/format';
+
+export const metadata: Metadata = { title: 'Review a case' };
+
+const POLICIES = ['keep', 'rebuild', 'repower', 'best'] as const;
+
+export default async function ReviewCasePage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
+  const { workspace, id } = await params;
+  const access = await getPageAccess(workspace);
+  const caseId = Number(id);
+  const summary = Number.isInteger(caseId) && caseId > 0 ? await fetchCaseSummary(access.workspace.id, caseId) : null;
+  if (!summary) notFound();
+  const frozen = readFrozenResult(summary.row);
+  const neg = access.workspace.settings.negativeStyle;
+  return (
+    <>
+      <PageHeader
+        title={summary.row.name}
+        subtitle={<>Business case {summary.row.revisionOf ? <>· revision of <Link className="underline" href={`/${workspace}/approvals/${summary.row.revisionOf}`}>case {summary.row.revisionOf}</Link></> : null}</>}
+        action={<Link className="btn" href={`/${workspace}/cases/${caseId}`}>Open the case</Link>}
+      />
+      <div className="grid gap-4 lg:grid-cols-[1fr_26rem]">
+        <div className="space-y-4">
+          <dl className="card grid grid-cols-[12rem_1fr] gap-x-4 gap-y-1 p-4 text-sm">
+            <dt className="text-muted">Assumption set</dt><dd>{summary.assumptionSet ?? '—'}</dd>
+            <dt className="text-muted">Trucks</dt><dd>{summary.truckCount}</dd>
+            <dt className="text-muted">Currency</dt><dd>{access.workspace.currency}</dd>
+          </dl>
+          {frozen ? (
+            <div className="card overflow-x-auto">
+              <table className="data-table" data-testid="frozen-fleet">
+                <caption className="px-2 py-2 text-left text-xs text-muted">Fleet NPV as approved (from the frozen result, {access.workspace.currency} k)</caption>
+                <thead><tr>{POLICIES.map((p) => <th key={p} className="n">{p === 'best' ? 'Best per truck' : p[0].toUpperCase() + p.slice(1)}</th>)}</tr></thead>
+                <tbody><tr>{POLICIES.map((p) => <td key={p} className="n">{formatMoney(frozen.fleet.npv[p], { scale: 'k', negative: neg })}</td>)}</tr></tbody>
+              </table>
+            </div>
+          ) : (
+            <p className="text-sm text-muted">Figures are computed from the live fleet data until the case is approved; open the case for its results.</p>
+          )}
+        </div>
+        <CaseApprovalPanel workspace={workspace} caseId={caseId} />
+      </div>
+      <SafetyCaution />
+    </>
+  );
+}

@@ -1,0 +1,23 @@
+import { diffAudit } from '@/lib/audit-diff';
+
+/** Before → after per field; removed values struck through in loss red, new ones in gain green. */
+export function AuditDiff({ before, after }: { before: string | null; after: string | null }) {
+  const lines = diffAudit(before, after);
+  if (lines.length === 0) return <span className="text-muted">no field changes recorded</span>;
+  return (
+    <table className="w-full text-xs" data-testid="audit-diff">
+      <tbody>
+        {lines.map((l) => (
+          <tr key={l.field} className="align-top">
+            <th scope="row" className="w-40 py-0.5 pr-2 text-left font-mono font-normal text-muted">{l.field}</th>
+            <td className="py-0.5 font-mono break-all">
+              {l.before !== undefined ? <del className="text-loss">{l.before}</del> : null}
+              {l.before !== undefined && l.after !== undefined ? <span className="px-1 text-muted">→</span> : null}
+              {l.after !== undefined ? <ins className="text-gain no-underline">{l.after}</ins> : null}
+            </td>
+          </tr>
+        ))}
+      </tbody>
+    </table>
+  );
+}

@@ -1,0 +1,16 @@
+/**
+ * Starts the local SMTP sink with the server when no SMTP_HOST is configured
+ * (development, demo, tests), so mail has somewhere real to go on a fresh clone.
+ */
+export async function register() {
+  if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  const { readMailConfig } = await import('./lib/mail/config');
+  if (!readMailConfig().sink) return;
+  const { ensureMailSink } = await import('./lib/mail/sink');
+  try {
+    const sink = await ensureMailSink();
+    console.log(`[haulcase] local mail sink listening on 127.0.0.1:${sink.port}; messages appear on the Outbox page`);
+  } catch (err) {
+    console.error('[haulcase] local mail sink did not start:', err);
+  }
+}

@@ -1,0 +1,42 @@
+import 'server-only';
+import { hashPassword } from '@/lib/auth/password';
+import { writeAudit } from '@/lib/audit';
+import { db } from '@/lib/db';
+import { HttpError } from '@/lib/http';
+import { readMailConfig } from '@/lib/mail/config';
+import { passwordResetMail } from '@/lib/mail/messages';
+import { sendMail } from '@/lib/mail/send';
+import { nowIso } from '@/lib/time';
+import { addMinutes, assertUsable, hashToken, newToken, RESET_MINUTES } from './tokens';
+
+/**
+ * Mails a reset link when the address has an account, and does nothing
+ * otherwise; the caller answers the same either way so addresses can't be probed.
+ */
+export async function requestPasswordReset(email: string): Promise<void> {
+  const k = db();
+  const user = await k('users').where({ email }).first('id', 'email');
+  if (!user) return;
+  const token = newToken();
+  await k.transaction(async (trx) => {
+    await trx('password_resets').insert({ userId: user.id, tokenHash: hashToken(token), expiresAt: addMinutes(new Date(), RESET_MINUTES), createdAt: nowIso() });
+    await writeAudit(trx, { workspaceId: null, userId: user.id, action: 'request-reset', entity: 'user', entityId: user.id });
+  });
+  await sendMail({ ...passwordResetMail({ link: `${readMailConfig().appUrl}/reset-password/${token}`, minutes: RESET_MINUTES }), to: [user.email] });
+}
+
+/** Sets the new password and spends the token (and any other open token of the account). */
+export async function resetPassword(token: string, password: string): Promise<{ email: string }> {
+  const passwordHash = await hashPassword(password);
+  return db().transaction(async (trx) => {
+    const row = await trx('password_resets').where({ tokenHash: hashToken(token) }).first();
+    assertUsable(row, 'password reset');
+    const at = nowIso();
+    const used = await trx('password_resets').where({ userId: row.userId }).whereNull('usedAt').update({ usedAt: at });
+    if (used < 1) throw new HttpError(410, 'This password reset link has already been used. Links work once.');
+    await trx('users').where({ id: row.userId }).update({ passwordHash, updatedAt: at });
+    await writeAudit(trx, { workspaceId: null, userId: row.userId, action: 'reset-password', entity: 'user', entityId: row.userId });
+    const user = await trx('users').where({ id: row.userId }).first('email');
+    return { email: user.email as string };
+  });
+}

@@ -1,0 +1,103 @@
+import 'server-only';
+import type { Knex } from 'knex';
+import { db } from '@/lib/db';
+import { buildCaseFile } from '@/lib/db/queries/case-file';
+import { evaluateCase, type CaseResult } from '@/lib/engine';
+import { invalid } from '@/lib/http';
+import { validateCase, type CaseFile } from '@/lib/validation/case';
+import { canonicalJson, frozenHashOf, verifyFrozen, type FrozenColumns } from './canonical';
+
+export type CaseRow = FrozenColumns & {
+  id: number;
+  workspaceId: number;
+  name: string;
+  assumptionSetId: number | null;
+  selection: string;
+  status: string;
+};
+
+type SelectionItem = { truckId: number; repowerOfferId?: number | null };
+
+/**
+ * The case/1 a business case stands for today, from the stored fleet, engines,
+ * offers and its assumption set. An empty selection means every truck of the
+ * workspace with its own offer. Invalid data is a 422 listing every problem, so
+ * nothing can be approved that the engine would not accept.
+ */
+export async function buildCaseForRow(row: CaseRow, k: Knex = db()): Promise<CaseFile> {
+  if (row.assumptionSetId == null) throw invalid([{ path: 'assumptionSetId', message: 'The case has no assumption set.' }]);
+  let selection: SelectionItem[] = [];
+  try {
+    selection = JSON.parse(row.selection || '[]');
+  } catch {
+    throw invalid([{ path: 'selection', message: 'The stored truck selection is not valid JSON.' }]);
+  }
+  const file = await buildCaseFile(
+    row.workspaceId,
+    {
+      name: row.name,
+      assumptionSetId: row.assumptionSetId,
+      truckIds: selection.length ? selection.map((s) => s.truckId) : undefined,
+      offerOverrides: Object.fromEntries(selection.map((s) => [s.truckId, s.repowerOfferId ?? null])),
+    },
+    k,
+  );
+  const checked = validateCase(file);
+  if (!checked.ok) throw invalid(checked.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The case data is not valid; fix it before approval.');
+  return checked.value;
+}
+
+/**
+ * Freezes a case inside the approving transaction: the exact case/1 and its
+ * case-result/1 as canonical JSON text, and a SHA-256 of both. From then on the
+ * stored text is the case; later fleet edits never reach it.
+ */
+export async function freezeCase(trx: Knex.Transaction, row: CaseRow): Promise<{ frozenCase: string; frozenResult: string; frozenHash: string }> {
+  const file = await buildCaseForRow(row, trx);
+  const frozenCase = canonicalJson(file);
+  const frozenResult = canonicalJson(evaluateCase(file, { trusted: true }));
+  return { frozenCase, frozenResult, frozenHash: frozenHashOf(frozenCase, frozenResult) };
+}
+
+/**
+ * The result to show for a case: an approved (frozen) case is always served from
+ * its stored frozenResult, never recomputed. Null when the case is not frozen —
+ * the caller then evaluates the live data.
+ */
+export function readFrozenResult(row: FrozenColumns): CaseResult | null {
+  return row.frozenResult ? (JSON.parse(row.frozenResult) as CaseResult) : null;
+}
+
+/** The frozen case/1 of an approved case, or null. */
+export function readFrozenCase(row: FrozenColumns): CaseFile | null {
+  return row.frozenCase ? (JSON.parse(row.frozenCase) as CaseFile) : null;
+}
+
+export type ApprovalStamp = {
+  approvedBy: Array<{ userId: number | null; name: string; email: string; at: string; comment: string }>;
+  approvedAt: string;
+  hash: string;
+  verifies: boolean;
+};
+
+/**
+ * Who approved a case, when, and the hash of what they approved (for the
+ * workbook's stamp). Null unless the case is approved and frozen.
+ */
+export async function fetchApprovalStamp(caseId: number, k: Knex = db()): Promise<ApprovalStamp | null> {
+  const row = await k('business_cases').where({ id: caseId }).first();
+  if (!row || row.status !== 'approved' || !row.frozenHash) return null;
+  const lastSubmit = await k('case_events').where({ caseId, action: 'submit' }).orderBy('id', 'desc').first('id');
+  const approvals = await k('case_events as e')
+    .leftJoin('users as u', 'u.id', 'e.userId')
+    .where({ 'e.caseId': caseId, 'e.action': 'approve' })
+    .andWhere('e.id', '>', lastSubmit?.id ?? 0)
+    .orderBy('e.id')
+    .select('e.userId', 'u.name', 'u.email', 'e.at', 'e.comment');
+  return {
+    approvedBy: approvals.map((a) => ({ userId: a.userId, name: a.name ?? '', email: a.email ?? '', at: a.at, comment: a.comment })),
+    approvedAt: row.decidedAt,
+    hash: row.frozenHash,
+    verifies: verifyFrozen(row),
+  };
+}

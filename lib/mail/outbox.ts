@@ -1,0 +1,26 @@
+import 'server-only';
+import { db } from '@/lib/db';
+import { readMailConfig } from './config';
+
+export type OutboxMessage = { id: number; fromAddress: string; to: string[]; subject: string; text: string; html: string; receivedAt: string };
+
+/** Whether this server sends to the local sink (the outbox exists only then). */
+export const outboxEnabled = () => readMailConfig().sink;
+
+/**
+ * What the local sink received for one workspace: mail tagged with it, and
+ * account mail (password resets) addressed to one of its members.
+ */
+export async function fetchOutbox(workspaceId: number, slug: string, limit = 100): Promise<OutboxMessage[]> {
+  const k = db();
+  const emails = new Set<string>(await k('memberships as m').join('users as u', 'u.id', 'm.userId').where('m.workspaceId', workspaceId).pluck('u.email'));
+  const rows = await k('mail_sink')
+    .where((q) => q.where('workspaceSlug', slug).orWhereNull('workspaceSlug'))
+    .orderBy('id', 'desc')
+    .limit(limit * 4);
+  return rows
+    .map((r) => ({ id: r.id, fromAddress: r.fromAddress, to: JSON.parse(r.toAddresses) as string[], subject: r.subject, text: r.text, html: r.html, receivedAt: r.receivedAt, ws: r.workspaceSlug }))
+    .filter((r) => r.ws === slug || r.to.some((t) => emails.has(t)))
+    .slice(0, limit)
+    .map(({ ws: _ws, ...m }) => m);
+}

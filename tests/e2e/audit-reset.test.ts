@@ -1,0 +1,85 @@
+import fs from 'node:fs';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+
+describe('password reset by e-mail and the audit log', () => {
+  let page: Page;
+  let baseURL: string;
+  let close: () => Promise<void>;
+
+  beforeAll(async () => {
+    ({ page, baseURL, close } = await openBrowser());
+  });
+  afterAll(async () => close());
+
+  it('resets a password through the mailed link, once', async () => {
+    await page.goto(`${baseURL}/sign-in`);
+    await page.getByRole('link', { name: 'Forgot your password?' }).click();
+    await page.waitForURL(`${baseURL}/forgot-password`);
+    await page.getByLabel('Email').fill('viewer@aldervane.test');
+    await page.getByRole('button', { name: 'Mail me a reset link' }).click();
+    expect(await page.getByTestId('forgot-done').textContent()).toMatch(/If an account uses that address/);
+
+    // The admin reads the sink's copy on the Outbox page (the viewer is a member of this workspace).
+    await signIn(page, baseURL, 'admin@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/outbox`);
+    const item = page.getByTestId('outbox').locator('li').filter({ hasText: 'Reset your Haulcase password' }).first();
+    expect(await item.textContent()).toContain('to viewer@aldervane.test');
+    await item.locator('summary').click();
+    const link = (await item.getByRole('link').filter({ hasText: '/reset-password/' }).getAttribute('href')) as string;
+    await signOut(page);
+
+    await page.goto(link);
+    await page.getByLabel('New password', { exact: true }).fill('short');
+    await page.getByLabel('Repeat the new password').fill('short');
+    await page.getByRole('button', { name: 'Set the new password' }).click();
+    expect(await page.getByTestId('reset-error').textContent()).toBe('Use at least 10 characters.');
+    await page.getByLabel('New password', { exact: true }).fill('haul-road-grade-8pc');
+    await page.getByLabel('Repeat the new password').fill('haul-road-grade-8pc');
+    await page.getByRole('button', { name: 'Set the new password' }).click();
+    await page.getByText('Your password is changed.').waitFor();
+    await signIn(page, baseURL, 'viewer@aldervane.test', 'haul-road-grade-8pc');
+    expect(await page.getByTestId('current-role').textContent()).toBe('Viewer');
+    await signOut(page);
+
+    await page.goto(link);
+    await page.getByLabel('New password', { exact: true }).fill('another-password-9');
+    await page.getByLabel('Repeat the new password').fill('another-password-9');
+    await page.getByRole('button', { name: 'Set the new password' }).click();
+    await page.getByTestId('reset-error').getByText(/already been used/).waitFor();
+  });
+
+  it('lists changes with before → after, filters by kind and person, and downloads CSV', async () => {
+    await signIn(page, baseURL, 'admin@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/members`);
+    await page.getByLabel('Email').fill('site.manager@aldervane.test');
+    await page.getByLabel('Role').selectOption('viewer');
+    await page.getByRole('button', { name: 'Send invitation' }).click();
+    await page.getByText('Invitation sent to site.manager@aldervane.test.').waitFor();
+
+    await page.goto(`${baseURL}/${WS}/audit`);
+    await page.getByLabel('Kind').selectOption('invitation:invite');
+    await page.getByLabel('Person').selectOption({ label: 'admin@aldervane.test' });
+    await page.getByRole('button', { name: 'Filter' }).click();
+    await page.waitForURL((u) => u.searchParams.get('kind') === 'invitation:invite');
+    const rows = page.getByTestId('audit-table').locator(':scope > tbody > tr');
+    const texts = await rows.allTextContents();
+    expect(texts.length).toBeGreaterThanOrEqual(1);
+    for (const t of texts) expect(t).toContain('invite');
+    expect(texts.some((t) => t.includes('site.manager@aldervane.test'))).toBe(true);
+    expect(await page.getByTestId('audit-diff').first().textContent()).toContain('role');
+    await screenshot(page, 'audit-log-filtered');
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download CSV' }).click()]);
+    const csv = fs.readFileSync((await download.path()) as string, 'utf8');
+    const lines = csv.trim().split('\r\n');
+    expect(lines[0]).toBe('id,at (UTC),who,action,entity,entity id,before,after');
+    expect(lines.length).toBe(texts.length + 1);
+    expect(csv).toContain('site.manager@aldervane.test');
+
+    await page.goto(`${baseURL}/${WS}/audit?from=2027-02-01&to=2027-01-01`);
+    expect(await page.getByTestId('audit-filter-error').textContent()).toContain('The end date is before the start date.');
+    await signOut(page);
+  });
+});

@@ -1,0 +1,104 @@
+import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
+import type { Knex } from 'knex';
+import { useDbForTests } from '@/lib/db';
+import { writeAudit } from '@/lib/audit';
+import { startMailSink, useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
+import { GET as auditJson } from '@/app/api/workspaces/[workspace]/audit/route';
+import { GET as auditCsv } from '@/app/api/workspaces/[workspace]/audit/csv/route';
+import { GET as outbox } from '@/app/api/workspaces/[workspace]/outbox/route';
+import { POST as invite } from '@/app/api/workspaces/[workspace]/invitations/route';
+import { POST as forgot } from '@/app/api/password/forgot/route';
+import { createTestDb } from '../support/test-db';
+import { call } from './support/call';
+import { userIds } from './support/cases';
+import { signInAs } from './support/session';
+
+vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
+
+const WS = { workspace: 'aldervane-north-pit' };
+const url = (q: string) => `http://127.0.0.1/api/workspaces/aldervane-north-pit/audit?${q}`;
+const backends = [
+  { name: 'SQLite', pg: false },
+  { name: 'PostgreSQL', pg: true },
+];
+
+describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
+  let k: Knex;
+  let destroy: () => Promise<void>;
+  let sink: MailSink;
+  let ids: Record<string, number>;
+  let wsId: number;
+
+  beforeAll(async () => {
+    ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
+    useDbForTests(k);
+    sink = await startMailSink({ k: () => k });
+    useMailSinkForTests(sink);
+    ids = await userIds(k);
+    wsId = (await k('workspaces').where({ slug: 'aldervane-north-pit' }).first('id')).id;
+    await writeAudit(k, { workspaceId: wsId, userId: ids['analyst@aldervane.test'], action: 'update', entity: 'truck', entityId: 'T301', before: { notes: 'ok' }, after: { notes: '=HYPERLINK("http://evil.test")' } });
+    await k('audit_log').insert({ workspaceId: wsId, userId: ids['approver@aldervane.test'], action: 'approve', entity: 'business_case', entityId: '9', before: null, after: '{"status":"approved"}', at: '2026-01-15T10:00:00.000Z' });
+    const corrin = (await k('workspaces').where({ slug: 'corrin-flats' }).first('id')).id;
+    await writeAudit(k, { workspaceId: corrin, userId: ids['analyst@aldervane.test'], action: 'update', entity: 'truck', entityId: 'C1', after: { secret: 'corrin only' } });
+  });
+  afterAll(async () => {
+    useMailSinkForTests(undefined);
+    await sink.stop();
+    await destroy();
+  });
+
+  it('filters by person, kind and date range, within this workspace only', async () => {
+    signInAs(ids['viewer@aldervane.test']);
+    const all = await call(auditJson, WS, { url: url('') });
+    expect(all.status).toBe(200);
+    expect(JSON.stringify(all.body)).not.toContain('corrin only');
+    const byPerson = await call(auditJson, WS, { url: url(`user=${ids['analyst@aldervane.test']}`) });
+    expect(byPerson.body.rows.map((r: { entityId: string }) => r.entityId)).toEqual(['T301']);
+    const byKind = await call(auditJson, WS, { url: url('kind=business_case:approve') });
+    expect(byKind.body.total).toBe(1);
+    const byDate = await call(auditJson, WS, { url: url('from=2026-01-15&to=2026-01-15') });
+    expect(byDate.body.rows.map((r: { entityId: string }) => r.entityId)).toEqual(['9']);
+    const bad = await call(auditJson, WS, { url: url('from=2026-02-01&to=2026-01-01&user=abc') });
+    expect(bad.status).toBe(422);
+    expect(bad.body.problems.map((p: { path: string }) => p.path).sort()).toEqual(['user']);
+    const backwards = await call(auditJson, WS, { url: url('from=2026-02-01&to=2026-01-01') });
+    expect(backwards.body.problems).toEqual([{ path: 'to', message: 'The end date is before the start date.' }]);
+    signInAs(null);
+    expect((await call(auditJson, WS, { url: url('') })).status).toBe(401);
+  });
+
+  it('downloads CSV with formula-looking cells escaped', async () => {
+    signInAs(ids['admin@aldervane.test']);
+    await writeAudit(k, { workspaceId: wsId, userId: ids['admin@aldervane.test'], action: 'delete', entity: 'truck', entityId: '=1+cmd', before: '-5' });
+    const r = await call(auditCsv, WS, { url: url('kind=truck') });
+    expect(r.status).toBe(200);
+    expect(r.response.headers.get('content-type')).toMatch(/text\/csv/);
+    expect(r.response.headers.get('content-disposition')).toMatch(/attachment; filename="haulcase-audit-aldervane-north-pit-/);
+    const lines = (r.body as string).trim().split('\r\n');
+    expect(lines[0]).toBe('id,at (UTC),who,action,entity,entity id,before,after');
+    expect(lines).toHaveLength(3);
+    // An entity id typed as "=1+cmd" comes out as inert text.
+    expect(lines[1]).toContain(",delete,truck,'=1+cmd,");
+    expect(lines[2]).toContain('analyst@aldervane.test,update,truck,T301');
+    // The after cell is JSON starting with "{", so not a formula; a raw "=..." value would be prefixed.
+    expect(lines[2]).toContain('"{""notes"":""=HYPERLINK(\\""http://evil.test\\"")""}"');
+  });
+
+  it('shows the outbox to admins only: this workspace\'s mail and its members\' account mail', async () => {
+    signInAs(ids['admin@aldervane.test']);
+    await call(invite, WS, { body: { email: 'new.analyst@aldervane.test', role: 'analyst' } });
+    signInAs(ids['admin@corrin.test']);
+    await call(invite, { workspace: 'corrin-flats' }, { body: { email: 'someone@corrin.test', role: 'viewer' } });
+    signInAs(null);
+    await call(forgot, {}, { body: { email: 'viewer@aldervane.test' } });
+    await call(forgot, {}, { body: { email: 'admin@corrin.test' } });
+
+    signInAs(ids['analyst@aldervane.test']);
+    expect((await call(outbox, WS)).status).toBe(403);
+    signInAs(ids['admin@aldervane.test']);
+    const r = await call(outbox, WS);
+    expect(r.status).toBe(200);
+    const seen = r.body.messages.map((m: { to: string[]; subject: string }) => `${m.to[0]}: ${m.subject}`);
+    expect(seen).toEqual(['viewer@aldervane.test: Reset your Haulcase password', 'new.analyst@aldervane.test: You are invited to Aldervane Copper — North Pit on Haulcase']);
+  });
+});
