@@ -56,7 +56,7 @@ export function CasesList({ slug, canEdit }: { slug: string; canEdit: boolean })
                   {canEdit ? (
                     <td className="space-x-1 whitespace-nowrap">
                       <button type="button" className="btn py-0.5" onClick={() => act(() => sendJson(`${key}/${c.id}/copy`, 'POST'))}>Copy</button>
-                      {c.status === 'draft' ? (
+                      {c.status === 'draft' || c.status === 'returned' ? (
                         <>
                           <button type="button" className="btn py-0.5" onClick={() => { const n = window.prompt('New name', c.name); if (n !== null) act(() => sendJson(`${key}/${c.id}`, 'PATCH', { version: c.version, name: n })); }}>Rename</button>
                           <button type="button" className="btn btn-danger py-0.5" onClick={() => { if (window.confirm(`Delete “${c.name}”?`)) act(() => sendJson(`${key}/${c.id}?version=${c.version}`, 'DELETE')); }}>Delete</button>

@@ -22,7 +22,7 @@ export function PlanControls({ data, slug, canEdit, onSaved }: { data: CaseResul
     setPerMonth(String(stored.swapsPerMonth));
     setStart(stored.startMonth);
   }, [stored]);
-  const editable = canEdit && data.case.status === 'draft';
+  const editable = canEdit && (data.case.status === 'draft' || data.case.status === 'returned');
   const err = (path: string) => problems.filter((p) => p.path === path || p.path === `plan.${path}`).map((p) => p.message).join('; ');
 
   async function save(e: React.FormEvent) {
@@ -85,7 +85,7 @@ export function PlanControls({ data, slug, canEdit, onSaved }: { data: CaseResul
           <p role="status" className="text-sm">{message}</p>
         </div>
       ) : (
-        <p className="text-xs text-muted" data-testid="plan-read-only">{canEdit ? `This case is ${data.case.status}; only a draft can be changed.` : 'Read only: your role can view the plan but not change it.'}</p>
+        <p className="text-xs text-muted" data-testid="plan-read-only">{canEdit ? `This case is ${data.case.status}; only a draft or a case sent back for changes can be changed.` : 'Read only: your role can view the plan but not change it.'}</p>
       )}
     </form>
   );

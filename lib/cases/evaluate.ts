@@ -35,6 +35,13 @@ export async function loadValidCase(access: Access, id: number): Promise<Loaded>
   const wsId = access.workspace.id;
   const row = await fetchCase(wsId, id);
   if (!row) throw notFound('No such business case in this workspace.');
+  if (row.frozenCase) {
+    // An approved case is its frozen record: later edits to the fleet never reach it.
+    const file = JSON.parse(row.frozenCase) as CaseFile;
+    const units = file.trucks.map((t) => t.id);
+    const rows = await db()('trucks').where({ workspaceId: wsId }).whereIn('unitNumber', units).select('id', 'unitNumber', 'payloadClass');
+    return { row, file, truckRows: new Map(rows.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }])) };
+  }
   const problems: Problem[] = [];
   if (row.assumptionSetId === null) problems.push({ path: 'assumptionSetId', message: 'the assumption set was deleted; choose another' });
   const ids = row.selection.map((s) => s.truckId);

@@ -138,6 +138,32 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
     await k('trucks').where({ id: t.id }).update({ repowerOfferId: offer.id });
   });
 
+  it('lets a case sent back for changes be edited again', async () => {
+    as('analyst');
+    const copy = await call(copyCase, { workspace: WS, id: String(caseId) }, { method: 'POST' });
+    const id = String(copy.body.case.id);
+    await k('business_cases').where({ id: Number(id) }).update({ status: 'returned' });
+    const renamed = await call(patchCase, { workspace: WS, id }, { method: 'PATCH', body: { version: 1, name: 'Fixed after review' } });
+    expect(renamed.status).toBe(200);
+    expect(renamed.body.case.name).toBe('Fixed after review');
+  });
+
+  it('serves an approved case from its frozen record, whatever the fleet says today', async () => {
+    as('analyst');
+    const copy = await call(copyCase, { workspace: WS, id: String(caseId) }, { method: 'POST' });
+    const id = Number(copy.body.case.id);
+    const live = await call(getResult, { workspace: WS, id: String(id) });
+    expect(live.status).toBe(200);
+    const frozen = JSON.parse(fs.readFileSync(path.resolve('scenarios/one-truck.json'), 'utf8'));
+    await k('business_cases').where({ id }).update({ status: 'approved', frozenCase: JSON.stringify(frozen) });
+    const r = await call(getResult, { workspace: WS, id: String(id) });
+    expect(r.status).toBe(200);
+    expect(r.body.result).toEqual(evaluateCase(frozen));
+    expect(r.body.result.trucks.map((t: { id: string }) => t.id)).toEqual(['T-01']);
+    // and it cannot be changed
+    expect((await call(patchCase, { workspace: WS, id: String(id) }, { method: 'PATCH', body: { version: 1, name: 'x' } })).status).toBe(409);
+  });
+
   it('copies, renames and deletes; a case that is not a draft cannot be changed', async () => {
     as('analyst');
     const copy = await call(copyCase, { workspace: WS, id: String(caseId) }, { method: 'POST' });

@@ -16,6 +16,8 @@ export type CaseRow = {
   plan: PlanSettings;
   status: string;
   version: number;
+  /** canonical case/1 JSON frozen on approval, or null */
+  frozenCase: string | null;
   createdAt: string;
   updatedAt: string;
 };
@@ -32,6 +34,7 @@ function toCase(r: Raw): CaseRow {
     plan: readPlanSettings(r.plan, r.createdAt),
     status: r.status,
     version: r.version,
+    frozenCase: r.frozenCase ?? null,
     createdAt: r.createdAt,
     updatedAt: r.updatedAt,
   };
@@ -98,11 +101,16 @@ export async function createCase(access: Access, input: CreateCaseInput): Promis
   });
 }
 
-/** Loads the case for a change: 404 if not here, 409 if the version is stale or the case is no longer a draft. */
+/** A draft, or a case sent back for changes, is open to edits; submitted, approved and rejected cases are not. */
+const EDITABLE = new Set(['draft', 'returned']);
+
+/** Loads the case for a change: 404 if not here, 409 if the version is stale or the case is not open to edits. */
 async function lockForChange(trx: Knex.Transaction, workspaceId: number, id: number, version: number): Promise<CaseRow> {
   const current = await fetchCase(workspaceId, id, trx);
   if (!current) throw notFound('No such business case in this workspace.');
-  if (current.status !== 'draft') throw conflict(`This case is ${current.status}; only a draft can be changed. Copy it to work on it.`);
+  if (!EDITABLE.has(current.status)) {
+    throw conflict(`This case is ${current.status}; only a draft or a case sent back for changes can be changed. Copy it to work on it.`);
+  }
   if (current.version !== version) throw conflict();
   return current;
 }
