@@ -176,7 +176,7 @@ describe('business cases in the browser', () => {
     expect(await page.getByRole('button', { name: 'Delete' }).count()).toBe(0);
     await page.goto(caseUrl);
     await page.getByTestId('truck-table').waitFor();
-    expect(await page.getByTestId('truck-table').locator('tbody tr').count()).toBe(24);
+    expect(await page.getByTestId('truck-table').locator('tbody tr').count()).toBe(cli.length);
     await page.goto(`${caseUrl}/plan`);
     await page.getByTestId('plan-read-only').waitFor();
     expect(await page.getByLabel('Swaps per month').isDisabled()).toBe(true);
