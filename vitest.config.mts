@@ -1,7 +1,13 @@
 import { defineConfig } from 'vitest/config';
 import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 
-const alias = { '@': path.resolve(__dirname) };
+const __dirname = path.dirname(fileURLToPath(import.meta.url));
+
+const alias = {
+  '@': path.resolve(__dirname),
+  'server-only': path.resolve(__dirname, 'tests/support/server-only.ts'),
+};
 
 // Three projects: pure unit tests, integration tests against real databases and
 // services, and browser tests against a production build.

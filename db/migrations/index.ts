@@ -1,0 +1,21 @@
+import type { Knex } from 'knex';
+import * as m0001 from './0001_accounts';
+import * as m0002 from './0002_fleet';
+import * as m0003 from './0003_cases';
+
+/**
+ * Migrations are listed here in order, so they load the same way under Next,
+ * tsx scripts and vitest (no file-system scan, no TypeScript loader needed).
+ * To add one: create `NNNN_name.ts` exporting `up` and `down`, then append it below.
+ */
+const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = {
+  '0001_accounts': m0001,
+  '0002_fleet': m0002,
+  '0003_cases': m0003,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(migrations),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => migrations[name],
+};

@@ -1,0 +1,103 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import type { Knex } from 'knex';
+import { hashPassword } from '../../lib/auth/password';
+import { nowIso } from '../../lib/time';
+
+/** The demo password of every demo account (listed in the README). */
+export const DEMO_PASSWORD = 'haulcase-demo';
+export const DEMO_WORKSPACE = 'aldervane-north-pit';
+export const OTHER_WORKSPACE = 'corrin-flats';
+
+const scenariosDir = path.join(__dirname, '..', '..', 'scenarios');
+const readJson = (name: string) => JSON.parse(fs.readFileSync(path.join(scenariosDir, name), 'utf8'));
+
+type DemoCase = {
+  assumptions: Record<string, unknown>;
+  engines: Array<Record<string, number | string> & { id: string }>;
+  repowerOffers: Array<Record<string, number | string> & { id: string; engineId: string }>;
+  trucks: Array<Record<string, number | string | null> & { id: string; engineId: string; repowerOfferId: string }>;
+};
+
+const ENGINE_NAMES: Record<string, string> = {
+  'ac-2600-legacy': 'In-service 2,600 kW (300 t class)',
+  'ac-1900-legacy': 'In-service 1,900 kW (230 t class)',
+  'km-2700-bypass': 'Module 2,700 kW, bypass oil filtration',
+  'bd-2000-bypass': 'Module 2,000 kW, bypass oil filtration',
+};
+const SUPPLIERS: Record<string, string> = {
+  'kestrel-km2700': 'Kestrel Powerworks (invented)',
+  'brannock-bd2000': 'Brannock Drive Systems (invented)',
+};
+
+async function createUser(knex: Knex, email: string, name: string, passwordHash: string): Promise<number> {
+  const now = nowIso();
+  const [row] = await knex('users').insert({ email, name, passwordHash, createdAt: now, updatedAt: now }).returning('id');
+  return typeof row === 'object' ? row.id : row;
+}
+
+async function insertId(knex: Knex, table: string, values: Record<string, unknown>): Promise<number> {
+  const [row] = await knex(table).insert(values).returning('id');
+  return typeof row === 'object' ? row.id : row;
+}
+
+/**
+ * Seeds the invented demo mine "Aldervane Copper — North Pit" (fleet from
+ * scenarios/aldervane-north-pit.json, assumption sets from
+ * scenarios/aldervane-assumption-sets.json), one user per role, and a second
+ * small workspace so that workspace separation can be seen and tested.
+ * Does nothing when the demo workspace already exists.
+ */
+export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
+  const existing = await knex('workspaces').where({ slug: DEMO_WORKSPACE }).first();
+  if (existing) return { created: false };
+  const demo: DemoCase = readJson('aldervane-north-pit.json');
+  const sets: { sets: Array<{ name: string; assumptions: unknown }> } = readJson('aldervane-assumption-sets.json');
+  const hash = await hashPassword(DEMO_PASSWORD);
+  const now = nowIso();
+
+  await knex.transaction(async (trx) => {
+    const settings = JSON.stringify({ units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1 });
+    const ws = await insertId(trx, 'workspaces', {
+      slug: DEMO_WORKSPACE, name: 'Aldervane Copper — North Pit', currency: 'USD', settings, createdAt: now, updatedAt: now,
+    });
+    const other = await insertId(trx, 'workspaces', {
+      slug: OTHER_WORKSPACE, name: 'Corrin Flats Iron (second demo site)', currency: 'AUD', settings, createdAt: now, updatedAt: now,
+    });
+    const users: Record<string, number> = {};
+    for (const role of ['admin', 'analyst', 'approver', 'viewer'] as const) {
+      users[role] = await createUser(trx, `${role}@aldervane.test`, `Demo ${role}`, hash);
+      await trx('memberships').insert({ workspaceId: ws, userId: users[role], role, createdAt: now });
+    }
+    // The analyst is a consultant who also serves the second site; the others do not see it.
+    await trx('memberships').insert({ workspaceId: other, userId: users.analyst, role: 'analyst', createdAt: now });
+    const corrinAdmin = await createUser(trx, 'admin@corrin.test', 'Demo admin (Corrin Flats)', hash);
+    await trx('memberships').insert({ workspaceId: other, userId: corrinAdmin, role: 'admin', createdAt: now });
+
+    const audit = { version: 1, createdBy: users.admin, updatedBy: users.admin, createdAt: now, updatedAt: now };
+    const engineIds: Record<string, number> = {};
+    for (const e of demo.engines) {
+      const { id, ...fields } = e;
+      engineIds[id] = await insertId(trx, 'engine_types', { workspaceId: ws, key: id, name: ENGINE_NAMES[id] ?? id, ...fields, ...audit });
+    }
+    const offerIds: Record<string, number> = {};
+    for (const o of demo.repowerOffers) {
+      const { id, engineId, ...fields } = o;
+      offerIds[id] = await insertId(trx, 'repower_offers', {
+        workspaceId: ws, key: id, supplier: SUPPLIERS[id] ?? '', engineTypeId: engineIds[engineId], ...fields, ...audit,
+      });
+    }
+    for (const t of demo.trucks) {
+      const { id, engineId, repowerOfferId, ...fields } = t;
+      await trx('trucks').insert({
+        workspaceId: ws, unitNumber: id, payloadClass: id.startsWith('T3') ? '300 t' : '230 t',
+        engineTypeId: engineIds[engineId], repowerOfferId: offerIds[repowerOfferId] ?? null, ...fields, ...audit,
+      });
+    }
+    for (const s of sets.sets) {
+      await trx('assumption_sets').insert({ workspaceId: ws, name: s.name, assumptions: JSON.stringify(s.assumptions), ...audit });
+    }
+    await trx('audit_log').insert({ workspaceId: ws, userId: null, action: 'seed', entity: 'workspace', entityId: String(ws), before: null, after: JSON.stringify({ slug: DEMO_WORKSPACE }), at: now });
+  });
+  return { created: true };
+}

@@ -1,0 +1,23 @@
+import { z } from 'zod';
+
+export const ROLES = ['admin', 'analyst', 'approver', 'viewer'] as const;
+export const roleSchema = z.enum(ROLES);
+export type Role = z.infer<typeof roleSchema>;
+
+/** Who may do what, by role within one workspace. */
+export const CAN = {
+  read: ROLES,
+  /** Fleet data, assumption sets, business cases: create, edit, delete, submit. */
+  edit: ['admin', 'analyst'],
+  /** Approve, reject or return a submitted case. */
+  decide: ['approver', 'admin'],
+  /** Members, invitations, workspace settings, outbox. */
+  administer: ['admin'],
+} as const satisfies Record<string, readonly Role[]>;
+
+export const ROLE_LABELS: Record<Role, string> = {
+  admin: 'Admin',
+  analyst: 'Analyst',
+  approver: 'Approver',
+  viewer: 'Viewer',
+};
