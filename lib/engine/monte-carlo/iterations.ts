@@ -11,7 +11,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { evaluateNpvs } from '../npv-only';
 import { sampleWeibullAge } from '../reliability';
-import { cloneCase, getDriver, parseDriverId, setDriver, type DriverRef } from '../sensitivity/drivers';
+import { clampDriver, cloneCase, getDriver, parseDriverId, setDriver, type DriverRef } from '../sensitivity/drivers';
 import type { FailureAgeContext } from '../types';
 import { sampleDistribution, type Distribution } from './distributions';
 
@@ -76,7 +76,7 @@ export function runIterations(
   let done = 0;
   for (let i = from; i < to; i++) {
     const rng = xoroshiro128plus(iterationSeed(spec.seed, i));
-    for (const a of active) setDriver(work, validCase, a.ref, sampleDistribution(a.dist, uniformFloat64(rng), a.base));
+    for (const a of active) setDriver(work, validCase, a.ref, clampDriver(a.ref, sampleDistribution(a.dist, uniformFloat64(rng), a.base)));
     let failureAge: ((ctx: FailureAgeContext) => number) | undefined;
     if (spec.sampleFailures) {
       for (const l of lifeU) l.length = 0;

@@ -13,14 +13,15 @@ export interface DriverInfo {
   scope: DriverScope;
   label: string;
   unit: string;
-  /** valid values: [min, max]; the case refuses values outside (MODEL.md section 9) */
+  /** values the analyses may use: [min, max]. Wider than the case would refuse is not allowed; the
+   * lower ends of hours and Weibull figures are kept well above 0 on purpose, since an engine life of
+   * a few hours would mean millions of events a year, which is no question a reader asks. */
   min: number;
   max: number;
 }
 
 const money = (label: string, unit = 'USD'): Omit<DriverInfo, 'scope'> => ({ label, unit, min: 0, max: Number.POSITIVE_INFINITY });
 const BIG = Number.POSITIVE_INFINITY;
-const TINY = 1e-9;
 
 /** Every driver key, its scope, label, unit and valid range. Currency units are filled in by the screens. */
 export const DRIVER_CATALOGUE = {
@@ -39,12 +40,12 @@ export const DRIVER_CATALOGUE = {
   failureCost: { scope: 'engine', ...money('Failure cost') },
   overhaulDowntimeDays: { scope: 'engine', label: 'Days down, overhaul', unit: 'days', min: 0, max: BIG },
   failureDowntimeDays: { scope: 'engine', label: 'Days down, failure', unit: 'days', min: 0, max: BIG },
-  bsfcGPerKwh: { scope: 'engine', label: 'BSFC', unit: 'g/kWh', min: TINY, max: BIG },
-  lifeHours: { scope: 'engine', label: 'Planned life', unit: 'h', min: TINY, max: BIG },
-  weibullScaleHours: { scope: 'engine', label: 'Weibull scale', unit: 'h', min: TINY, max: BIG },
-  weibullShape: { scope: 'engine', label: 'Weibull shape', unit: '', min: TINY, max: BIG },
-  annualHours: { scope: 'truck', label: 'Annual hours', unit: 'h/yr', min: TINY, max: 8760 },
-  loadFactor: { scope: 'truck', label: 'Load factor', unit: '%', min: TINY, max: 1 },
+  bsfcGPerKwh: { scope: 'engine', label: 'BSFC', unit: 'g/kWh', min: 50, max: 1000 },
+  lifeHours: { scope: 'engine', label: 'Planned life', unit: 'h', min: 500, max: BIG },
+  weibullScaleHours: { scope: 'engine', label: 'Weibull scale', unit: 'h', min: 500, max: BIG },
+  weibullShape: { scope: 'engine', label: 'Weibull shape', unit: '', min: 0.3, max: 20 },
+  annualHours: { scope: 'truck', label: 'Annual hours', unit: 'h/yr', min: 100, max: 8760 },
+  loadFactor: { scope: 'truck', label: 'Load factor', unit: '%', min: 0.01, max: 1 },
 } as const satisfies Record<string, DriverInfo>;
 
 export type DriverKey = keyof typeof DRIVER_CATALOGUE;
