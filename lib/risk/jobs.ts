@@ -10,10 +10,10 @@ import 'server-only';
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import { summariseRun, type MonteCarloResult, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
-import type { WorkerInput, WorkerMessage } from './worker-entry';
+import { runInWorkers } from './pool';
 
 export type JobStatus = 'running' | 'done' | 'cancelled' | 'timed-out' | 'failed';
 
@@ -101,51 +101,29 @@ export function startJob(o: StartOptions): JobView {
   const bundle = workerBundlePath();
   if (!fs.existsSync(bundle)) throw new Error(`Monte Carlo worker bundle missing at ${bundle}: run "npm run build:workers"`);
   const total = o.spec.iterations;
-  const count = Math.max(1, Math.min(o.workers ?? Number(process.env.HAULCASE_MC_WORKERS ?? 2), Math.ceil(total / 100)));
+  const count = o.workers ?? Number(process.env.HAULCASE_MC_WORKERS ?? 2);
   const stopBuffer = new SharedArrayBuffer(4);
   const job: Job = {
     id: o.id ?? randomUUID(), workspaceId: o.workspaceId, caseId: o.caseId, status: 'running', iterations: total, done: 0,
     startedAt: new Date().toISOString(), finishedAt: null, error: null, result: null,
     stop: new Int32Array(stopBuffer), workers: [], timer: null, finished: Promise.resolve(null as unknown as JobView),
   };
-  const doneBy = new Array<number>(count).fill(0);
-  const parts: (Float64Array | null)[] = new Array(count).fill(null);
-  const progressEvery = Math.max(10, Math.min(250, Math.floor(total / count / 40)));
-
-  const runs = Array.from({ length: count }, (_, w) => {
-    const from = Math.floor((total * w) / count);
-    const to = Math.floor((total * (w + 1)) / count);
-    const data: WorkerInput = { validCase: o.validCase, spec: o.spec, from, to, stop: stopBuffer, progressEvery };
-    const worker = new Worker(bundle, { workerData: data });
-    job.workers.push(worker);
-    return new Promise<void>((resolve, reject) => {
-      worker.on('message', (m: WorkerMessage) => {
-        doneBy[w] = m.done;
-        job.done = doneBy.reduce((a, b) => a + b, 0);
-        if (m.type === 'done') parts[w] = m.npvs;
-      });
-      worker.on('error', reject);
-      worker.on('exit', (code) => (parts[w] || code === 0 ? resolve() : reject(new Error(`worker stopped with code ${code}`))));
-    });
+  const pool = runInWorkers(bundle, o.validCase, o.spec, {
+    workers: count,
+    stop: stopBuffer,
+    onProgress: (done) => (job.done = done),
   });
+  job.workers = pool.workers;
   job.timer = setTimeout(() => {
     if (job.status !== 'running') return;
     job.status = 'timed-out';
     Atomics.store(job.stop, 0, 1);
   }, o.timeLimitMs ?? Number(process.env.HAULCASE_MC_TIME_LIMIT_MS ?? 120_000));
 
-  job.finished = Promise.all(runs)
-    .then(() => {
-      // parts in worker order are iterations in order (worker w ran a contiguous block)
-      const length = parts.reduce((a, p) => a + (p?.length ?? 0), 0);
-      const all = new Float64Array(length);
-      let at = 0;
-      for (const p of parts) {
-        if (!p) continue;
-        all.set(p, at);
-        at += p.length;
-      }
-      job.result = job.done > 0 ? summariseRun(o.validCase.trucks.map((t) => t.id), all) : null;
+  job.finished = pool.finished
+    .then(({ npvs, done }) => {
+      job.done = done;
+      job.result = done > 0 ? summariseRun(o.validCase.trucks.map((t) => t.id), npvs) : null;
       if (job.status === 'running') job.status = 'done';
     })
     .catch((err: unknown) => {
