@@ -43,9 +43,9 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
                   <tr key={r.driver} data-driver={r.driver}>
                     <td>{d?.label ?? r.driver}</td>
                     <td className="text-xs text-muted">{d?.unit}</td>
-                    <td className="n">{driverValue(d, r.base)}</td>
-                    <td className="n font-medium">{r.kind === 'none' ? '—' : driverValue(d, r.value)}</td>
-                    <td className="n">{change === null ? '' : `${change > 0 ? '+' : ''}${(change * 100).toFixed(1)} %`}</td>
+                    <td className="n whitespace-nowrap">{driverValue(d, r.base)}</td>
+                    <td className="n whitespace-nowrap font-medium">{r.kind === 'none' ? '—' : driverValue(d, r.value)}</td>
+                    <td className="n whitespace-nowrap">{change === null ? '' : `${change > 0 ? '+' : ''}${(change * 100).toFixed(1)} %`}</td>
                     <td className="text-xs text-muted">{driverValue(d, r.rangeLow)} to {driverValue(d, r.rangeHigh)}</td>
                     <td className="text-xs">{reading(r)}</td>
                   </tr>

@@ -14,7 +14,7 @@ const M = { top: 22, right: 20, bottom: 46, left: 64 };
 export function HistogramChart(props: { summary: Summary; fleet: boolean; currency: string; label: string; negative: NegativeStyle }) {
   return (
     <figure aria-label="Monte Carlo histogram" data-testid="mc-histogram">
-      <ParentSize debounceTime={50}>{({ width }) => (width > 0 ? <Histogram {...props} width={width} height={280} /> : null)}</ParentSize>
+      <ParentSize debounceTime={50} parentSizeStyles={{ width: "100%", height: 280 }}>{({ width }) => (width > 0 ? <Histogram {...props} width={width} height={280} /> : null)}</ParentSize>
     </figure>
   );
 }
@@ -54,7 +54,7 @@ function Histogram({ summary: s, fleet, currency, label, negative, width, height
 export function RunningMeanChart({ summary, fleet, currency, negative }: { summary: Summary; fleet: boolean; currency: string; negative: NegativeStyle }) {
   return (
     <figure aria-label="Running mean" data-testid="mc-running-mean">
-      <ParentSize debounceTime={50}>
+      <ParentSize debounceTime={50} parentSizeStyles={{ width: "100%", height: 160 }}>
         {({ width }) => {
           if (width <= 0) return null;
           const h = 160;

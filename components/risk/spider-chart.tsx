@@ -28,7 +28,7 @@ export function SpiderPanel(props: { base: string; metric: MetricInput; metricLa
       {error ? <p role="alert" className="text-sm text-loss">{error.message}</p> : null}
       {data ? (
         <figure aria-label="Spider chart" data-testid="spider-chart">
-          <ParentSize debounceTime={50}>
+          <ParentSize debounceTime={50} parentSizeStyles={{ width: "100%", height: 300 }}>
             {({ width }) => (width > 0 ? <Chart {...props} lines={data.lines} byId={byId} width={width} height={300} /> : null)}
           </ParentSize>
         </figure>
@@ -47,6 +47,14 @@ function Chart({ lines, byId, width, height, metric, metricLabel, currency, nega
   const changes = lines[0]?.points.map((p) => p.change) ?? [0];
   const x = scaleLinear<number>({ domain: [Math.min(...changes), Math.max(...changes)], range: [0, innerW] });
   const y = scaleLinear<number>({ domain: [Math.min(...all), Math.max(...all)], range: [innerH, 0], nice: true });
+  // direct labels at the right end, pushed apart where lines end close together
+  const labelY = new Map<string, number>();
+  const ends = lines.map((l) => ({ id: l.driver, y: y(l.points[l.points.length - 1].metric) })).sort((a, b) => a.y - b.y);
+  let prev = -Infinity;
+  for (const e of ends) {
+    prev = Math.max(e.y, prev + 13);
+    labelY.set(e.id, prev);
+  }
   return (
     <svg width={width} height={height} role="img" aria-label={`Spider chart of ${metricLabel}`}>
       <Group left={M.left} top={M.top}>
@@ -62,7 +70,7 @@ function Chart({ lines, byId, width, height, metric, metricLabel, currency, nega
                   <title>{`${label} ${p.change >= 0 ? '+' : ''}${Math.round(p.change * 100)} %: ${money(p.metric, fleet, negative)} ${currency} ${moneyScale(fleet).suffix}`}</title>
                 </circle>
               ))}
-              <text x={x(last.change) + 6} y={y(last.metric)} dy="0.33em" fontSize={11} fill={COLOURS[i % COLOURS.length]}>
+              <text x={x(last.change) + 6} y={labelY.get(l.driver)} dy="0.33em" fontSize={11} fill={COLOURS[i % COLOURS.length]}>
                 {label.length > 26 ? `${label.slice(0, 25)}…` : label}
               </text>
             </g>

@@ -26,7 +26,7 @@ export function TornadoChart(props: {
   const height = 40 + rows.length * 26 + 44;
   return (
     <figure aria-label="Tornado chart" data-testid="tornado-chart">
-      <ParentSize debounceTime={50}>{({ width }) => (width > 0 ? <Chart {...props} rows={rows} width={width} height={height} /> : null)}</ParentSize>
+      <ParentSize debounceTime={50} parentSizeStyles={{ width: "100%", height }}>{({ width }) => (width > 0 ? <Chart {...props} rows={rows} width={width} height={height} /> : null)}</ParentSize>
       <figcaption className="mt-1 flex gap-4 text-xs text-muted">
         <span><span className="mr-1 inline-block h-2.5 w-2.5 align-middle" style={{ background: LOW }} />driver at its low value</span>
         <span><span className="mr-1 inline-block h-2.5 w-2.5 align-middle" style={{ background: HIGH }} />driver at its high value</span>

@@ -8,7 +8,6 @@ import 'server-only';
  * the onFinish hook, so this module stays free of the database.
  */
 import { randomUUID } from 'node:crypto';
-import fs from 'node:fs';
 import path from 'node:path';
 import type { Worker } from 'node:worker_threads';
 import { summariseRun, type MonteCarloResult, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
@@ -99,7 +98,6 @@ export function whenFinished(id: string): Promise<JobView> | null {
 export function startJob(o: StartOptions): JobView {
   if (runningCount() >= MAX_RUNNING) throw new TooManyRunsError('Too many Monte Carlo runs in progress on this server; try again when one finishes.');
   const bundle = workerBundlePath();
-  if (!fs.existsSync(bundle)) throw new Error(`Monte Carlo worker bundle missing at ${bundle}: run "npm run build:workers"`);
   const total = o.spec.iterations;
   const count = o.workers ?? Number(process.env.HAULCASE_MC_WORKERS ?? 2);
   const stopBuffer = new SharedArrayBuffer(4);

@@ -38,7 +38,8 @@ export function runInWorkers(
         o.onProgress?.(doneBy.reduce((a, b) => a + b, 0));
         if (m.type === 'done') parts[w] = m.npvs;
       });
-      worker.on('error', reject);
+      // a missing bundle (npm run build:workers not run) also ends up here
+      worker.on('error', (err) => reject(new Error(`Monte Carlo worker failed: ${err.message}`)));
       worker.on('exit', (code) => (parts[w] || code === 0 ? resolve() : reject(new Error(`worker stopped with code ${code}`))));
     });
   });

@@ -38,7 +38,7 @@ describe('sensitivity and risk of the demo case', () => {
     await page.getByLabel('High value of Fuel price').press('Enter');
     await page.waitForFunction((old) => document.querySelector('[data-testid="tornado-table"] tr[data-driver="fuelPrice"] td:nth-child(6)')?.textContent !== old, before);
     expect(await fuelRow.locator('td').nth(5).textContent()).not.toBe(before);
-    expect(await page.getByTestId('tornado-chart').locator('svg').count()).toBe(1);
+    expect(await page.getByTestId('tornado-chart').locator('svg[role="img"]').count()).toBe(1);
     expect(await page.getByTestId('tornado-chart').textContent()).toMatch(/ΔNPV repower vs rebuild, every truck \(USD M\)/);
 
     const be = page.getByTestId('break-even-table');
@@ -51,8 +51,8 @@ describe('sensitivity and risk of the demo case', () => {
   });
 
   it('runs a Monte Carlo, shows its progress and ends in a histogram with P10, P50 and P90', async () => {
-    await page.getByLabel('Iterations').fill('2000');
-    await page.getByLabel('Seed').fill('7');
+    await page.getByLabel('Iterations', { exact: true }).fill('2000');
+    await page.getByLabel('Seed', { exact: true }).fill('7');
     await page.getByRole('button', { name: 'Run Monte Carlo' }).click();
     await progress().waitFor();
     expect(await status().textContent()).toMatch(/of 2,000 iterations/);
@@ -67,7 +67,7 @@ describe('sensitivity and risk of the demo case', () => {
   });
 
   it('cancels a long run while it is in progress', async () => {
-    await page.getByLabel('Iterations').fill('100000');
+    await page.getByLabel('Iterations', { exact: true }).fill('100000');
     await page.getByRole('button', { name: 'Run Monte Carlo' }).click();
     await page.waitForFunction(() => /of 100,000 iterations · running/.test(document.querySelector('[data-testid="mc-status"]')?.textContent ?? ''));
     // progress moves before we cancel
