@@ -63,6 +63,7 @@ describe('sensitivity and risk of the demo case', () => {
     for (const mark of ['P10', 'P50', 'P90']) expect(await hist.locator(`g[data-mark="${mark}"]`).count()).toBe(1);
     expect(await page.getByTestId('mc-loss').textContent()).toMatch(/Chance the repower loses money against rebuilding: \d+(\.\d)? %/);
     expect(await page.getByTestId('mc-trucks').locator('tbody tr').count()).toBe(24);
+    await hist.scrollIntoViewIfNeeded();
     await screenshot(page, 'risk-monte-carlo-histogram');
   });
 
@@ -72,6 +73,7 @@ describe('sensitivity and risk of the demo case', () => {
     await page.waitForFunction(() => /of 100,000 iterations · running/.test(document.querySelector('[data-testid="mc-status"]')?.textContent ?? ''));
     // progress moves before we cancel
     await page.waitForFunction(() => Number(document.querySelector('[role="progressbar"]')?.getAttribute('aria-valuenow')) > 0, null, { timeout: 60_000 });
+    await progress().scrollIntoViewIfNeeded();
     await screenshot(page, 'risk-monte-carlo-running');
     await page.getByRole('button', { name: 'Cancel run' }).click();
     await page.waitForFunction(() => /cancelled/.test(document.querySelector('[data-testid="mc-status"]')?.textContent ?? ''), null, { timeout: 30_000 });
