@@ -14,10 +14,15 @@ import type { BreakdownEntry, DepreciatedSpend, PeriodDetail, PolicyDetail, Resi
  * for the unused share of its life, at year-N prices:
  * overhaulCost · max(0, 1 − a_N / lifeHours) · index_N.
  *
- * @example residualCredit(900000, 14500, 20000, 1) // = 247500
+ * @example residualCredit(900000, 14500, 20000, 1) // ≈ 247500
  */
 export function residualCredit(overhaulCost: number, age: number, lifeHours: number, priceIndex: number): number {
   return overhaulCost * Math.max(0, 1 - age / lifeHours) * priceIndex;
+}
+
+/** A cost as cash: negative, and 0 rather than −0 when there is none. */
+function negate(x: number): number {
+  return x === 0 ? 0 : -x;
 }
 
 /** Cash flows of a policy run: tax, depreciation, residual and the breakdown by category. */
@@ -27,9 +32,9 @@ export interface PolicyCash {
   /** CF_0..CF_N */
   cashFlows: number[];
   breakdown: BreakdownEntry[];
-  co2Tonnes: Float64Array;
-  deductibleCosts: Float64Array;
-  depreciation: Float64Array;
+  co2Tonnes: number[];
+  deductibleCosts: number[];
+  depreciation: number[];
   /** basis written off in year N */
   writeOff: number;
   spends: DepreciatedSpend[];
@@ -40,10 +45,10 @@ export interface PolicyCash {
 export function depreciateSpends(
   setup: TruckSetup,
   run: PolicyRun,
-): { depreciation: Float64Array; writeOff: number; spends: DepreciatedSpend[] } {
+): { depreciation: number[]; writeOff: number; spends: DepreciatedSpend[] } {
   const { a, n } = setup;
   const expense = a.rebuildAccounting === 'expense';
-  const depreciation = new Float64Array(n + 1);
+  const depreciation = new Array<number>(n + 1).fill(0);
   let writeOff = 0;
   const spends: DepreciatedSpend[] = [];
   for (const ev of run.events) {
@@ -95,13 +100,13 @@ export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreci
   const deductible = fuel + carbon + r.lube + r.lostMargin + (expense ? r.overhauls + r.failures : 0);
   const taxEffect = t * (deductible - r.extraMargin + depreciation + writeOff - credit);
   const b: BreakdownEntry = {
-    fuel: -fuel,
-    carbon: -carbon,
-    lube: -r.lube,
-    overhauls: -r.overhauls,
-    failures: -r.failures,
-    capital: -r.capital,
-    lostMargin: -r.lostMargin,
+    fuel: negate(fuel),
+    carbon: negate(carbon),
+    lube: negate(r.lube),
+    overhauls: negate(r.overhauls),
+    failures: negate(r.failures),
+    capital: negate(r.capital),
+    lostMargin: negate(r.lostMargin),
     extraMargin: r.extraMargin,
     taxEffect,
     residual: credit,
@@ -118,8 +123,8 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
   const residual = residualOf(setup, run);
   const cashFlows = new Array<number>(n + 1);
   const breakdown = new Array<BreakdownEntry>(n + 1);
-  const co2 = new Float64Array(n + 1);
-  const deductible = new Float64Array(n + 1);
+  const co2 = new Array<number>(n + 1);
+  const deductible = new Array<number>(n + 1);
   for (let y = 0; y <= n; y++) {
     const pc = periodCash(setup, run, y, depreciation[y], y === n ? writeOff : 0, y === n ? residual.credit : 0);
     co2[y] = pc.co2;

@@ -98,7 +98,7 @@ function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, detailed: bo
  * many evaluations of modified clones); `options.failureAge` replaces the
  * median failure path (Monte Carlo).
  *
- * @example evaluateCase(oneTruck).trucks[0].best // 'repower' for scenarios/one-truck.json
+ * @example evaluateCase(oneTruck).trucks[0].horizonYears // = 3 for scenarios/one-truck.json (18,000 h at 6,000 h a year)
  */
 export function evaluateCase(c: CaseFileInput, options: EvaluateOptions = {}): CaseResult {
   const valid = checked(c, options);

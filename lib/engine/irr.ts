@@ -215,20 +215,35 @@ function visit(s: RootSearch, ka: number, kb: number, fa: number, fb: number): v
  * scan's. Stops once `limit` roots are found.
  */
 export function findIrrRoots(values: readonly number[], limit = Infinity): IrrRoot[] {
-  const n = values.length;
+  // the zero polynomial is zero at every step: nothing to isolate
+  let allZero = true;
+  for (const v of values) if (v !== 0) allZero = false;
+  if (allZero) return scanIrrRoots(values).slice(0, limit);
+  // f(x) = x^lo · g(x) with g of degree hi − lo: same roots for x > 0, so the bounds work on g (cheaper)
+  let lo = 0;
+  while (values[lo] === 0) lo++;
+  let hi = values.length - 1;
+  while (values[hi] === 0) hi--;
+  const d = hi - lo + 1;
+  const coef = new Float64Array(d);
+  const mag = new Float64Array(d);
+  for (let j = 0; j < d; j++) {
+    coef[j] = values[lo + j];
+    mag[j] = Math.abs(values[lo + j]);
+  }
   const s: RootSearch = {
     values,
-    coef: Float64Array.from(values),
-    mag: Float64Array.from(values, Math.abs),
-    work: new Float64Array(n),
-    workMag: new Float64Array(n),
+    coef,
+    mag,
+    work: new Float64Array(d),
+    workMag: new Float64Array(d),
     roots: [],
     limit,
   };
   const f0 = gridValue(s, IRR_GRID_FIRST_K);
   const fLast = gridValue(s, IRR_GRID_LAST_K);
   if (f0 === 0) s.roots.push({ lo: irrGridRate(IRR_GRID_FIRST_K), hi: irrGridRate(IRR_GRID_FIRST_K), exact: true });
-  if (n > 1) visit(s, IRR_GRID_FIRST_K, IRR_GRID_LAST_K, f0, fLast);
+  if (d > 1) visit(s, IRR_GRID_FIRST_K, IRR_GRID_LAST_K, f0, fLast);
   if (fLast === 0 && s.roots.length < limit) {
     s.roots.push({ lo: irrGridRate(IRR_GRID_LAST_K), hi: irrGridRate(IRR_GRID_LAST_K), exact: true });
   }

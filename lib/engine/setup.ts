@@ -21,11 +21,11 @@ export interface TruckSetup {
   /** N: years in the horizon */
   n: number;
   /** H_y for y = 0..N (H_0 = 0) */
-  hours: Float64Array;
-  discountFactor: Float64Array;
-  fuelIndex: Float64Array;
-  carbonIndex: Float64Array;
-  generalIndex: Float64Array;
+  hours: number[];
+  discountFactor: number[];
+  fuelIndex: number[];
+  carbonIndex: number[];
+  generalIndex: number[];
   powerKw: number;
   calibration: number;
   burnStart: number;
@@ -88,11 +88,11 @@ export function buildTruckSetup(
   if (!start || !offer || !next) throw new Error(`truck ${truck.id}: unknown engine or repower offer`);
 
   const n = horizonYears(truck.remainingLifeHours, truck.annualHours, a.horizonYears);
-  const hours = new Float64Array(n + 1);
-  const discountFactor = new Float64Array(n + 1);
-  const fuelIndex = new Float64Array(n + 1);
-  const carbonIndex = new Float64Array(n + 1);
-  const generalIndex = new Float64Array(n + 1);
+  const hours = new Array<number>(n + 1);
+  const discountFactor = new Array<number>(n + 1);
+  const fuelIndex = new Array<number>(n + 1);
+  const carbonIndex = new Array<number>(n + 1);
+  const generalIndex = new Array<number>(n + 1);
   const half = a.timing === 'mid-year' ? 0.5 : 0;
   for (let y = 0; y <= n; y++) {
     hours[y] = y === 0 ? 0 : Math.max(0, Math.min(truck.annualHours, truck.remainingLifeHours - (y - 1) * truck.annualHours));

@@ -6,6 +6,9 @@
  * The sub-schemas are exported for the fleet-register forms.
  */
 import { z } from 'zod';
+import { crossFieldProblems, orderProblems, plainProblems, type CaseProblem } from './case-checks';
+
+export { formatPath, type CaseProblem } from './case-checks';
 
 // ---------------------------------------------------------------- number kinds
 
@@ -138,165 +141,8 @@ export type Truck = z.output<typeof truckSchema>;
 
 // ---------------------------------------------------------------- validateCase
 
-export interface CaseProblem {
-  /** JSON path such as `trucks[3].annualHours`; `(root)` for the whole case. */
-  path: string;
-  message: string;
-}
 
 export type CaseValidation = { ok: true; value: CaseFile } | { ok: false; problems: CaseProblem[] };
-
-/** `['trucks', 3, 'annualHours']` → `trucks[3].annualHours`. */
-export function formatPath(path: readonly PropertyKey[]): string {
-  let out = '';
-  for (const key of path) {
-    if (typeof key === 'number') out += `[${key}]`;
-    else out += out === '' ? String(key) : `.${String(key)}`;
-  }
-  return out === '' ? '(root)' : out;
-}
-
-function valueAt(root: unknown, path: readonly PropertyKey[]): unknown {
-  let v: unknown = root;
-  for (const key of path) {
-    if (v === null || typeof v !== 'object') return undefined;
-    v = (v as Record<PropertyKey, unknown>)[key];
-  }
-  return v;
-}
-
-function describe(v: unknown): string {
-  if (v === null) return 'null';
-  if (Array.isArray(v)) return 'a list';
-  if (typeof v === 'number') return Number.isNaN(v) ? 'NaN' : String(v);
-  if (typeof v === 'string') return 'text';
-  return typeof v === 'object' ? 'an object' : typeof v;
-}
-
-const EXPECTED_WORDS: Record<string, string> = {
-  number: 'a finite number',
-  int: 'a whole number',
-  string: 'text',
-  object: 'an object',
-  array: 'a list',
-  boolean: 'true or false',
-};
-
-function plainProblems(input: unknown, issue: z.core.$ZodIssue): CaseProblem[] {
-  const path = issue.path as PropertyKey[];
-  switch (issue.code) {
-    case 'unrecognized_keys':
-      return issue.keys.map((k) => ({ path: formatPath([...path, k]), message: 'unknown field' }));
-    case 'invalid_type': {
-      const got = valueAt(input, path);
-      if (got === undefined) return [{ path: formatPath(path), message: 'is required' }];
-      const want = EXPECTED_WORDS[issue.expected] ?? issue.expected;
-      return [{ path: formatPath(path), message: `must be ${want}, not ${describe(got)}` }];
-    }
-    case 'invalid_value':
-      if (issue.message.startsWith('must')) return [{ path: formatPath(path), message: issue.message }];
-      return [
-        {
-          path: formatPath(path),
-          message: `must be one of ${issue.values.map((v) => JSON.stringify(v)).join(', ')}`,
-        },
-      ];
-    case 'invalid_union': {
-      const options = (issue as { options?: unknown[] }).options;
-      if (options) {
-        const got = valueAt(input, path);
-        if (got === undefined) return [{ path: formatPath(path), message: 'is required' }];
-        return [{ path: formatPath(path), message: `must be one of ${options.map((o) => JSON.stringify(o)).join(', ')}` }];
-      }
-      return [{ path: formatPath(path), message: issue.message }];
-    }
-    default:
-      return [{ path: formatPath(path), message: issue.message }];
-  }
-}
-
-function asArray(v: unknown): unknown[] {
-  return Array.isArray(v) ? v : [];
-}
-function idOf(v: unknown): string | undefined {
-  if (v && typeof v === 'object' && typeof (v as { id?: unknown }).id === 'string') return (v as { id: string }).id;
-  return undefined;
-}
-function fieldOf(v: unknown, key: string): unknown {
-  return v && typeof v === 'object' ? (v as Record<string, unknown>)[key] : undefined;
-}
-
-/**
- * Checks that need more than one field: duplicate ids, references to ids that
- * do not exist, and a core credit larger than the module and its install.
- * Works on the raw input so these problems are reported alongside the schema's.
- */
-function crossFieldProblems(input: unknown): CaseProblem[] {
-  const problems: CaseProblem[] = [];
-  const engines = asArray(fieldOf(input, 'engines'));
-  const offers = asArray(fieldOf(input, 'repowerOffers'));
-  const trucks = asArray(fieldOf(input, 'trucks'));
-
-  const collectIds = (list: unknown[], name: string): Set<string> => {
-    const seen = new Map<string, number>();
-    list.forEach((item, i) => {
-      const id = idOf(item);
-      if (id === undefined) return;
-      const first = seen.get(id);
-      if (first !== undefined) {
-        problems.push({ path: `${name}[${i}].id`, message: `duplicate id "${id}" (already used by ${name}[${first}])` });
-      } else seen.set(id, i);
-    });
-    return new Set(seen.keys());
-  };
-  const engineIds = collectIds(engines, 'engines');
-  const offerIds = collectIds(offers, 'repowerOffers');
-  collectIds(trucks, 'trucks');
-
-  offers.forEach((offer, i) => {
-    const ref = fieldOf(offer, 'engineId');
-    if (typeof ref === 'string' && ref !== '' && !engineIds.has(ref)) {
-      problems.push({ path: `repowerOffers[${i}].engineId`, message: `no engine has the id "${ref}"` });
-    }
-    const price = fieldOf(offer, 'modulePrice');
-    const install = fieldOf(offer, 'installCost');
-    const core = fieldOf(offer, 'coreCredit');
-    if ([price, install, core].every((n) => typeof n === 'number' && Number.isFinite(n))) {
-      if ((core as number) > (price as number) + (install as number)) {
-        problems.push({
-          path: `repowerOffers[${i}].coreCredit`,
-          message: 'must not exceed modulePrice + installCost (the capital cost would be negative)',
-        });
-      }
-    }
-  });
-  const cap = fieldOf(fieldOf(input, 'assumptions'), 'horizonYears');
-  trucks.forEach((truck, i) => {
-    const life = fieldOf(truck, 'remainingLifeHours');
-    const annual = fieldOf(truck, 'annualHours');
-    if (cap == null && typeof life === 'number' && typeof annual === 'number' && life > 0 && annual > 0) {
-      if (life / annual > MAX_HORIZON_YEARS) {
-        problems.push({
-          path: `trucks[${i}].remainingLifeHours`,
-          message: `gives more than ${MAX_HORIZON_YEARS} years at the truck's annual hours; set assumptions.horizonYears`,
-        });
-      }
-    }
-    const eng = fieldOf(truck, 'engineId');
-    if (typeof eng === 'string' && eng !== '' && !engineIds.has(eng)) {
-      problems.push({ path: `trucks[${i}].engineId`, message: `no engine has the id "${eng}"` });
-    }
-    const off = fieldOf(truck, 'repowerOfferId');
-    if (typeof off === 'string' && off !== '' && !offerIds.has(off)) {
-      problems.push({ path: `trucks[${i}].repowerOfferId`, message: `no repower offer has the id "${off}"` });
-    }
-  });
-  return problems;
-}
-
-function pathOrder(p: string): (string | number)[] {
-  return p.split(/[.[\]]+/).filter(Boolean).map((s) => (/^\d+$/.test(s) ? Number(s) : s));
-}
 
 /**
  * Validate a `case/1` document. Every problem is reported at once, each with
@@ -311,28 +157,10 @@ export function validateCase(input: unknown): CaseValidation {
   if (!parsed.success) {
     for (const issue of parsed.error.issues) problems.push(...plainProblems(input, issue));
   }
-  problems.push(...crossFieldProblems(input));
+  problems.push(...crossFieldProblems(input, MAX_HORIZON_YEARS));
   if (problems.length === 0 && parsed.success) return { ok: true, value: parsed.data };
 
-  // one line per path and reason, in document order
-  const seen = new Set<string>();
-  const unique = problems.filter((p) => {
-    const key = `${p.path}\u0000${p.message}`;
-    if (seen.has(key)) return false;
-    seen.add(key);
-    return true;
-  });
-  const order = ['format', 'name', 'currency', 'assumptions', 'engines', 'repowerOffers', 'trucks'];
-  unique.sort((a, b) => {
-    const pa = pathOrder(a.path);
-    const pb = pathOrder(b.path);
-    const ra = order.indexOf(String(pa[0]));
-    const rb = order.indexOf(String(pb[0]));
-    if (ra !== rb) return (ra < 0 ? 99 : ra) - (rb < 0 ? 99 : rb);
-    const ia = typeof pa[1] === 'number' ? pa[1] : -1;
-    const ib = typeof pb[1] === 'number' ? pb[1] : -1;
-    return ia - ib;
-  });
+  const unique = orderProblems(problems);
   return { ok: false, problems: unique };
 }
 
