@@ -33,5 +33,8 @@ try {
 const checked = validateCase(input);
 if (!checked.ok) fail(checked.problems.map((p) => `${p.path}: ${p.message}`));
 
+// A reader that closes early (`| head`) is not an error of ours.
+process.stdout.on('error', (err: NodeJS.ErrnoException) => process.exit(err.code === 'EPIPE' ? 0 : 1));
+
 const result = evaluateCase(checked.value, { trusted: true });
 process.stdout.write(`${JSON.stringify(result, null, 2)}\n`);

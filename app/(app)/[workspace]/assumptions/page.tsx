@@ -1,14 +1,18 @@
 import type { Metadata } from 'next';
-import { EmptyState } from '@/components/ui/empty-state';
+import { AssumptionSets } from '@/components/fleet/assumption-sets';
+import { toWorkspaceView } from '@/components/fleet/workspace-view';
 import { PageHeader } from '@/components/ui/page-header';
+import { getPageAccess } from '@/lib/auth/page-access';
 
 export const metadata: Metadata = { title: 'Assumptions' };
 
-export default function Page() {
+export default async function Page({ params }: { params: Promise<{ workspace: string }> }) {
+  const { workspace } = await params;
+  const ws = toWorkspaceView(await getPageAccess(workspace));
   return (
     <>
-      <PageHeader title="Assumptions" subtitle="Named sets of economic assumptions: base, high fuel, low fuel …" />
-      <EmptyState title="No assumption sets yet">Discount rate, inflation, fuel price and escalation, lube, labour, carbon price, margin per tonne, tax rate, depreciation and the accounting of rebuilds, in named sets you can copy and compare.</EmptyState>
+      <PageHeader title="Assumptions" subtitle="Named sets of economic assumptions: discount rate, inflation, fuel, lube, labour, carbon, margin, tax and depreciation." />
+      <AssumptionSets ws={ws} />
     </>
   );
 }

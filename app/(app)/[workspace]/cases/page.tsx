@@ -1,15 +1,24 @@
 import type { Metadata } from 'next';
-import { EmptyState } from '@/components/ui/empty-state';
+import Link from 'next/link';
+import { CasesList } from '@/components/cases/cases-list';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
+import { hasRole } from '@/lib/auth/access';
+import { getPageAccess } from '@/lib/auth/page-access';
+import { CAN } from '@/lib/auth/roles';
 
 export const metadata: Metadata = { title: 'Business cases' };
 
-export default function Page() {
+export default async function CasesPage({ params }: { params: Promise<{ workspace: string }> }) {
+  const { workspace } = await params;
+  const access = await getPageAccess(workspace);
   return (
     <>
-      <PageHeader title="Business cases" subtitle="Keep, rebuild or repower, truck by truck, with NPV, payback and a capital plan." />
-      <EmptyState title="No business cases yet">A business case takes a selection of trucks and an assumption set and computes, for every truck, the NPV of keeping, rebuilding and repowering, the best policy, IRR, payback, fuel and CO2; then ranks the trucks and plans the swaps under a capital budget.</EmptyState>
+      <PageHeader
+        title="Business cases"
+        subtitle={<>Keep, rebuild or repower, truck by truck, with NPV, payback and a capital plan. <Link className="text-accent underline" href={`/${workspace}/methodology`}>How the figures are computed</Link></>}
+      />
+      <CasesList slug={workspace} canEdit={hasRole(access, CAN.edit)} />
       <SafetyCaution />
     </>
   );

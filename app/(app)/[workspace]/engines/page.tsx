@@ -1,14 +1,18 @@
 import type { Metadata } from 'next';
-import { EmptyState } from '@/components/ui/empty-state';
+import { EngineLibrary } from '@/components/fleet/engine-library';
+import { toWorkspaceView } from '@/components/fleet/workspace-view';
 import { PageHeader } from '@/components/ui/page-header';
+import { getPageAccess } from '@/lib/auth/page-access';
 
 export const metadata: Metadata = { title: 'Engine library' };
 
-export default function Page() {
+export default async function Page({ params }: { params: Promise<{ workspace: string }> }) {
+  const { workspace } = await params;
+  const ws = toWorkspaceView(await getPageAccess(workspace));
   return (
     <>
-      <PageHeader title="Engine library" subtitle="Rating, BSFC, planned life, failure behaviour and service figures per engine type." />
-      <EmptyState title="No engine types yet">Each engine type in service or on offer: rated power (kW), BSFC (g/kWh), planned life (h), Weibull shape and scale, overhaul and failure cost and days down, oil-service interval, sump, kit and labour.</EmptyState>
+      <PageHeader title="Engine library" subtitle="Rating, fuel consumption, planned life, failure behaviour, overhaul and failure costs, oil-service figures." />
+      <EngineLibrary ws={ws} />
     </>
   );
 }

@@ -1,14 +1,29 @@
 import type { Metadata } from 'next';
-import { EmptyState } from '@/components/ui/empty-state';
+import Link from 'next/link';
+import { CaseFilePanel } from '@/components/fleet/case-file-panel';
+import { FleetRegister } from '@/components/fleet/fleet-register';
+import { toWorkspaceView } from '@/components/fleet/workspace-view';
 import { PageHeader } from '@/components/ui/page-header';
+import { getPageAccess } from '@/lib/auth/page-access';
 
 export const metadata: Metadata = { title: 'Fleet register' };
 
-export default function Page() {
+export default async function Page({ params }: { params: Promise<{ workspace: string }> }) {
+  const { workspace } = await params;
+  const ws = toWorkspaceView(await getPageAccess(workspace));
   return (
     <>
-      <PageHeader title="Fleet register" subtitle="Trucks with engine hours, annual hours, duty and measured fuel burn." />
-      <EmptyState title="No trucks yet">Each truck's unit number, payload class, engine type, engine hours, remaining life, annual operating hours, load factor, productivity (t/h) and measured fuel burn belong here. Import them from a CSV or XLSX file, or add them one by one.</EmptyState>
+      <PageHeader
+        title="Fleet register"
+        subtitle="Trucks with engine hours, annual hours, duty and measured fuel burn."
+        action={
+          ws.canEdit ? (
+            <Link className="btn" href={`/${workspace}/fleet/import`}>Import from file</Link>
+          ) : null
+        }
+      />
+      <FleetRegister ws={ws} />
+      <CaseFilePanel ws={ws} />
     </>
   );
 }

@@ -1,0 +1,27 @@
+import type { Metadata } from 'next';
+import { notFound } from 'next/navigation';
+import { CaseNav } from '@/components/cases/case-nav';
+import { PlanView } from '@/components/cases/plan-view';
+import { PageHeader } from '@/components/ui/page-header';
+import { SafetyCaution } from '@/components/ui/safety-caution';
+import { hasRole } from '@/lib/auth/access';
+import { getPageAccess } from '@/lib/auth/page-access';
+import { CAN } from '@/lib/auth/roles';
+import { fetchCase } from '@/lib/db/queries/cases';
+
+export const metadata: Metadata = { title: 'Capital plan' };
+
+export default async function PlanPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
+  const { workspace, id } = await params;
+  const access = await getPageAccess(workspace);
+  const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
+  if (!c) notFound();
+  return (
+    <>
+      <PageHeader title={`${c.name}: ranking and plan`} subtitle="Which trucks to repower within each year's capital budget, and when the shop swaps them." />
+      <CaseNav slug={workspace} caseId={c.id} current="plan" />
+      <PlanView slug={workspace} caseId={c.id} canEdit={hasRole(access, CAN.edit)} />
+      <SafetyCaution />
+    </>
+  );
+}

@@ -1,0 +1,26 @@
+import type { Metadata } from 'next';
+import { notFound } from 'next/navigation';
+import { CaseNav } from '@/components/cases/case-nav';
+import { TruckView } from '@/components/cases/truck-view';
+import { PageHeader } from '@/components/ui/page-header';
+import { SafetyCaution } from '@/components/ui/safety-caution';
+import { getPageAccess } from '@/lib/auth/page-access';
+import { fetchCase } from '@/lib/db/queries/cases';
+
+export const metadata: Metadata = { title: 'Truck in case' };
+
+export default async function TruckPage({ params }: { params: Promise<{ workspace: string; id: string; truckId: string }> }) {
+  const { workspace, id, truckId } = await params;
+  const access = await getPageAccess(workspace);
+  const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
+  if (!c) notFound();
+  const unit = decodeURIComponent(truckId);
+  return (
+    <>
+      <PageHeader title={`Truck ${unit}`} subtitle={`In “${c.name}”: cash flows by year and category, engine events, and the case for repowering.`} />
+      <CaseNav slug={workspace} caseId={c.id} current="truck" />
+      <TruckView slug={workspace} caseId={c.id} truckId={unit} />
+      <SafetyCaution />
+    </>
+  );
+}

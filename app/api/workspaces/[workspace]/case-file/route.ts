@@ -1,0 +1,52 @@
+import { NextResponse } from 'next/server';
+import { requireMember } from '@/lib/auth/access';
+import { CAN } from '@/lib/auth/roles';
+import { db } from '@/lib/db';
+import { buildCaseFile } from '@/lib/db/queries/case-file';
+import { importCaseFile } from '@/lib/db/queries/case-file-import';
+import { invalid, notFound, readJson, route } from '@/lib/http';
+import { validateCase } from '@/lib/validation/case';
+
+type P = { workspace: string };
+
+/**
+ * GET ?assumptionSetId=N: the workspace's register, engines, offers and that
+ * assumption set as a case/1 file (any member). The case is named after the set,
+ * so uploading it again updates the same set.
+ */
+export const GET = route<P>(async (req, { params }) => {
+  const access = await requireMember((await params).workspace, CAN.read);
+  const raw = new URL(req.url).searchParams.get('assumptionSetId');
+  if (!raw || !/^\d{1,12}$/.test(raw)) throw invalid([{ path: 'assumptionSetId', message: 'Choose an assumption set (query parameter assumptionSetId).' }]);
+  const set = await db()('assumption_sets').where({ id: Number(raw), workspaceId: access.workspace.id }).first('id', 'name');
+  if (!set) throw notFound('No such assumption set in this workspace.');
+  const file = await buildCaseFile(access.workspace.id, { name: set.name, assumptionSetId: set.id, includeAll: true });
+  const safe = `${access.workspace.slug}-${String(set.name).toLowerCase().replace(/[^a-z0-9]+/g, '-')}`.replace(/-+$/, '');
+  return new NextResponse(`${JSON.stringify(file, null, 2)}\n`, {
+    headers: { 'content-type': 'application/json; charset=utf-8', 'content-disposition': `attachment; filename="${safe}.case.json"` },
+  });
+});
+
+/**
+ * POST a case/1 document (JSON body): validated as the engine validates it, then
+ * upserted (engines and offers by key, trucks by unit number, assumptions as the
+ * set named like the case) in one transaction; any problem saves nothing.
+ */
+export const POST = route<P>(async (req, { params }) => {
+  const access = await requireMember((await params).workspace, CAN.edit);
+  const v = validateCase(await readJson(req));
+  if (!v.ok) throw invalid(v.problems, `The case file has ${v.problems.length} problem(s); nothing was saved.`);
+  if (v.value.currency !== access.workspace.currency) {
+    throw invalid([{ path: 'currency', message: `is ${v.value.currency} but this workspace reports in ${access.workspace.currency}` }], 'The case file is in another currency; nothing was saved.');
+  }
+  // The register's columns are narrower than the case file allows.
+  const long = [
+    ...(v.value.name.length > 120 ? [{ path: 'name', message: 'must be at most 120 characters (it names the assumption set)' }] : []),
+    ...(['engines', 'repowerOffers', 'trucks'] as const).flatMap((list) =>
+      v.value[list].flatMap((x, i) => (x.id.length > 80 ? [{ path: `${list}[${i}].id`, message: 'must be at most 80 characters' }] : [])),
+    ),
+  ];
+  if (long.length) throw invalid(long, 'Some ids are too long; nothing was saved.');
+  const counts = await db().transaction((trx) => importCaseFile(trx, access, v.value));
+  return NextResponse.json({ name: v.value.name, ...counts });
+});

@@ -1,0 +1,41 @@
+import { NextResponse } from 'next/server';
+import { z } from 'zod';
+import { requireMember } from '@/lib/auth/access';
+import { CAN } from '@/lib/auth/roles';
+import { toSummaryDto } from '@/lib/cases/evaluate';
+import { parseCaseId } from '@/lib/cases/params';
+import { deleteCase, fetchCase, updateCase } from '@/lib/db/queries/cases';
+import { notFound, parseOr422, readJson, route } from '@/lib/http';
+import { updateCaseSchema } from '@/lib/validation/business-case';
+
+type P = { workspace: string; id: string };
+
+/** GET: one case with its selection (every member reads). */
+export const GET = route<P>(async (_req, { params }) => {
+  const { workspace, id } = await params;
+  const access = await requireMember(workspace, CAN.read);
+  const c = await fetchCase(access.workspace.id, parseCaseId(id));
+  if (!c) throw notFound('No such business case in this workspace.');
+  return NextResponse.json({ case: toSummaryDto(c), selection: c.selection });
+});
+
+/** PATCH: rename, change assumptions/selection or the plan settings; `version` must match (409 otherwise). */
+export const PATCH = route<P>(async (req, { params }) => {
+  const { workspace, id } = await params;
+  const access = await requireMember(workspace, CAN.edit);
+  const caseId = parseCaseId(id);
+  const input = parseOr422(updateCaseSchema, await readJson(req));
+  return NextResponse.json({ case: toSummaryDto(await updateCase(access, caseId, input)) });
+});
+
+const versionQuery = z.object({ version: z.coerce.number({ error: 'must be a number' }).int().positive('must be the version you loaded') });
+
+/** DELETE ?version=N: removes a draft case. */
+export const DELETE = route<P>(async (req, { params }) => {
+  const { workspace, id } = await params;
+  const access = await requireMember(workspace, CAN.edit);
+  const caseId = parseCaseId(id);
+  const { version } = parseOr422(versionQuery, { version: new URL(req.url).searchParams.get('version') ?? undefined });
+  await deleteCase(access, caseId, version);
+  return new NextResponse(null, { status: 204 });
+});

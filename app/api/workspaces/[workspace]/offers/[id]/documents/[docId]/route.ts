@@ -1,0 +1,35 @@
+import { NextResponse } from 'next/server';
+import { requireMember } from '@/lib/auth/access';
+import { CAN } from '@/lib/auth/roles';
+import { parseId } from '@/lib/api/crud';
+import { notFound, route } from '@/lib/http';
+import { deleteQuoteDocument, findQuoteDocument } from '@/lib/db/queries/quote-documents';
+import { getStorage } from '@/lib/storage';
+
+type P = { workspace: string; id: string; docId: string };
+
+/** GET: download (members of the workspace only; the bytes are never served from a public folder). */
+export const GET = route<P>(async (_req, { params }) => {
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
+  const doc = await findQuoteDocument(access.workspace.id, parseId(p.id), parseId(p.docId));
+  const bytes = await getStorage().get(doc.storageKey);
+  if (!bytes) throw notFound('The stored file is missing.');
+  return new NextResponse(new Uint8Array(bytes), {
+    headers: {
+      'content-type': doc.contentType,
+      'content-length': String(bytes.length),
+      'content-disposition': `attachment; filename="${doc.fileName.replace(/[^\x20-\x7e]/g, '_')}"; filename*=UTF-8''${encodeURIComponent(doc.fileName)}`,
+      'x-content-type-options': 'nosniff',
+      'cache-control': 'private, no-store',
+    },
+  });
+});
+
+/** DELETE: remove a document (analyst, admin). */
+export const DELETE = route<P>(async (_req, { params }) => {
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.edit);
+  await deleteQuoteDocument(access, parseId(p.id), parseId(p.docId));
+  return new NextResponse(null, { status: 204 });
+});

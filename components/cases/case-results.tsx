@@ -1,0 +1,46 @@
+'use client';
+
+import useSWR from 'swr';
+import type { CaseResultDto } from '@/lib/cases/types';
+import type { ApiError } from '@/lib/fetcher';
+import { FleetSummary } from './fleet-summary';
+import { TruckTable } from './truck-table';
+
+/** The evaluated case: read from the server (the engine never runs in the browser). */
+export function CaseResults({ slug, caseId }: { slug: string; caseId: number }) {
+  const { data, error, isLoading } = useSWR<CaseResultDto, ApiError>(`/api/workspaces/${slug}/cases/${caseId}/result`);
+  if (error) return <EvaluationProblems error={error} />;
+  if (isLoading || !data) return <ResultsSkeleton />;
+  return (
+    <div className="space-y-4">
+      <h2 className="text-base font-semibold">
+        {data.case.name} <span className="text-sm font-normal text-muted">— {data.case.assumptionSetName} assumptions, {data.result.trucks.length} trucks, {data.case.status}; evaluated in {data.evaluatedMs} ms</span>
+      </h2>
+      <FleetSummary data={data} />
+      <TruckTable data={data} slug={slug} />
+    </div>
+  );
+}
+
+export function ResultsSkeleton() {
+  return (
+    <div aria-busy="true" className="space-y-3" data-testid="results-loading">
+      <div className="grid gap-3 lg:grid-cols-4">{[0, 1, 2, 3].map((i) => <div key={i} className="h-28 animate-pulse rounded bg-rule/60" />)}</div>
+      <div className="h-96 animate-pulse rounded bg-rule/60" />
+      <span className="sr-only">Evaluating the case…</span>
+    </div>
+  );
+}
+
+export function EvaluationProblems({ error }: { error: ApiError }) {
+  return (
+    <div role="alert" className="card border-loss/40 p-4" data-testid="evaluation-problems">
+      <h2 className="font-semibold text-loss">{error.message}</h2>
+      {error.problems?.length ? (
+        <ul className="mt-2 list-disc pl-5 text-sm">
+          {error.problems.map((p, i) => <li key={i}><code className="font-mono text-xs">{p.path}</code>: {p.message}</li>)}
+        </ul>
+      ) : null}
+    </div>
+  );
+}

@@ -1,0 +1,58 @@
+import type { CaseResultDto } from '@/lib/cases/types';
+import { POLICIES } from '@/lib/engine/types';
+import { formatMoney, formatNumber } from '@/lib/format';
+import { POLICY_COLOUR, POLICY_LABEL } from './policy';
+
+/** The fleet at a glance: NPV per policy and of the best mix, capital by year, fuel and CO2 saved, trucks per best policy. */
+export function FleetSummary({ data }: { data: CaseResultDto }) {
+  const { fleet } = data.result;
+  const neg = data.negativeStyle;
+  const m = (x: number) => formatMoney(x, { scale: 'k', negative: neg });
+  return (
+    <section aria-label="Fleet summary" className="grid gap-3 lg:grid-cols-4" data-testid="fleet-summary">
+      <div className="card p-3">
+        <h2 className="text-xs font-medium text-muted">Fleet NPV ({data.currency} k)</h2>
+        <table className="mt-1 w-full text-sm">
+          <tbody>
+            {POLICIES.map((p) => (
+              <tr key={p}><th scope="row" className="text-left font-normal"><Swatch policy={p} /> {POLICY_LABEL[p]} everything</th><td className="num text-right">{m(fleet.npv[p])}</td></tr>
+            ))}
+            <tr className="border-t border-rule font-semibold"><th scope="row" className="text-left">Best mix</th><td className="num text-right" data-testid="npv-best">{m(fleet.npv.best)}</td></tr>
+          </tbody>
+        </table>
+      </div>
+      <div className="card p-3">
+        <h2 className="text-xs font-medium text-muted">Trucks by best policy</h2>
+        <ul className="mt-1 space-y-0.5 text-sm">
+          {POLICIES.map((p) => (
+            <li key={p} className="flex justify-between"><span><Swatch policy={p} /> {POLICY_LABEL[p]}</span><span className="num" data-testid={`count-${p}`}>{data.summary.trucksByBest[p]}</span></li>
+          ))}
+        </ul>
+      </div>
+      <div className="card p-3">
+        <h2 className="text-xs font-medium text-muted">Capital needed by year, best mix ({data.currency} k)</h2>
+        <table className="mt-1 w-full text-sm">
+          <tbody>
+            {data.summary.capitalByYear.length === 0 ? <tr><td className="text-muted">No repower capital.</td></tr> : null}
+            {data.summary.capitalByYear.map((c) => (
+              <tr key={c.year}><th scope="row" className="text-left font-normal">{c.year === 0 ? 'Now (year 0)' : `Year ${c.year}`}</th><td className="num text-right">{m(c.amount)}</td></tr>
+            ))}
+            <tr className="border-t border-rule font-semibold"><th scope="row" className="text-left">Total</th><td className="num text-right">{m(fleet.capital.best)}</td></tr>
+          </tbody>
+        </table>
+      </div>
+      <div className="card p-3">
+        <h2 className="text-xs font-medium text-muted">Saved a year by the best mix, against rebuilding every engine</h2>
+        <dl className="mt-1 space-y-1 text-sm">
+          <div className="flex justify-between"><dt>Fuel (kL/yr)</dt><dd className="num">{formatNumber(data.summary.fuelSavedLitresPerYear / 1000, 0)}</dd></div>
+          <div className="flex justify-between"><dt>CO2 (t/yr)</dt><dd className="num">{formatNumber(data.summary.co2SavedTonnesPerYear, 0)}</dd></div>
+        </dl>
+        <p className="mt-2 text-xs text-muted">Each truck&rsquo;s saving over its horizon divided by its horizon years, summed.</p>
+      </div>
+    </section>
+  );
+}
+
+export function Swatch({ policy }: { policy: keyof typeof POLICY_LABEL }) {
+  return <span aria-hidden className="inline-block h-2.5 w-2.5 rounded-sm align-middle" style={{ background: POLICY_COLOUR[policy] }} />;
+}

@@ -1,0 +1,86 @@
+'use client';
+
+import Link from 'next/link';
+import useSWR from 'swr';
+import type { CaseResultDto } from '@/lib/cases/types';
+import type { ApiError } from '@/lib/fetcher';
+import { formatMoney, formatNumber } from '@/lib/format';
+import { EvaluationProblems, ResultsSkeleton } from './case-results';
+import { PlanControls } from './plan-controls';
+import { POLICY_LABEL } from './policy';
+
+/** Ranking for repower, the exact capital plan per year of spend, and the swap schedule. */
+export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: number; canEdit: boolean }) {
+  const { data, error, isLoading, mutate } = useSWR<CaseResultDto, ApiError>(`/api/workspaces/${slug}/cases/${caseId}/result`);
+  if (error) return <EvaluationProblems error={error} />;
+  if (isLoading || !data) return <ResultsSkeleton />;
+  const neg = data.negativeStyle;
+  const k = (x: number) => formatMoney(x, { scale: 'k', negative: neg });
+  const truckLink = (id: string) => <Link className="font-mono text-xs text-accent hover:underline" href={`/${slug}/cases/${caseId}/trucks/${encodeURIComponent(id)}`}>{id}</Link>;
+  const chosen = new Set(data.plan.years.flatMap((y) => y.chosen.map((c) => c.truckId)));
+  const yearName = (y: number | null) => (y === null ? '—' : y === 0 ? 'now' : `year ${y}`);
+  return (
+    <div className="space-y-4">
+      <PlanControls data={data} slug={slug} canEdit={canEdit} onSaved={() => mutate()} />
+      <section aria-label="Capital plan" className="card p-3" data-testid="capital-plan">
+        <h2 className="text-sm font-semibold">Capital plan: the repowers that maximise total gain within each year&rsquo;s budget</h2>
+        <p className="text-xs text-muted">Solved exactly per year as a 0/1 knapsack (costs counted in whole units of {formatNumber(Math.max(1000, ...data.plan.years.map((y) => y.unit)), 0)} {data.currency}, rounded up, so no plan exceeds its budget). A truck left out waits: it takes its better other policy and forgoes the gain shown. Total gain {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital.</p>
+        <table className="data-table mt-2">
+          <thead><tr><th>Year of spend</th><th className="n">Budget ({data.currency} k)</th><th className="n">Spent ({data.currency} k)</th><th className="n">Gain ({data.currency} k)</th><th>Chosen</th><th>Left out: gain forgone · extra budget to add it ({data.currency} k)</th></tr></thead>
+          <tbody>
+            {data.plan.years.map((y) => (
+              <tr key={y.year} data-year={y.year}>
+                <td>{yearName(y.year)}</td>
+                <td className="n">{y.budget === null ? 'no limit' : k(y.budget)}</td>
+                <td className="n">{k(y.spent)}</td>
+                <td className="n">{k(y.gain)}</td>
+                <td className="text-xs" data-testid={`chosen-${y.year}`}>{y.chosen.map((c) => c.truckId).join(', ') || '—'}</td>
+                <td className="text-xs" data-testid={`left-out-${y.year}`}>{y.leftOut.map((l) => `${l.truckId} (forgoes ${k(l.gain)} · needs +${k(l.extraBudget)})`).join(', ') || '—'}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+        {data.plan.notWorthIt.length ? <p className="mt-2 text-xs text-muted">Not worth repowering (no gain over the better other policy): {data.plan.notWorthIt.map((c) => c.truckId).join(', ')}.</p> : null}
+      </section>
+      <div className="grid gap-4 xl:grid-cols-2">
+        <section aria-label="Ranking" className="card overflow-x-auto p-3">
+          <h2 className="text-sm font-semibold">Ranking for repower, by gain over the better other policy</h2>
+          <table className="data-table mt-2" data-testid="ranking-table">
+            <thead><tr><th className="n">Rank</th><th>Truck</th><th>Against</th><th className="n">Gain, ΔNPV ({data.currency} k)</th><th className="n">PI</th><th className="n">Capital ({data.currency} k)</th><th>Spend</th><th>In plan</th></tr></thead>
+            <tbody>
+              {data.ranking.map((r) => (
+                <tr key={r.truckId}>
+                  <td className="n">{r.rank}</td>
+                  <td>{truckLink(r.truckId)}</td>
+                  <td>{POLICY_LABEL[r.bestOther]}</td>
+                  <td className={`n ${r.gain > 0 ? 'text-gain' : 'text-loss'}`}>{k(r.gain)}</td>
+                  <td className="n">{formatNumber(r.profitabilityIndex, 2)}</td>
+                  <td className="n">{k(r.capital)}</td>
+                  <td>{yearName(r.capitalYear)}</td>
+                  <td>{chosen.has(r.truckId) ? 'yes' : 'no'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+        <section aria-label="Swap schedule" className="card overflow-x-auto p-3">
+          <h2 className="text-sm font-semibold">Swap schedule: at most {data.case.plan.swapsPerMonth} a month, each in the month its engine is due</h2>
+          <table className="data-table mt-2" data-testid="schedule-table">
+            <thead><tr><th>Month</th><th>Truck</th><th>Due</th><th>Note</th></tr></thead>
+            <tbody>
+              {data.schedule.length === 0 ? <tr><td colSpan={4} className="text-muted">No swaps chosen.</td></tr> : null}
+              {data.schedule.map((s) => (
+                <tr key={s.truckId} className={s.movedEarlier || s.late ? 'bg-caution-ground' : ''}>
+                  <td className="font-mono text-xs">{s.label}</td>
+                  <td>{truckLink(s.truckId)}</td>
+                  <td className="font-mono text-xs">{s.dueLabel}</td>
+                  <td className="text-xs">{s.movedEarlier ? `moved ${s.dueMonth - s.month} month(s) earlier: shop full in ${s.dueLabel}` : s.late ? `late by ${s.month - s.dueMonth} month(s): no earlier month had room` : 'on due month'}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </section>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,55 @@
+'use client';
+
+import useSWR from 'swr';
+import type { TruckResultDto } from '@/lib/cases/types';
+import type { ApiError } from '@/lib/fetcher';
+import { POLICIES } from '@/lib/engine/types';
+import { formatMoney, formatNumber, formatPercent, formatYears } from '@/lib/format';
+import { bestOtherPolicy, repowerComparison } from '@/lib/plan';
+import { CashFlowTable } from './cash-flow-table';
+import { EvaluationProblems, ResultsSkeleton } from './case-results';
+import { CostStackChart, CumulativeDeltaChart, FuelChart } from './charts';
+import { EventTimeline } from './event-timeline';
+import { POLICY_COLOUR, POLICY_LABEL } from './policy';
+
+export function TruckView({ slug, caseId, truckId }: { slug: string; caseId: number; truckId: string }) {
+  const { data, error, isLoading } = useSWR<TruckResultDto, ApiError>(`/api/workspaces/${slug}/cases/${caseId}/trucks/${encodeURIComponent(truckId)}`);
+  if (error) return <EvaluationProblems error={error} />;
+  if (isLoading || !data) return <ResultsSkeleton />;
+  const { result, detail, meta, currency, negativeStyle: neg } = data;
+  const other = bestOtherPolicy(result);
+  const c = repowerComparison(result);
+  return (
+    <div className="space-y-4">
+      <section aria-label="Truck summary" className="grid gap-3 md:grid-cols-4">
+        {POLICIES.map((p) => (
+          <div key={p} className="card p-3" style={{ borderTop: `3px solid ${POLICY_COLOUR[p]}` }}>
+            <h2 className="text-xs font-medium text-muted">{POLICY_LABEL[p]}{result.best === p ? ' — best' : ''}</h2>
+            <p className="num text-lg font-semibold" data-testid={`npv-${p}`}>{formatMoney(result.options[p].npv, { negative: neg })}</p>
+            <p className="text-xs text-muted">NPV ({currency}); {formatNumber(result.options[p].costPerHour, 2)} {currency}/h; {formatNumber(result.options[p].fuelLitresPerHour, 1)} L/h</p>
+          </div>
+        ))}
+        <div className="card p-3 text-sm">
+          <h2 className="text-xs font-medium text-muted">Repower vs {POLICY_LABEL[other].toLowerCase()}</h2>
+          <dl className="grid grid-cols-2 gap-x-2">
+            <dt>ΔNPV</dt><dd className="num text-right">{formatMoney(c.deltaNpv, { negative: neg })}</dd>
+            <dt>IRR</dt><dd className="num text-right">{formatPercent(c.irr)}</dd>
+            <dt>MIRR</dt><dd className="num text-right">{formatPercent(c.mirr)}</dd>
+            <dt>Payback (yr)</dt><dd className="num text-right">{formatYears(c.paybackYears)}</dd>
+            <dt>PI</dt><dd className="num text-right">{formatNumber(c.profitabilityIndex, 2)}</dd>
+          </dl>
+        </div>
+      </section>
+      <p className="text-xs text-muted">
+        Engine {meta.engineId} at {formatNumber(meta.engineHours, 0)} h, {formatNumber(meta.annualHours, 0)} h a year; offer {meta.repowerOfferId} (engine {detail.repowerEngineId}); horizon {result.horizonYears} years; power demand {formatNumber(detail.powerKw, 0)} kW; fuel calibration ×{formatNumber(detail.calibrationFactor, 3)}.
+      </p>
+      <div className="grid gap-3 xl:grid-cols-3">
+        <CumulativeDeltaChart result={result} detail={detail} currency={currency} />
+        <CostStackChart detail={detail} currency={currency} />
+        <FuelChart detail={detail} />
+      </div>
+      <EventTimeline events={meta.events} horizonYears={result.horizonYears} currency={currency} />
+      <CashFlowTable detail={detail} currency={currency} negative={neg} />
+    </div>
+  );
+}

@@ -1,0 +1,47 @@
+'use client';
+
+import { useRouter } from 'next/navigation';
+import { useState } from 'react';
+import { ApiError, sendJson } from '@/lib/fetcher';
+
+type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus' };
+
+/** Display units and negative style (admins). Stored values stay metric; only what is shown changes. */
+export function DisplaySettings({ slug, initial, canEdit }: { slug: string; initial: Settings; canEdit: boolean }) {
+  const router = useRouter();
+  const [values, setValues] = useState(initial);
+  const [message, setMessage] = useState<string | null>(null);
+  const save = async (e: React.FormEvent) => {
+    e.preventDefault();
+    try {
+      await sendJson(`/api/workspaces/${slug}/settings`, 'PATCH', values);
+      setMessage('Saved.');
+      router.refresh();
+    } catch (err) {
+      setMessage(err instanceof ApiError ? err.message : String(err));
+    }
+  };
+  return (
+    <form onSubmit={save} className="card max-w-xl p-4" data-testid="display-settings">
+      <fieldset disabled={!canEdit}>
+        <legend className="text-base font-semibold">Display</legend>
+        <p className="label mt-2">Units</p>
+        {(['metric', 'us'] as const).map((u) => (
+          <label key={u} className="mr-4 text-sm">
+            <input type="radio" name="units" value={u} checked={values.units === u} onChange={() => setValues({ ...values, units: u })} />{' '}
+            {u === 'metric' ? 'Metric (kW, L, g/kWh, L/h)' : 'US customary (hp, US gal, lb/hp-h, gal/h)'}
+          </label>
+        ))}
+        <p className="label mt-3">Negative amounts</p>
+        {(['parentheses', 'minus'] as const).map((s) => (
+          <label key={s} className="mr-4 text-sm">
+            <input type="radio" name="negativeStyle" value={s} checked={values.negativeStyle === s} onChange={() => setValues({ ...values, negativeStyle: s })} />{' '}
+            {s === 'parentheses' ? '(1,250)' : '−1,250'}
+          </label>
+        ))}
+      </fieldset>
+      {canEdit ? <button type="submit" className="btn btn-primary mt-3">Save display settings</button> : <p className="mt-3 text-xs text-muted">Only a workspace admin can change these.</p>}
+      {message ? <p role="status" className="mt-2 text-sm">{message}</p> : null}
+    </form>
+  );
+}

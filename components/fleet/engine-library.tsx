@@ -1,0 +1,100 @@
+'use client';
+
+import { useState } from 'react';
+import useSWR, { useSWRConfig } from 'swr';
+import { DISPLAY_DIGITS, toDisplay, UNIT_LABEL, type Quantity } from '@/lib/display-units';
+import { sendJson } from '@/lib/fetcher';
+import { formatMoney, formatNumber } from '@/lib/format';
+import { engineInputSchema, type EngineInput } from '@/lib/validation/fleet';
+import { EntityForm, type FieldSpec } from './entity-form';
+import { api, type EngineRow, type WorkspaceView } from './types';
+
+const n = (name: string, label: string, hint?: string): FieldSpec => ({ name, label, kind: 'number', hint });
+
+const FIELDS: FieldSpec[] = [
+  { name: 'key', label: 'Key (id in case files)', kind: 'text' },
+  { name: 'name', label: 'Name', kind: 'text', wide: true },
+  n('ratedKw', 'Rated power (kW)'), n('bsfcGPerKwh', 'BSFC (g/kWh)'), n('lifeHours', 'Planned life (h)', 'Hours between overhauls'),
+  n('weibullShape', 'Weibull shape β'), n('weibullScaleHours', 'Weibull scale η (h)'),
+  n('overhaulCost', 'Overhaul cost'), n('overhaulDowntimeDays', 'Overhaul days down (d)'),
+  n('failureCost', 'Failure repair cost'), n('failureDowntimeDays', 'Failure days down (d)'),
+  n('serviceIntervalHours', 'Oil-service interval (h)'), n('sumpLitres', 'Sump (L)'), n('serviceKitCost', 'Service kit cost'),
+  n('serviceLabourHours', 'Service labour (h)'), n('topUpLitresPerHour', 'Oil top-up (L/h)'),
+  { name: 'notes', label: 'Notes', kind: 'textarea', wide: true },
+];
+
+/** The engine library: every engine type's rating, fuel, life, failure law and service figures. */
+export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
+  const key = api(ws.slug, 'engines');
+  const { data, error } = useSWR<{ items: EngineRow[] }>(key);
+  const { mutate } = useSWRConfig();
+  const [editing, setEditing] = useState<EngineRow | 'new' | null>(null);
+  const u = UNIT_LABEL[ws.units];
+  const q = (qty: Quantity, v: number) => formatNumber(toDisplay(qty, v, ws.units), DISPLAY_DIGITS[ws.units][qty]);
+  if (error) return <p role="alert" className="text-sm text-loss">Could not load engine types: {error.message}</p>;
+  if (!data) return <p className="text-sm text-muted">Loading engine types…</p>;
+
+  const save = async (values: EngineInput) => {
+    const current = editing === 'new' ? null : editing;
+    if (current) await sendJson(api(ws.slug, `engines/${current.id}`), 'PUT', { ...values, version: current.version });
+    else await sendJson(key, 'POST', values);
+    await mutate(key);
+    setEditing(null);
+  };
+  const remove = async (e: EngineRow) => {
+    if (!window.confirm(`Delete engine type ${e.key}?`)) return;
+    try {
+      await sendJson(api(ws.slug, `engines/${e.id}?version=${e.version}`), 'DELETE');
+      await mutate(key);
+      setEditing(null);
+    } catch (err) {
+      window.alert((err as Error).message);
+    }
+  };
+
+  return (
+    <section>
+      {editing ? (
+        <div className="mb-4">
+          <h2 className="mb-2 text-base font-semibold">{editing === 'new' ? 'Add an engine type' : `Edit ${editing.key}`}</h2>
+          <EntityForm
+            key={editing === 'new' ? 'new' : `${editing.id}:${editing.version}`}
+            schema={engineInputSchema}
+            fields={FIELDS.map((f) => (ws.units === 'us' && f.name === 'ratedKw' && editing !== 'new' ? { ...f, hint: `≈ ${q('power', editing.ratedKw)} hp` } : f))}
+            defaultValues={editing === 'new' ? { key: '', name: '', notes: '' } : editing}
+            submitLabel={editing === 'new' ? 'Add engine type' : 'Save engine type'}
+            onSubmit={save}
+            onCancel={() => setEditing(null)}
+            extraActions={editing !== 'new' ? <button type="button" className="btn btn-danger" onClick={() => remove(editing)}>Delete</button> : null}
+            testId="engine-form"
+          />
+        </div>
+      ) : ws.canEdit ? (
+        <button type="button" className="btn btn-primary mb-2" onClick={() => setEditing('new')}>Add engine type</button>
+      ) : null}
+      <div className="card overflow-x-auto">
+        <table className="data-table" data-testid="engine-table">
+          <thead>
+            <tr>
+              <th>Key</th><th>Name</th><th className="n">Rated ({u.power})</th><th className="n">BSFC ({u.bsfc})</th><th className="n">Life (h)</th>
+              <th className="n">β</th><th className="n">η (h)</th><th className="n">Overhaul ({ws.currency})</th><th className="n">Failure ({ws.currency})</th>
+              <th className="n">Oil interval (h)</th><th className="n">Sump ({u.volume})</th>{ws.canEdit ? <th><span className="sr-only">Actions</span></th> : null}
+            </tr>
+          </thead>
+          <tbody>
+            {data.items.map((e) => (
+              <tr key={e.id}>
+                <td className="font-mono text-xs">{e.key}</td><td>{e.name}</td>
+                <td className="n">{q('power', e.ratedKw)}</td><td className="n">{q('bsfc', e.bsfcGPerKwh)}</td><td className="n">{formatNumber(e.lifeHours)}</td>
+                <td className="n">{formatNumber(e.weibullShape, 2)}</td><td className="n">{formatNumber(e.weibullScaleHours)}</td>
+                <td className="n">{formatMoney(e.overhaulCost, { negative: ws.negativeStyle })}</td><td className="n">{formatMoney(e.failureCost, { negative: ws.negativeStyle })}</td>
+                <td className="n">{formatNumber(e.serviceIntervalHours)}</td><td className="n">{q('volume', e.sumpLitres)}</td>
+                {ws.canEdit ? <td className="text-right"><button type="button" className="text-xs text-accent hover:underline" aria-label={`Edit ${e.key}`} onClick={() => setEditing(e)}>Edit</button></td> : null}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </section>
+  );
+}

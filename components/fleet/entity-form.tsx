@@ -1,0 +1,107 @@
+'use client';
+
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useState, type ReactNode } from 'react';
+import { useForm, type FieldErrors, type FieldValues, type Path } from 'react-hook-form';
+import type { z } from 'zod';
+import { ApiError } from '@/lib/fetcher';
+
+export type FieldSpec = {
+  name: string;
+  label: string;
+  kind: 'number' | 'text' | 'textarea' | 'select';
+  /** For selects: option values; numeric ids are sent as numbers. */
+  options?: Array<{ value: string | number; label: string }>;
+  numericOptions?: boolean;
+  /** An empty number or select means null (not "missing"). */
+  nullable?: boolean;
+  hint?: ReactNode;
+  wide?: boolean;
+};
+
+function errorAt(errors: FieldErrors, path: string): string | undefined {
+  let v: unknown = errors;
+  for (const key of path.split('.')) v = v && typeof v === 'object' ? (v as Record<string, unknown>)[key] : undefined;
+  const msg = (v as { message?: unknown } | undefined)?.message;
+  return typeof msg === 'string' ? msg : undefined;
+}
+
+/**
+ * One form for every register entity: react-hook-form validated by the same
+ * zod schema the API uses, errors shown per field; problems the server finds
+ * (a duplicate key, a stale version) land on the field or above the buttons.
+ */
+export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props: {
+  schema: S;
+  fields: FieldSpec[];
+  defaultValues: Partial<z.input<S>>;
+  submitLabel: string;
+  onSubmit: (values: z.output<S>) => Promise<void>;
+  onCancel?: () => void;
+  extraActions?: ReactNode;
+  testId?: string;
+}) {
+  const { register, handleSubmit, setError, formState } = useForm<FieldValues>({
+    // zod 4 schemas are typed loosely here; the schema itself is the contract.
+    resolver: zodResolver(props.schema as never),
+    // Only the form's own fields: the schemas are strict, so a row's id or version must not ride along.
+    defaultValues: Object.fromEntries(
+      Object.entries(props.defaultValues as FieldValues).filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k)),
+    ),
+  });
+  const [formError, setFormError] = useState<string | null>(null);
+  const names = new Set(props.fields.map((f) => f.name));
+
+  const submit = handleSubmit(async (values) => {
+    setFormError(null);
+    try {
+      await props.onSubmit(values as z.output<S>);
+    } catch (e) {
+      if (!(e instanceof ApiError)) throw e;
+      const elsewhere: string[] = [];
+      for (const p of e.problems) {
+        if (names.has(p.path)) setError(p.path as Path<FieldValues>, { message: p.message });
+        else elsewhere.push(`${p.path}: ${p.message}`);
+      }
+      setFormError([e.message, ...elsewhere].join(' '));
+    }
+  });
+
+  return (
+    <form onSubmit={submit} noValidate className="card p-4" data-testid={props.testId}>
+      <div className="grid grid-cols-2 gap-x-4 gap-y-3 md:grid-cols-3 xl:grid-cols-4">
+        {props.fields.map((f) => {
+          const err = errorAt(formState.errors, f.name);
+          const id = `f-${f.name.replace(/\./g, '-')}`;
+          const common = { id, 'aria-invalid': err ? true : undefined, 'aria-describedby': err ? `${id}-err` : undefined, className: 'field' };
+          const asNumber = (v: unknown) => (v === '' || v === null || v === undefined ? (f.nullable ? null : undefined) : Number(v));
+          return (
+            <div key={f.name} className={f.wide ? 'col-span-2' : undefined}>
+              <label htmlFor={id} className="label">{f.label}</label>
+              {f.kind === 'select' ? (
+                <select {...common} {...register(f.name, f.numericOptions ? { setValueAs: asNumber } : {})}>
+                  {f.nullable ? <option value="">(none)</option> : null}
+                  {f.options?.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+                </select>
+              ) : f.kind === 'textarea' ? (
+                <textarea rows={2} {...common} {...register(f.name)} />
+              ) : f.kind === 'number' ? (
+                <input type="text" inputMode="decimal" {...common} className="field text-right" {...register(f.name, { setValueAs: asNumber })} />
+              ) : (
+                <input type="text" {...common} {...register(f.name)} />
+              )}
+              {f.hint ? <p className="mt-0.5 text-xs text-muted">{f.hint}</p> : null}
+              <p id={`${id}-err`} aria-live="polite" className="mt-0.5 text-xs text-loss">{err}</p>
+            </div>
+          );
+        })}
+      </div>
+      <div role="alert" aria-live="polite" className="mt-3 text-sm text-loss" data-testid="form-error">{formError}</div>
+      <div className="mt-3 flex items-center gap-2">
+        <button type="submit" className="btn btn-primary" disabled={formState.isSubmitting}>{formState.isSubmitting ? 'Saving…' : props.submitLabel}</button>
+        {props.onCancel ? <button type="button" className="btn" onClick={props.onCancel}>Cancel</button> : null}
+        <div className="ml-auto flex gap-2">{props.extraActions}</div>
+      </div>
+    </form>
+  );
+}

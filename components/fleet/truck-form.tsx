@@ -1,0 +1,64 @@
+'use client';
+
+import useSWR, { useSWRConfig } from 'swr';
+import { sendJson } from '@/lib/fetcher';
+import { truckInputSchema, truckUpdateSchema, type TruckInput } from '@/lib/validation/fleet';
+import { EntityForm, type FieldSpec } from './entity-form';
+import { api, type EngineRow, type OfferRow, type TruckRow, type WorkspaceView } from './types';
+
+/** Add or edit one truck; the engine type and offer come from the workspace's library. */
+export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: TruckRow | null; onDone: () => void }) {
+  const { mutate } = useSWRConfig();
+  const engines = useSWR<{ items: EngineRow[] }>(api(ws.slug, 'engines'));
+  const offers = useSWR<{ items: OfferRow[] }>(api(ws.slug, 'offers'));
+  const fields: FieldSpec[] = [
+    { name: 'unitNumber', label: 'Unit number', kind: 'text' },
+    { name: 'payloadClass', label: 'Payload class', kind: 'text' },
+    { name: 'engineTypeId', label: 'Engine type', kind: 'select', numericOptions: true, options: (engines.data?.items ?? []).map((e) => ({ value: e.id, label: e.key })) },
+    { name: 'repowerOfferId', label: 'Repower offer', kind: 'select', numericOptions: true, nullable: true, options: (offers.data?.items ?? []).map((o) => ({ value: o.id, label: o.key })) },
+    { name: 'engineHours', label: 'Engine hours (h)', kind: 'number', hint: 'Since new or last overhaul' },
+    { name: 'remainingLifeHours', label: 'Remaining truck life (h)', kind: 'number' },
+    { name: 'annualHours', label: 'Annual hours (h/yr)', kind: 'number' },
+    { name: 'loadFactor', label: 'Load factor (0–1)', kind: 'number' },
+    { name: 'tonnesPerHour', label: 'Productivity (t/h)', kind: 'number' },
+    { name: 'fuelBurnLitresPerHour', label: 'Measured fuel burn (L/h)', kind: 'number', nullable: true, hint: 'Leave empty if not measured' },
+    { name: 'notes', label: 'Notes', kind: 'textarea', wide: true },
+  ];
+  if (!engines.data || !offers.data) return <p className="text-sm text-muted">Loading engine types and offers…</p>;
+  const save = async (values: TruckInput) => {
+    if (truck) await sendJson(api(ws.slug, `trucks/${truck.id}`), 'PUT', { ...values, version: truck.version });
+    else await sendJson(api(ws.slug, 'trucks'), 'POST', values);
+    await mutate(api(ws.slug, 'trucks'));
+    onDone();
+  };
+  const remove = async () => {
+    if (!truck || !window.confirm(`Delete truck ${truck.unitNumber}?`)) return;
+    try {
+      await sendJson(api(ws.slug, `trucks/${truck.id}?version=${truck.version}`), 'DELETE');
+    } catch (e) {
+      window.alert((e as Error).message);
+      return;
+    }
+    await mutate(api(ws.slug, 'trucks'));
+    onDone();
+  };
+  const defaults = truck
+    ? { ...truck }
+    : { unitNumber: '', payloadClass: '', engineTypeId: engines.data.items[0]?.id, repowerOfferId: null, fuelBurnLitresPerHour: null, notes: '' };
+  return (
+    <div className="mb-4">
+      <h2 className="mb-2 text-base font-semibold">{truck ? `Edit truck ${truck.unitNumber}` : 'Add a truck'}</h2>
+      <EntityForm
+        key={truck ? `${truck.id}:${truck.version}` : 'new'}
+        schema={truck ? truckUpdateSchema.omit({ version: true }) : truckInputSchema}
+        fields={fields}
+        defaultValues={defaults}
+        submitLabel={truck ? 'Save truck' : 'Add truck'}
+        onSubmit={save}
+        onCancel={onDone}
+        extraActions={truck ? <button type="button" className="btn btn-danger" onClick={remove}>Delete truck</button> : null}
+        testId="truck-form"
+      />
+    </div>
+  );
+}

@@ -1,0 +1,126 @@
+import 'server-only';
+/**
+ * Evaluating a stored business case on the server: build the case/1 from the
+ * workspace's data, validate it with the engine's own validation (a case
+ * that fails answers 422 with every problem, e.g. a truck without an offer),
+ * evaluate it, then rank, plan and schedule.
+ */
+import type { Access } from '@/lib/auth/access';
+import { buildCaseFile } from '@/lib/db/queries/case-file';
+import { fetchCase, type CaseRow } from '@/lib/db/queries/cases';
+import { db } from '@/lib/db';
+import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from '@/lib/engine';
+import { invalid, notFound, type Problem } from '@/lib/http';
+import { monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps } from '@/lib/plan';
+import { summariseFleet, timelines } from './summary';
+import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
+
+export function toSummaryDto(c: CaseRow): CaseSummaryDto {
+  return {
+    id: c.id,
+    name: c.name,
+    status: c.status,
+    version: c.version,
+    assumptionSetId: c.assumptionSetId,
+    assumptionSetName: c.assumptionSetName,
+    truckCount: c.selection.length,
+    plan: c.plan,
+    updatedAt: c.updatedAt,
+  };
+}
+
+type Loaded = { row: CaseRow; file: CaseFile; truckRows: Map<string, { id: number; payloadClass: string }> };
+
+export async function loadValidCase(access: Access, id: number): Promise<Loaded> {
+  const wsId = access.workspace.id;
+  const row = await fetchCase(wsId, id);
+  if (!row) throw notFound('No such business case in this workspace.');
+  const problems: Problem[] = [];
+  if (row.assumptionSetId === null) problems.push({ path: 'assumptionSetId', message: 'the assumption set was deleted; choose another' });
+  const ids = row.selection.map((s) => s.truckId);
+  const found = await db()('trucks').where({ workspaceId: wsId }).whereIn('id', ids).select('id', 'unitNumber', 'payloadClass');
+  const present = new Set(found.map((t) => t.id));
+  row.selection.forEach((s, i) => {
+    if (!present.has(s.truckId)) problems.push({ path: `selection[${i}]`, message: 'this truck has been removed from the fleet register' });
+  });
+  if (problems.length) throw invalid(problems, 'This case cannot be evaluated.');
+  const offerOverrides = Object.fromEntries(row.selection.map((s) => [s.truckId, s.repowerOfferId]));
+  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides });
+  const v = validateCase(built);
+  if (!v.ok) {
+    // name the truck beside its index so a planner can find it in the register
+    const named = v.problems.map((p) => {
+      const m = /^trucks\[(\d+)\]/.exec(p.path);
+      const unit = m ? built.trucks[Number(m[1])]?.id : undefined;
+      const what = p.path.endsWith('repowerOfferId') && p.message.match(/required/i) ? 'has no repower offer; give it one in the register or pick one in the case' : p.message;
+      return unit ? { path: `${p.path} (truck ${unit})`, message: what } : p;
+    });
+    throw invalid(named, 'This case cannot be evaluated.');
+  }
+  return { row, file: v.value, truckRows: new Map(found.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }])) };
+}
+
+function metaFor(file: CaseFile, truckRows: Loaded['truckRows'], truckId: string, events: TruckMeta['events']): TruckMeta {
+  const t = file.trucks.find((x) => x.id === truckId)!;
+  const r = truckRows.get(truckId);
+  return { rowId: r?.id ?? 0, payloadClass: r?.payloadClass ?? '', engineId: t.engineId, repowerOfferId: t.repowerOfferId, engineHours: t.engineHours, annualHours: t.annualHours, events };
+}
+
+export async function evaluateStoredCase(access: Access, id: number): Promise<CaseResultDto> {
+  const started = performance.now();
+  const { row, file, truckRows } = await loadValidCase(access, id);
+  const { result, details } = evaluateCaseDetailed(file, { trusted: true });
+  const trucks: Record<string, TruckMeta> = {};
+  for (const d of details) {
+    const annual = file.trucks.find((t) => t.id === d.truckId)!.annualHours;
+    trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
+  }
+  const ranking = rankTrucks(result);
+  const candidates = ranking
+    .filter((r) => r.capitalYear !== null)
+    .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
+  const budgets = Object.fromEntries(Object.entries(row.plan.budgets).map(([y, b]) => [Number(y), b]));
+  const plan = planCapital(candidates, budgets);
+  // each chosen swap is due in the month of the repower event on the engine's own trace
+  const requests = plan.years.flatMap((y) =>
+    y.chosen.map((c) => {
+      const ev = trucks[c.truckId].events.repower.find((e) => e.kind === 'repower');
+      const annual = trucks[c.truckId].annualHours;
+      return { truckId: c.truckId, gain: c.gain, dueMonth: ev ? ev.month : monthOfEvent(c.capitalYear, 0, annual) };
+    }),
+  );
+  const yearOf = new Map(candidates.map((c) => [c.truckId, c.capitalYear]));
+  const schedule = scheduleSwaps(requests, row.plan.swapsPerMonth).map((s) => ({
+    ...s,
+    label: monthLabel(row.plan.startMonth, s.month),
+    dueLabel: monthLabel(row.plan.startMonth, s.dueMonth),
+    capitalYear: yearOf.get(s.truckId) ?? null,
+  }));
+  return {
+    case: toSummaryDto(row),
+    currency: access.workspace.currency,
+    negativeStyle: access.workspace.settings.negativeStyle,
+    result,
+    trucks,
+    summary: summariseFleet(result),
+    ranking,
+    plan,
+    schedule,
+    evaluatedMs: Math.round(performance.now() - started),
+  };
+}
+
+export async function evaluateStoredTruck(access: Access, id: number, truckId: string): Promise<TruckResultDto> {
+  const { row, file, truckRows } = await loadValidCase(access, id);
+  if (!file.trucks.some((t) => t.id === truckId)) throw notFound('No such truck in this case.');
+  const { result, detail } = evaluateTruck(file, truckId, { trusted: true });
+  const annual = file.trucks.find((t) => t.id === truckId)!.annualHours;
+  return {
+    case: toSummaryDto(row),
+    currency: access.workspace.currency,
+    negativeStyle: access.workspace.settings.negativeStyle,
+    result,
+    detail,
+    meta: metaFor(file, truckRows, truckId, timelines(detail, annual)),
+  };
+}

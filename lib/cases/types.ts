@@ -1,0 +1,62 @@
+/** Shapes the case API answers with; shared by route handlers and the client screens. */
+import type { CaseResult, EventKind, PolicyKey, TruckDetail, TruckResult } from '@/lib/engine/types';
+import type { CapitalPlan, PlacedSwap, RankedTruck } from '@/lib/plan';
+import type { PlanSettings } from '@/lib/validation/business-case';
+
+export type CaseSummaryDto = {
+  id: number;
+  name: string;
+  status: string;
+  version: number;
+  assumptionSetId: number | null;
+  assumptionSetName: string | null;
+  truckCount: number;
+  plan: PlanSettings;
+  updatedAt: string;
+};
+
+export type TimelineEvent = { kind: EventKind; period: number; month: number; engineAge: number; cost: number; downtimeDays: number };
+
+export type TruckMeta = {
+  rowId: number;
+  payloadClass: string;
+  engineId: string;
+  repowerOfferId: string;
+  engineHours: number;
+  annualHours: number;
+  events: Record<PolicyKey, TimelineEvent[]>;
+};
+
+export type FleetSummary = {
+  trucksByBest: Record<PolicyKey, number>;
+  /** capital (positive) of the repowers in the best mix, by period of spend */
+  capitalByYear: Array<{ year: number; amount: number }>;
+  /** Σ over trucks of (rebuild − best) / the truck's horizon years */
+  fuelSavedLitresPerYear: number;
+  co2SavedTonnesPerYear: number;
+};
+
+export type ScheduledSwap = PlacedSwap & { label: string; dueLabel: string; capitalYear: number | null };
+
+export type CaseResultDto = {
+  case: CaseSummaryDto;
+  currency: string;
+  negativeStyle: 'parentheses' | 'minus';
+  result: CaseResult;
+  trucks: Record<string, TruckMeta>;
+  summary: FleetSummary;
+  ranking: RankedTruck[];
+  plan: CapitalPlan;
+  schedule: ScheduledSwap[];
+  /** server time to build and evaluate the case, ms */
+  evaluatedMs: number;
+};
+
+export type TruckResultDto = {
+  case: CaseSummaryDto;
+  currency: string;
+  negativeStyle: 'parentheses' | 'minus';
+  result: TruckResult;
+  detail: TruckDetail;
+  meta: TruckMeta;
+};

@@ -1,0 +1,97 @@
+import 'server-only';
+/**
+ * Export of a stored business case: the workbook (with the words people typed
+ * beside the figures, the ranking and capital plan, the approval stamp) or
+ * the Summary CSV.
+ */
+import type { Access } from '@/lib/auth/access';
+import { evaluateStoredCase, loadValidCase } from '@/lib/cases/evaluate';
+import { db } from '@/lib/db';
+import { evaluateCaseDetailed } from '@/lib/engine';
+import type { CaseResultDto } from '@/lib/cases/types';
+import { summaryCsv } from './csv';
+import { FMT } from './cells';
+import type { ApprovalStamp, PlanTable, WorkbookMeta } from './types';
+import { buildWorkbook } from './workbook';
+
+export type ExportFormat = 'xlsx' | 'csv';
+
+/**
+ * Who approved the case, when, and the hash of its frozen record. Hook for
+ * the approvals feature: its `fetchApprovalStamp(caseId)` should replace this
+ * reading of the stored columns once it lands.
+ */
+async function approvalStamp(workspaceId: number, caseId: number): Promise<ApprovalStamp | null> {
+  const row = await db()('business_cases').where({ id: caseId, workspaceId }).first('status', 'frozenHash', 'decidedAt');
+  if (!row || row.status !== 'approved' || !row.frozenHash) return null;
+  const ev = await db()('case_events as e')
+    .leftJoin('users as u', 'u.id', 'e.userId')
+    .where({ 'e.caseId': caseId, 'e.action': 'approve' })
+    .orderBy('e.at', 'desc')
+    .first('u.email as email', 'e.at as at');
+  return { approvedBy: ev?.email ?? 'unknown', approvedAt: ev?.at ?? row.decidedAt ?? '', hash: row.frozenHash };
+}
+
+function planTables(dto: CaseResultDto): PlanTable[] {
+  const cur = dto.currency;
+  const money = { format: FMT.money, width: 16 };
+  return [
+    {
+      title: 'Repower ranking (gain against the better of keep and rebuild)',
+      columns: [{ header: 'Rank', width: 8 }, { header: 'Unit' }, { header: 'Measured against' }, { header: `Gain (${cur})`, ...money },
+        { header: 'Profitability index', format: FMT.qty2 }, { header: `Capital (${cur})`, ...money }, { header: 'Capital year' }],
+      rows: dto.ranking.map((r) => [r.rank, r.truckId, r.bestOther, r.gain, r.profitabilityIndex, r.capital, r.capitalYear]),
+    },
+    {
+      title: 'Capital plan by year (exact: most gain within each year’s budget)',
+      columns: [{ header: 'Year', width: 8 }, { header: `Budget (${cur})`, ...money }, { header: 'Chosen', width: 40 },
+        { header: `Spent (${cur})`, ...money }, { header: `Gain (${cur})`, ...money }, { header: 'Left out', width: 30 }],
+      rows: dto.plan.years.map((y) => [y.year, y.budget, y.chosen.map((c) => c.truckId).join(', '), y.spent, y.gain,
+        y.leftOut.map((l) => l.truckId).join(', ')]),
+    },
+    {
+      title: 'Swap schedule within shop capacity',
+      columns: [{ header: 'Unit' }, { header: 'Month' }, { header: 'Due' }, { header: 'Capital year' }],
+      rows: dto.schedule.map((s) => [s.truckId, s.label, s.dueLabel, s.capitalYear]),
+    },
+  ];
+}
+
+async function wordsBesideFigures(workspaceId: number): Promise<Pick<WorkbookMeta, 'trucks' | 'engines' | 'offers'>> {
+  const k = db();
+  const [trucks, engines, offers] = await Promise.all([
+    k('trucks').where({ workspaceId }).select('unitNumber', 'payloadClass', 'notes'),
+    k('engine_types').where({ workspaceId }).select('key', 'name', 'notes'),
+    k('repower_offers').where({ workspaceId }).select('key', 'supplier', 'notes'),
+  ]);
+  return {
+    trucks: Object.fromEntries(trucks.map((t) => [t.unitNumber, { payloadClass: t.payloadClass, notes: t.notes }])),
+    engines: Object.fromEntries(engines.map((e) => [e.key, { name: e.name, notes: e.notes }])),
+    offers: Object.fromEntries(offers.map((o) => [o.key, { supplier: o.supplier, notes: o.notes }])),
+  };
+}
+
+/** A safe file name from the case name: letters, digits, dash. */
+export function exportFileName(name: string, ext: ExportFormat): string {
+  const base = name.normalize('NFKD').replace(/[^A-Za-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 80) || 'case';
+  return `${base}.${ext}`;
+}
+
+export async function exportStoredCase(access: Access, id: number, format: ExportFormat): Promise<{ body: Buffer | string; fileName: string }> {
+  const { row, file } = await loadValidCase(access, id);
+  if (format === 'csv') {
+    const { result } = evaluateCaseDetailed(file, { trusted: true });
+    return { body: summaryCsv(result, file.currency), fileName: exportFileName(row.name, 'csv') };
+  }
+  const dto = await evaluateStoredCase(access, id);
+  const meta: WorkbookMeta = {
+    workspaceName: access.workspace.name,
+    status: row.status,
+    assumptionSetName: row.assumptionSetName ?? '',
+    approval: await approvalStamp(access.workspace.id, id),
+    plan: planTables(dto),
+    ...(await wordsBesideFigures(access.workspace.id)),
+  };
+  const wb = buildWorkbook({ caseFile: file, evaluated: evaluateCaseDetailed(file, { trusted: true }), meta });
+  return { body: Buffer.from((await wb.xlsx.writeBuffer()) as ArrayBuffer), fileName: exportFileName(row.name, 'xlsx') };
+}

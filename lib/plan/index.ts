@@ -1,0 +1,5 @@
+/** Ranking, exact capital plan and swap schedule: pure functions, no database or React. */
+export * from './ranking';
+export * from './knapsack';
+export * from './capital-plan';
+export * from './schedule';

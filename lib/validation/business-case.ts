@@ -1,0 +1,64 @@
+/**
+ * A business case as stored: a name, an assumption set, a selection of
+ * trucks with the repower offer for each (null = the truck's own offer), and
+ * the capital-plan settings. One schema per shape, shared by forms and handlers.
+ */
+import { z } from 'zod';
+
+const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
+
+export const caseNameSchema = z.string().trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
+
+export const selectionSchema = z
+  .array(z.strictObject({ truckId: id, repowerOfferId: id.nullable() }))
+  .min(1, 'choose at least one truck')
+  .refine((s) => new Set(s.map((x) => x.truckId)).size === s.length, 'lists a truck twice');
+
+export const planSettingsSchema = z.strictObject({
+  /** budget per year (the period of the spend, "0" = now); absent or null = no limit */
+  budgets: z.record(
+    z.string().regex(/^\d{1,3}$/, 'year must be a whole number 0–999'),
+    z.number({ error: 'must be a number' }).min(0, 'must not be negative').nullable(),
+  ),
+  swapsPerMonth: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(100, 'must be at most 100'),
+  /** the plan's month 0, "YYYY-MM" */
+  startMonth: z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'must be a month as YYYY-MM'),
+});
+
+export const createCaseSchema = z.strictObject({
+  name: caseNameSchema,
+  assumptionSetId: id,
+  selection: selectionSchema,
+});
+
+export const updateCaseSchema = z.strictObject({
+  version: z.number().int().positive('must be the version you loaded'),
+  name: caseNameSchema.optional(),
+  assumptionSetId: id.optional(),
+  selection: selectionSchema.optional(),
+  plan: planSettingsSchema.optional(),
+});
+
+export const copyCaseSchema = z.strictObject({ name: caseNameSchema.optional() });
+
+export type Selection = z.infer<typeof selectionSchema>;
+export type PlanSettings = z.infer<typeof planSettingsSchema>;
+export type CreateCaseInput = z.infer<typeof createCaseSchema>;
+export type UpdateCaseInput = z.infer<typeof updateCaseSchema>;
+
+export const DEFAULT_SWAPS_PER_MONTH = 2;
+
+/** Stored plan JSON with defaults filled in; the start month defaults to the month the case was made. */
+export function readPlanSettings(json: string | null | undefined, createdAt: string): PlanSettings {
+  let raw: Partial<PlanSettings> = {};
+  try {
+    raw = json ? JSON.parse(json) : {};
+  } catch {
+    raw = {};
+  }
+  return {
+    budgets: raw.budgets ?? {},
+    swapsPerMonth: raw.swapsPerMonth ?? DEFAULT_SWAPS_PER_MONTH,
+    startMonth: raw.startMonth ?? createdAt.slice(0, 7),
+  };
+}

@@ -1,0 +1,89 @@
+/**
+ * Schemas of the register's entities (trucks, engine types, repower offers,
+ * assumption sets), shared by the forms, the route handlers and the import.
+ * Numeric constraints come from the case/1 schema (MODEL.md section 9) so a
+ * record the register accepts is one the engine accepts.
+ */
+import { z } from 'zod';
+import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema } from './case';
+
+/**
+ * A text cell that starts with one of these is read as a formula by
+ * spreadsheet programs (CSV injection), so such text is refused everywhere.
+ */
+export const FORMULA_START = /^[=+\-@\t\r]/;
+const FORMULA_MESSAGE = 'must not start with =, +, - or @ (a spreadsheet would read it as a formula)';
+
+export const plainText = (max: number) =>
+  z
+    .string('must be text')
+    .trim()
+    .max(max, `must be at most ${max} characters`)
+    .refine((s) => !FORMULA_START.test(s), FORMULA_MESSAGE);
+
+/** An identifier that appears in case files: unit number, engine key, offer key. */
+export const keyText = (what: string) => plainText(80).pipe(z.string().min(1, `${what} must not be empty`));
+
+const rowId = (what: string) => z.number(`must be the id of ${what}`).int(`must be the id of ${what}`).positive(`must be the id of ${what}`);
+const version = z.number('must be the version you loaded').int().min(1);
+
+// ---------------------------------------------------------------- trucks
+
+export const truckInputSchema = truckSchema
+  .pick({ engineHours: true, remainingLifeHours: true, annualHours: true, loadFactor: true, tonnesPerHour: true, fuelBurnLitresPerHour: true })
+  .extend({
+    unitNumber: keyText('The unit number'),
+    payloadClass: plainText(40).default(''),
+    engineTypeId: rowId('an engine type of this workspace'),
+    repowerOfferId: rowId('a repower offer of this workspace').nullable().default(null),
+    notes: plainText(2000).default(''),
+  });
+export const truckUpdateSchema = truckInputSchema.extend({ version });
+export type TruckInput = z.output<typeof truckInputSchema>;
+export type TruckFormValues = z.input<typeof truckInputSchema>;
+
+// ---------------------------------------------------------------- engine types
+
+export const engineInputSchema = engineSchema.omit({ id: true }).extend({
+  key: keyText('The engine key'),
+  name: plainText(200).default(''),
+  notes: plainText(2000).default(''),
+});
+export const engineUpdateSchema = engineInputSchema.extend({ version });
+export type EngineInput = z.output<typeof engineInputSchema>;
+
+// ---------------------------------------------------------------- repower offers
+
+const offerBase = repowerOfferSchema.omit({ id: true, engineId: true }).extend({
+  key: keyText('The offer key'),
+  supplier: plainText(200).default(''),
+  engineTypeId: rowId('an engine type of this workspace'),
+  notes: plainText(2000).default(''),
+});
+
+// The same rule validateCase applies: a negative capital cost is refused.
+const coreCreditFits = (o: { modulePrice: number; installCost: number; coreCredit: number }, ctx: z.RefinementCtx) => {
+  if (o.coreCredit > o.modulePrice + o.installCost) {
+    ctx.addIssue({ code: 'custom', path: ['coreCredit'], message: 'must not exceed module price + install cost (the capital cost would be negative)' });
+  }
+};
+export const offerInputSchema = offerBase.superRefine(coreCreditFits);
+export const offerUpdateSchema = offerBase.extend({ version }).superRefine(coreCreditFits);
+export type OfferInput = z.output<typeof offerInputSchema>;
+
+// ---------------------------------------------------------------- assumption sets
+
+export const assumptionSetInputSchema = z.strictObject({
+  name: plainText(120).pipe(z.string().min(1, 'The name must not be empty')),
+  notes: plainText(2000).default(''),
+  assumptions: assumptionsSchema,
+});
+export const assumptionSetUpdateSchema = assumptionSetInputSchema.extend({ version });
+export type AssumptionSetInput = z.output<typeof assumptionSetInputSchema>;
+
+// ---------------------------------------------------------------- workspace display settings
+
+export const displaySettingsSchema = z.strictObject({
+  units: z.enum(['metric', 'us'], 'must be "metric" or "us"').optional(),
+  negativeStyle: z.enum(['parentheses', 'minus'], 'must be "parentheses" or "minus"').optional(),
+});

@@ -1,0 +1,59 @@
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import type { Knex } from 'knex';
+import type { BrowserContext, Page } from 'playwright-core';
+import { createKnex } from '@/lib/db/connection';
+import { openBrowser, signIn, signOut, WS } from './support/browser';
+import { createSyntheticWorkspace } from './support/synthetic-fleet';
+
+const SYNTH = 'synthetic-two-hundred';
+
+/** Measures (prints, never asserts on) evaluate-and-render time for the demo case and a 200-truck fleet. */
+describe('time to evaluate and render a case', () => {
+  let page: Page;
+  let context: BrowserContext;
+  let baseURL: string;
+  let close: () => Promise<void>;
+  let k: Knex;
+
+  beforeAll(async () => {
+    ({ page, context, baseURL, close } = await openBrowser());
+    k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+    await createSyntheticWorkspace(k, SYNTH, 200, 'analyst@aldervane.test');
+  });
+  afterAll(async () => {
+    await k('workspaces').where({ slug: SYNTH }).delete();
+    await k.destroy();
+    await close();
+  });
+
+  async function measure(slug: string, trucks: number): Promise<void> {
+    const opts = await (await context.request.get(`${baseURL}/api/workspaces/${slug}/cases/options`)).json();
+    const base = opts.assumptionSets.find((s: { name: string }) => s.name === 'Base');
+    const created = await context.request.post(`${baseURL}/api/workspaces/${slug}/cases`, {
+      data: { name: `Timing ${trucks}`, assumptionSetId: base.id, selection: opts.trucks.map((t: { id: number }) => ({ truckId: t.id, repowerOfferId: null })) },
+    });
+    expect(created.status()).toBe(201);
+    const id = (await created.json()).case.id;
+    const runs: number[] = [];
+    let server = 0;
+    for (let i = 0; i < 3; i++) {
+      const t0 = Date.now();
+      await page.goto(`${baseURL}/${slug}/cases/${id}`);
+      await page.getByTestId('truck-table').locator(`tbody tr >> nth=${trucks - 1}`).waitFor();
+      runs.push(Date.now() - t0);
+      server = Number((await page.getByRole('heading', { level: 2 }).first().textContent())?.match(/evaluated in (\d+) ms/)?.[1]);
+    }
+    expect(await page.getByTestId('truck-table').locator('tbody tr').count()).toBe(trucks);
+    console.log(`[timing] ${trucks} trucks: page load + server evaluation + render ${runs.join(', ')} ms (server evaluation ${server} ms on the last run)`);
+  }
+
+  it('the 24-truck demo case', async () => {
+    await signIn(page, baseURL, 'analyst@aldervane.test');
+    await measure(WS, 24);
+  });
+
+  it('a 200-truck synthetic fleet', async () => {
+    await measure(SYNTH, 200);
+    await signOut(page);
+  });
+});

@@ -1,0 +1,175 @@
+import { spawnSync } from 'node:child_process';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+
+/** "(14,189)" → −14189; "—" → null. */
+const num = (s: string): number | null => {
+  const t = s.replace(/\(.*\)$/, (m) => (/^\([\d,.]+\)$/.test(m) ? m : '')).trim();
+  if (t === '' || t.startsWith('—')) return null;
+  const neg = /^\(.*\)$/.test(t) || t.startsWith('−');
+  const v = Number(t.replace(/[()−,%\s]/g, ''));
+  return neg ? -v : v;
+};
+
+type CliTruck = {
+  id: string;
+  best: string;
+  options: Record<'keep' | 'rebuild' | 'repower', { npv: number; fuelLitresPerHour: number; costPerHour: number; costPerTonne: number }>;
+  repowerVsRebuild: CliComparison;
+  repowerVsKeep: CliComparison;
+};
+type CliComparison = { deltaNpv: number; irr: number | null; mirr: number | null; paybackYears: number | null; discountedPaybackYears: number | null; profitabilityIndex: number | null };
+
+describe('business cases in the browser', () => {
+  let page: Page;
+  let context: BrowserContext;
+  let baseURL: string;
+  let close: () => Promise<void>;
+  let caseUrl = '';
+  let cli: CliTruck[];
+
+  beforeAll(async () => {
+    ({ page, context, baseURL, close } = await openBrowser());
+    const run = spawnSync('npm', ['run', '--silent', 'evaluate', '--', 'scenarios/aldervane-north-pit.json'], { encoding: 'utf8' });
+    expect(run.status).toBe(0);
+    cli = JSON.parse(run.stdout).trucks;
+  });
+  afterAll(async () => close());
+
+  it('an analyst creates a case from the demo fleet and the table shows the engine\'s figures', async () => {
+    await signIn(page, baseURL, 'analyst@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/cases`);
+    await page.getByRole('button', { name: 'New case' }).first().click();
+    await page.getByLabel('Name').fill('Demo fleet — base, own offers');
+    expect(await page.getByLabel('Assumption set').locator('option:checked').textContent()).toBe('Base');
+    expect(await page.getByLabel('All trucks').isChecked()).toBe(true);
+    await page.getByRole('button', { name: 'Create case' }).click();
+    await page.waitForURL(/\/cases\/\d+$/);
+    caseUrl = page.url();
+    await page.getByTestId('truck-table').waitFor();
+    const rows = await page.getByTestId('truck-table').locator('tbody tr').evaluateAll((trs) =>
+      trs.map((tr) => Array.from(tr.querySelectorAll('td')).map((td) => (td.textContent ?? '').trim())),
+    );
+    expect(rows).toHaveLength(24);
+    const headers = await page.getByTestId('truck-table').locator('thead th').allTextContents();
+    expect(headers.slice(0, 6).map((h) => h.replace(/[▲▼]/g, ''))).toEqual(['Truck', 'Best', 'NPV keep (USD k)', 'NPV rebuild (USD k)', 'NPV repower (USD k)', 'ΔNPV repower vs best other (USD k)']);
+    const byId = new Map(cli.map((t) => [t.id, t]));
+    for (const r of rows) {
+      const t = byId.get(r[0])!;
+      expect(t, `truck ${r[0]} in the CLI output`).toBeDefined();
+      const other = t.options.keep.npv > t.options.rebuild.npv + 1e-6 ? 'keep' : 'rebuild';
+      const c = other === 'keep' ? t.repowerVsKeep : t.repowerVsRebuild;
+      expect(r[1].toLowerCase()).toBe(t.best);
+      const close = (shown: string, value: number | null, scale: number, digits: number) => {
+        if (value === null) return expect(num(shown)).toBeNull();
+        expect(Math.abs((num(shown) as number) - value / scale)).toBeLessThanOrEqual(0.5 * 10 ** -digits + 1e-9);
+      };
+      close(r[2], t.options.keep.npv, 1000, 0);
+      close(r[3], t.options.rebuild.npv, 1000, 0);
+      close(r[4], t.options.repower.npv, 1000, 0);
+      close(r[5], c.deltaNpv, 1000, 0);
+      close(r[6], c.irr === null ? null : c.irr * 100, 1, 1);
+      close(r[7], c.mirr === null ? null : c.mirr * 100, 1, 1);
+      close(r[8], c.paybackYears, 1, 1);
+      close(r[9], c.discountedPaybackYears, 1, 1);
+      close(r[10], c.profitabilityIndex, 1, 2);
+      const best = t.options[t.best as 'keep'];
+      close(r[11], best.fuelLitresPerHour, 1, 1);
+      close(r[12], best.costPerHour, 1, 2);
+      close(r[13], best.costPerTonne, 1, 3);
+    }
+    // negatives in parentheses, thousands separators
+    expect(rows[0][2]).toMatch(/^\(\d{1,3}(,\d{3})+\)$/);
+    await screenshot(page, 'case-results');
+  });
+
+  it('sorts by ΔNPV and filters by truck', async () => {
+    await page.goto(caseUrl);
+    const table = page.getByTestId('truck-table');
+    await table.waitFor();
+    await table.getByRole('button', { name: /ΔNPV/ }).click();
+    await page.locator('th[aria-sort="descending"]').waitFor();
+    const ids = await table.locator('tbody tr').evaluateAll((trs) => trs.map((tr) => tr.getAttribute('data-truck')));
+    const gain = (t: CliTruck) => t.options.repower.npv - Math.max(t.options.keep.npv, t.options.rebuild.npv);
+    expect(ids).toEqual([...cli].sort((a, b) => gain(b) - gain(a)).map((t) => t.id));
+    await page.getByLabel('Filter trucks').fill('T2-');
+    expect(await table.locator('tbody tr').count()).toBe(6);
+    await page.getByLabel('Filter trucks').fill('');
+  });
+
+  it('opens a truck and sees its charts, events and cash flows', async () => {
+    await page.goto(caseUrl);
+    await page.getByTestId('truck-table').getByRole('link', { name: 'T3-09' }).click();
+    await page.waitForURL(/\/trucks\/T3-09$/);
+    for (const id of ['chart-cumulative', 'chart-costs', 'chart-fuel']) {
+      const fig = page.getByTestId(id);
+      await fig.locator('svg path, svg rect').first().waitFor();
+      expect(await fig.locator('svg text').allTextContents()).not.toHaveLength(0);
+    }
+    expect(await page.getByTestId('chart-cumulative').textContent()).toMatch(/Discounted payback: [\d.]+ yr/);
+    expect(await page.getByTestId('chart-fuel').locator('svg').first().textContent()).toContain('Fuel (kL/yr)');
+    // a value on hover
+    const box = (await page.getByTestId('chart-fuel').locator('svg').first().boundingBox())!;
+    await page.mouse.move(box.x + box.width / 2, box.y + box.height / 2);
+    await page.getByText(/kL \([\d.,]+ L\/h\)/).first().waitFor();
+    await screenshot(page, 'case-truck-charts');
+    expect(await page.getByTestId('event-timeline').textContent()).toMatch(/Repower/);
+    const cli09 = cli.find((t) => t.id === 'T3-09')!;
+    expect(num((await page.getByTestId('npv-repower').textContent()) ?? '')).toBe(Math.round(cli09.options.repower.npv));
+    await page.getByRole('button', { name: 'Rebuild' }).click();
+    expect(await page.getByTestId('cash-flow-table').locator('caption').textContent()).toMatch(/^Rebuild/);
+    await screenshot(page, 'case-truck');
+  });
+
+  it('sets a budget and sees the chosen set and the schedule', async () => {
+    await page.goto(`${caseUrl}/plan`);
+    const plan = page.getByTestId('capital-plan');
+    await plan.waitFor();
+    const years = await plan.locator('tbody tr').evaluateAll((trs) => trs.map((tr) => Number(tr.getAttribute('data-year'))));
+    expect(years.length).toBeGreaterThan(0);
+    // year 1 holds most of the demo fleet's swaps (engines reaching life within the year): a 3 M budget takes one
+    const y = years.includes(1) ? 1 : years[0];
+    await page.getByLabel(new RegExp(`^Year ${y}${y === 0 ? ' \\(now\\)' : ''} budget$`)).fill('3,000,000');
+    await page.getByLabel('Swaps per month').fill('1');
+    await page.getByRole('button', { name: 'Save and plan' }).click();
+    await page.getByText('Plan saved.').waitFor();
+    const row = plan.locator(`tbody tr[data-year="${y}"]`);
+    expect(num((await row.locator('td').nth(1).textContent()) ?? '')).toBe(3000);
+    expect(num((await row.locator('td').nth(2).textContent()) ?? '')).toBeLessThanOrEqual(3000);
+    expect(await page.getByTestId(`chosen-${y}`).textContent()).not.toBe('—');
+    expect(await page.getByTestId(`left-out-${y}`).textContent()).toMatch(/forgoes [\d,]+ · needs \+[\d,]+/);
+    const months = await page.getByTestId('schedule-table').locator('tbody tr td:first-child').allTextContents();
+    expect(months.length).toBeGreaterThan(0);
+    expect(new Set(months).size).toBe(months.length); // one swap a month
+    await screenshot(page, 'case-plan');
+    // every result links to the methodology
+    await page.getByRole('link', { name: /Methodology/ }).click();
+    await page.waitForURL(/\/methodology$/);
+    expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Methodology');
+    expect(await page.getByRole('heading', { name: /Ranking, capital plan and schedule/ }).count()).toBe(1);
+    expect(await page.getByTestId('engine-methodology').textContent()).toMatch(/Discount factor/);
+    await screenshot(page, 'methodology');
+    await signOut(page);
+  });
+
+  it('a viewer reads the case but cannot change it', async () => {
+    await signIn(page, baseURL, 'viewer@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/cases`);
+    await page.getByTestId('cases-table').waitFor();
+    await screenshot(page, 'cases-list-viewer');
+    expect(await page.getByRole('button', { name: 'New case' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Delete' }).count()).toBe(0);
+    await page.goto(caseUrl);
+    await page.getByTestId('truck-table').waitFor();
+    expect(await page.getByTestId('truck-table').locator('tbody tr').count()).toBe(24);
+    await page.goto(`${caseUrl}/plan`);
+    await page.getByTestId('plan-read-only').waitFor();
+    expect(await page.getByLabel('Swaps per month').isDisabled()).toBe(true);
+    expect(await page.getByRole('button', { name: 'Save and plan' }).count()).toBe(0);
+    const id = caseUrl.split('/').pop();
+    const r = await context.request.patch(`${baseURL}/api/workspaces/${WS}/cases/${id}`, { data: { version: 2, name: 'viewer was here' } });
+    expect(r.status()).toBe(403);
+    await signOut(page);
+  });
+});

@@ -1,0 +1,178 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { BrowserContext, Page } from 'playwright-core';
+import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+
+const HEADER = 'unit_number,payload_class,engine_type,repower_offer,engine_hours_h,remaining_life_h,annual_hours_h,load_factor,tonnes_per_hour,fuel_burn_l_per_h,notes';
+const line = (unit: string, hours: string) => `${unit},300 t,ac-2600-legacy,kestrel-km2700,${hours},52000,6200,0.5,810,,brought in from the planning sheet`;
+
+describe('fleet register, import and quote documents in the browser', () => {
+  let page: Page;
+  let context: BrowserContext;
+  let baseURL: string;
+  let close: () => Promise<void>;
+  const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'haulcase-e2e-files-'));
+
+  beforeAll(async () => {
+    ({ page, context, baseURL, close } = await openBrowser());
+  });
+  afterAll(async () => {
+    await close();
+    fs.rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('analyst imports a fleet file with an error, sees the row errors, fixes the file and imports it', async () => {
+    await signIn(page, baseURL, 'analyst@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/fleet`);
+    await page.getByRole('link', { name: 'Import from file' }).click();
+    await page.waitForURL(`${baseURL}/${WS}/fleet/import`);
+    const file = path.join(dir, 'north-pit-additions.csv');
+    fs.writeFileSync(file, [HEADER, line('T5-01', '4200'), line('T5-02', '"3,9OO"'), line('T5-03', '150')].join('\n'));
+    await page.getByLabel('Fleet file (.csv or .xlsx)').setInputFiles(file);
+    const problems = page.getByTestId('import-problems');
+    await problems.waitFor();
+    const text = await problems.textContent();
+    expect(text).toContain('engine_hours_h');
+    expect(text).toContain('"3,9OO" is not a number');
+    expect(await problems.locator('tbody tr').first().locator('td').first().textContent()).toBe('3');
+    expect(await page.getByRole('button', { name: /^Import \d+ truck/ }).count()).toBe(0);
+    await screenshot(page, 'fleet-import-row-errors');
+
+    fs.writeFileSync(file, [HEADER, line('T5-01', '4200'), line('T5-02', '3900'), line('T5-03', '150')].join('\n'));
+    await page.getByLabel('Fleet file (.csv or .xlsx)').setInputFiles(file);
+    await page.getByTestId('import-plan').waitFor();
+    expect(await page.getByTestId('import-preview').textContent()).toContain('3 truck(s) to add, 0 to update');
+    await screenshot(page, 'fleet-import-preview');
+    await page.getByRole('button', { name: 'Import 3 truck(s)' }).click();
+    expect(await page.getByTestId('import-done').textContent()).toContain('3 truck(s) added, 0 updated');
+
+    await page.getByRole('link', { name: 'Back to the register' }).click();
+    await page.getByLabel('Filter trucks').fill('T5-');
+    await page.getByText('3 of 27 trucks').waitFor();
+    const row = page.locator('tr[data-unit="T5-02"]');
+    expect(await row.locator('td').nth(4).textContent()).toBe('3,900');
+  });
+
+  it('analyst edits a truck: a bad value is shown on its field, a good one is saved', async () => {
+    await page.goto(`${baseURL}/${WS}/fleet`);
+    await page.getByRole('button', { name: 'Edit T3-01' }).click();
+    const form = page.getByTestId('truck-form');
+    await form.getByLabel('Load factor (0–1)').fill('1.3');
+    await form.getByRole('button', { name: 'Save truck' }).click();
+    await form.getByText('must be at most 1 (a fraction of rated power)').waitFor();
+    await screenshot(page, 'fleet-truck-form-error');
+    await form.getByLabel('Load factor (0–1)').fill('0.51');
+    await form.getByLabel('Engine hours (h)').fill('1234');
+    await form.getByRole('button', { name: 'Save truck' }).click();
+    await form.waitFor({ state: 'detached' });
+    const row = page.locator('tr[data-unit="T3-01"]');
+    await row.getByText('1,234').waitFor();
+    expect(await row.locator('td').nth(7).textContent()).toBe('0.51');
+    await screenshot(page, 'fleet-register-analyst');
+  });
+
+  it('analyst uploads a quote document; a file that is not a PDF or image is refused', async () => {
+    await page.goto(`${baseURL}/${WS}/offers`);
+    expect(await page.getByRole('note', { name: 'Safety caution' }).count()).toBe(1);
+    await page.getByRole('button', { name: 'Quotes' }).first().click();
+    const docs = page.getByTestId('quote-documents');
+    const fake = path.join(dir, 'quote.pdf');
+    fs.writeFileSync(fake, 'this is plain text pretending to be a PDF');
+    await docs.locator('input[type=file]').setInputFiles(fake);
+    expect(await page.getByTestId('quote-message').textContent()).toMatch(/not a PDF, PNG, JPEG or WebP file.*Nothing was saved/);
+    const pdf = path.join(dir, 'Module quote Q-2231.pdf');
+    fs.writeFileSync(pdf, '%PDF-1.4\n1 0 obj <<>> endobj\ntrailer <<>>\n%%EOF\n');
+    await docs.locator('input[type=file]').setInputFiles(pdf);
+    await docs.getByRole('link', { name: 'Module quote Q-2231.pdf' }).waitFor();
+    await screenshot(page, 'offers-quote-uploaded');
+    const [download] = await Promise.all([page.waitForEvent('download'), docs.getByRole('link', { name: 'Module quote Q-2231.pdf' }).click()]);
+    expect(fs.readFileSync((await download.path())!, 'utf8')).toContain('%PDF-1.4');
+    await signOut(page);
+  });
+
+  it('viewer sees the register with no edit controls, and a direct write answers 403', async () => {
+    await signIn(page, baseURL, 'viewer@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/fleet`);
+    await page.locator('tr[data-unit="T3-01"]').waitFor();
+    expect(await page.getByTestId('fleet-table').locator('tbody tr').count()).toBe(27);
+    expect(await page.getByRole('button', { name: 'Add truck' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Edit / }).count()).toBe(0);
+    expect(await page.getByRole('link', { name: 'Import from file' }).count()).toBe(0);
+    expect(await page.getByLabel('Upload a case file (.json)').count()).toBe(0);
+    await screenshot(page, 'fleet-register-viewer');
+    await page.goto(`${baseURL}/${WS}/offers`);
+    await page.getByRole('button', { name: 'Quotes' }).first().click();
+    await page.getByTestId('quote-documents').waitFor();
+    expect(await page.getByTestId('quote-documents').locator('input[type=file]').count()).toBe(0);
+
+    const trucks = await (await context.request.get(`${baseURL}/api/workspaces/${WS}/trucks`)).json();
+    const t = trucks.items.find((x: { unitNumber: string }) => x.unitNumber === 'T3-01');
+    const put = await context.request.put(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`, { data: { ...t, engineHours: 1, version: t.version } });
+    expect(put.status()).toBe(403);
+    const del = await context.request.delete(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`);
+    expect(del.status()).toBe(403);
+    const after = await (await context.request.get(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`)).json();
+    expect(after.engineHours).toBe(1234);
+    await signOut(page);
+  });
+});
+
+describe('engine library, assumption sets and display units in the browser', () => {
+  let page: Page;
+  let baseURL: string;
+  let close: () => Promise<void>;
+  beforeAll(async () => {
+    ({ page, baseURL, close } = await openBrowser());
+  });
+  afterAll(async () => close());
+
+  it('analyst copies an assumption set and edits the copy', async () => {
+    await signIn(page, baseURL, 'analyst@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/assumptions`);
+    await page.getByRole('button', { name: 'Copy High fuel' }).click();
+    const form = page.getByTestId('assumption-form');
+    await form.waitFor();
+    await form.getByLabel('Name').fill('High fuel, 10 % discount');
+    await form.getByLabel('Discount rate (nominal, fraction)').fill('0.1');
+    await form.getByRole('button', { name: 'Save assumption set' }).click();
+    await form.waitFor({ state: 'detached' });
+    const row = page.getByTestId('assumption-table').locator('tr', { hasText: 'High fuel, 10 % discount' });
+    expect(await row.locator('td').nth(1).textContent()).toBe('10.0 %');
+    await screenshot(page, 'assumption-sets');
+    await signOut(page);
+  });
+
+  it('admin switches display units to US customary: the engine library shows hp and lb/hp-h', async () => {
+    await signIn(page, baseURL, 'admin@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByLabel(/US customary/).check();
+    await page.getByRole('button', { name: 'Save display settings' }).click();
+    await page.getByText('Saved.').waitFor();
+    await page.goto(`${baseURL}/${WS}/engines`);
+    const table = page.getByTestId('engine-table');
+    await table.getByText('Rated (hp)').waitFor();
+    const legacy = table.locator('tr', { hasText: 'ac-2600-legacy' });
+    // 2,600 kW ÷ 0.745 699 872 kW/hp = 3,486.6 hp; 212 g/kWh = 0.349 lb/hp-h
+    expect(await legacy.locator('td').nth(2).textContent()).toBe('3,487');
+    expect(await legacy.locator('td').nth(3).textContent()).toBe('0.349');
+    await screenshot(page, 'engine-library-us-units');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByLabel(/Metric/).check();
+    await page.getByRole('button', { name: 'Save display settings' }).click();
+    await page.getByText('Saved.').waitFor();
+    await signOut(page);
+  });
+
+  it('a viewer sees the settings but cannot change them', async () => {
+    await signIn(page, baseURL, 'viewer@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByText('Only a workspace admin can change these.').waitFor();
+    expect(await page.getByRole('button', { name: 'Save display settings' }).count()).toBe(0);
+    await page.goto(`${baseURL}/${WS}/engines`);
+    await page.getByTestId('engine-table').waitFor();
+    expect(await page.getByRole('button', { name: 'Add engine type' }).count()).toBe(0);
+    await signOut(page);
+  });
+});

@@ -1,0 +1,130 @@
+/**
+ * The exported workbook's formulas are live: LibreOffice recomputes every
+ * formula (a profile with OOXMLRecalcMode = 0) and the results agree with the
+ * engine to 1e-6 relative, before and after changing the fuel price and the
+ * discount rate in the Assumptions sheet. Needs `soffice` (LibreOffice Calc).
+ */
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import ExcelJS from 'exceljs';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { evaluateCase } from '@/lib/engine';
+import type { CaseResult } from '@/lib/engine/types';
+import { writeCaseWorkbook } from '@/lib/export/workbook';
+import { validateCase, type CaseFile } from '@/lib/validation/case';
+import { makeProfile, readWorkbook, recalculate, valueOf } from '../support/libreoffice';
+import { readTruckFigures, type Figure, type TruckFigures } from '../support/workbook-reader';
+
+const LO_TIMEOUT = 300_000;
+
+function loadDemo(): CaseFile {
+  const raw = JSON.parse(readFileSync(path.resolve(__dirname, '../../scenarios/aldervane-north-pit.json'), 'utf8'));
+  const v = validateCase(raw);
+  if (!v.ok) throw new Error('demo case does not validate');
+  return v.value;
+}
+
+/** Every exported figure against the engine's JSON: 1e-6 relative (absolute near zero); null ⇔ "n/a". */
+function mismatches(figs: TruckFigures[], result: CaseResult): string[] {
+  const out: string[] = [];
+  const check = (where: string, got: Figure, want: number | null) => {
+    if (want === null) {
+      if (got !== 'n/a') out.push(`${where}: workbook ${got}, engine null`);
+      return;
+    }
+    if (typeof got !== 'number' || !(Math.abs(got - want) <= 1e-6 * Math.max(1, Math.abs(want)))) {
+      out.push(`${where}: workbook ${got}, engine ${want}`);
+    }
+  };
+  expect(figs.map((f) => f.id)).toEqual(result.trucks.map((t) => t.id));
+  result.trucks.forEach((t, i) => {
+    const f = figs[i];
+    for (const p of ['keep', 'rebuild', 'repower'] as const) {
+      for (const k of ['npv', 'eac', 'costPerHour', 'costPerTonne'] as const) check(`${t.id} ${p} ${k}`, f.policies[p][k], t.options[p][k]);
+    }
+    for (const c of ['repowerVsRebuild', 'repowerVsKeep', 'rebuildVsKeep'] as const) {
+      for (const k of ['deltaNpv', 'irr', 'mirr', 'paybackYears', 'discountedPaybackYears', 'profitabilityIndex'] as const) {
+        check(`${t.id} ${c} ${k}`, f.comparisons[c][k], t[c][k]);
+      }
+    }
+  });
+  return out;
+}
+
+/** The address a defined name points at, e.g. FuelPrice → Assumptions!B8. */
+function namedCell(wb: ExcelJS.Workbook, name: string): ExcelJS.Cell {
+  const ranges = wb.definedNames.getRanges(name).ranges;
+  expect(ranges.length).toBe(1);
+  const m = /^'?([^'!]+)'?!\$?([A-Z]+)\$?(\d+)$/.exec(ranges[0]);
+  if (!m) throw new Error(`unexpected range ${ranges[0]}`);
+  const ws = wb.getWorksheet(m[1]);
+  if (!ws) throw new Error(`no sheet ${m[1]}`);
+  return ws.getCell(`${m[2]}${m[3]}`);
+}
+
+describe('workbook recomputed by LibreOffice', () => {
+  const demo = loadDemo();
+  const dir = mkdtempSync(path.join(tmpdir(), 'haulcase-wb-'));
+  let profile: string;
+  let exported: string;
+
+  beforeAll(async () => {
+    profile = makeProfile();
+    exported = path.join(dir, 'demo.xlsx');
+    writeFileSync(exported, await writeCaseWorkbook(demo, { workspaceName: 'Aldervane Copper — North Pit' }));
+  });
+
+  it('agrees with the engine on every NPV, EAC, IRR, MIRR, payback and discounted payback, and replaces a bogus cached value', async () => {
+    // plant wrong cached results: a recomputing program must replace them
+    const wb = await readWorkbook(exported);
+    const truck1 = readTruckFigures(wb)[0];
+    const ws = wb.getWorksheet(truck1.sheet) as ExcelJS.Worksheet;
+    let npvCell: ExcelJS.Cell | undefined;
+    ws.eachRow((row, r) => {
+      if (!npvCell && row.getCell(1).value === 'NPV') npvCell = ws.getCell(r, 2);
+    });
+    const formula = (npvCell?.value as ExcelJS.CellFormulaValue).formula;
+    expect(formula).toMatch(/^SUM\(/);
+    (npvCell as ExcelJS.Cell).value = { formula, result: 123456789 } as ExcelJS.CellFormulaValue;
+    const summary = wb.getWorksheet('Summary') as ExcelJS.Worksheet;
+    const best = summary.getCell('F5');
+    best.value = { formula: (best.value as ExcelJS.CellFormulaValue).formula, result: 'bogus' } as ExcelJS.CellFormulaValue;
+    const planted = path.join(dir, 'planted.xlsx');
+    await wb.xlsx.writeFile(planted);
+    expect(readTruckFigures(await readWorkbook(planted))[0].policies.keep.npv).toBe(123456789);
+
+    const recomputed = await readWorkbook(await recalculate(planted, profile));
+    const figs = readTruckFigures(recomputed);
+    const result = evaluateCase(demo);
+    expect(figs[0].policies.keep.npv).not.toBe(123456789);
+    expect(valueOf((recomputed.getWorksheet('Summary') as ExcelJS.Worksheet).getCell('F5'))).toBe(result.trucks[0].best);
+    expect(mismatches(figs, result)).toEqual([]);
+    // some IRRs exist and some are n/a by MODEL.md's rule: both paths are exercised
+    const irrs = result.trucks.flatMap((t) => [t.repowerVsRebuild.irr, t.repowerVsKeep.irr, t.rebuildVsKeep.irr]);
+    expect(irrs.some((x) => x === null)).toBe(true);
+    expect(irrs.some((x) => x !== null)).toBe(true);
+    // fleet totals on the Summary sheet
+    const total = (recomputed.getWorksheet('Summary') as ExcelJS.Worksheet).getCell(5 + demo.trucks.length, 7);
+    expect(Math.abs((valueOf(total) as number) - result.fleet.npv.best)).toBeLessThan(1e-6 * Math.abs(result.fleet.npv.best));
+  }, LO_TIMEOUT);
+
+  it('recomputes to the engine after the fuel price and discount rate are changed in the Assumptions sheet', async () => {
+    const wb = await readWorkbook(exported);
+    const fuel = namedCell(wb, 'FuelPrice');
+    const rate = namedCell(wb, 'DiscountRate');
+    expect(fuel.value).toBe(demo.assumptions.fuelPrice);
+    expect(rate.value).toBe(demo.assumptions.discountRate);
+    fuel.value = 1.42;
+    rate.value = 0.11;
+    const changed = path.join(dir, 'changed.xlsx');
+    await wb.xlsx.writeFile(changed);
+
+    const recomputed = await readWorkbook(await recalculate(changed, profile));
+    const expected = evaluateCase({ ...demo, assumptions: { ...demo.assumptions, fuelPrice: 1.42, discountRate: 0.11 } });
+    const before = evaluateCase(demo);
+    // the change matters: the figures move
+    expect(Math.abs(expected.fleet.npv.best - before.fleet.npv.best)).toBeGreaterThan(1e5);
+    expect(mismatches(readTruckFigures(recomputed), expected)).toEqual([]);
+  }, LO_TIMEOUT);
+});
