@@ -1,10 +1,11 @@
 import 'server-only';
 /**
  * The case/1 a risk analysis runs on: a business case's frozen file once
- * approved (risk on the numbers that were approved), else built from stored
- * data with the case's trucks, offers and assumption set; validated.
+ * approved (risk on the numbers that were approved), else the case as the
+ * case page builds it from stored data (lib/cases/evaluate.ts); validated.
  */
-import { buildCaseFile } from '@/lib/db/queries/case-file';
+import type { Access } from '@/lib/auth/access';
+import { loadValidCase } from '@/lib/cases/evaluate';
 import { db } from '@/lib/db';
 import { invalid, notFound } from '@/lib/http';
 import { validateCase, type CaseFile } from '@/lib/validation/case';
@@ -23,24 +24,15 @@ export function parseCaseId(raw: string): number {
   return id;
 }
 
-export async function loadRiskCase(workspaceId: number, caseId: number): Promise<RiskCase> {
-  const row = await db()('business_cases').where({ id: caseId, workspaceId }).first();
+export async function loadRiskCase(access: Access, caseId: number): Promise<RiskCase> {
+  const row = await db()('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('id', 'name', 'status', 'frozenCase');
   if (!row) throw notFound('No such business case.');
-  let file: unknown;
-  if (row.frozenCase) {
-    file = JSON.parse(row.frozenCase);
-  } else {
-    if (row.assumptionSetId == null) throw invalid([{ path: 'assumptionSetId', message: 'The case has no assumption set: choose one before running a sensitivity.' }]);
-    const selection = JSON.parse(row.selection || '[]') as { truckId: number; repowerOfferId: number | null }[];
-    const offerOverrides = Object.fromEntries(selection.map((s) => [s.truckId, s.repowerOfferId]));
-    file = await buildCaseFile(workspaceId, {
-      name: row.name,
-      assumptionSetId: row.assumptionSetId,
-      truckIds: selection.length ? selection.map((s) => s.truckId) : undefined,
-      offerOverrides,
-    });
+  if (!row.frozenCase) {
+    // the same case the case page evaluates (same loader, same problems)
+    const { file } = await loadValidCase(access, caseId);
+    return { id: row.id, name: row.name, status: row.status, caseFile: file };
   }
-  const v = validateCase(file);
-  if (!v.ok) throw invalid(v.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The stored data does not make a valid case.');
+  const v = validateCase(JSON.parse(row.frozenCase));
+  if (!v.ok) throw invalid(v.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The frozen case is not valid.');
   return { id: row.id, name: row.name, status: row.status, caseFile: v.value };
 }

@@ -13,5 +13,5 @@ export async function loadCaseForRoute(params: Promise<CaseParams>, roles: reado
   const { workspace, id } = await params;
   const access = await requireMember(workspace, roles);
   const caseId = parseCaseId(id);
-  return { access, risk: await loadRiskCase(access.workspace.id, caseId) };
+  return { access, risk: await loadRiskCase(access, caseId) };
 }

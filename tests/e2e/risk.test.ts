@@ -29,7 +29,9 @@ describe('sensitivity and risk of the demo case', () => {
 
   it('shows the tornado, redraws it when a driver range changes, and lists break-even values', async () => {
     await signIn(page, baseURL, 'analyst@aldervane.test');
-    await page.goto(`${baseURL}/${WS}/cases/${caseId}/risk`);
+    await page.goto(`${baseURL}/${WS}/cases/${caseId}`);
+    await page.getByRole('navigation', { name: 'Case' }).getByRole('link', { name: 'Sensitivity and risk' }).click();
+    await page.waitForURL(`${baseURL}/${WS}/cases/${caseId}/risk`);
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toContain('Sensitivity and risk');
     const fuelRow = page.getByTestId('tornado-table').locator('tr[data-driver="fuelPrice"]');
     await fuelRow.waitFor();

@@ -93,10 +93,13 @@ describe('spider and two-way table', () => {
 });
 
 describe('break-even', () => {
-  // the demo's repower pays at any fuel price or discount rate in range; a dearer module brings
-  // Δnpv near zero so that those drivers have a break-even too
+  // the demo truck's repower may pay at any fuel price or discount rate in range; a module priced
+  // at 95 % of its own break-even brings Δnpv near zero, so those drivers have a break-even too
+  const offerId = demo.trucks.find((t) => t.id === TRUCK)!.repowerOfferId;
+  const moduleBreakEven = breakEven(makeEvaluator(demo, { kind: 'truck-delta', truckId: TRUCK }), { key: 'modulePrice', target: offerId }).value!;
+  const dearPrice = 0.95 * moduleBreakEven;
   const dear = JSON.parse(JSON.stringify(demo));
-  dear.repowerOffers.forEach((o: { modulePrice: number }) => (o.modulePrice = 3_600_000));
+  dear.repowerOffers.find((o: { id: string }) => o.id === offerId).modulePrice = dearPrice;
 
   it('finds roots by bracketing (the doc example: √2)', () => {
     expect(findRoot((x) => x * x - 2, 0, 2).x).toBeCloseTo(Math.SQRT2, 9);
@@ -114,7 +117,7 @@ describe('break-even', () => {
       const be = breakEven(ev, d, key === 'bsfcGPerKwh' ? [150, 300] : undefined);
       expect(be.kind).toBe('crossing');
       const back = rerun((c) => {
-        c.repowerOffers.forEach((o: { modulePrice: number }) => (o.modulePrice = 3_600_000));
+        c.repowerOffers.find((o: { id: string }) => o.id === offerId).modulePrice = dearPrice;
         if (key === 'modulePrice') c.repowerOffers.find((o: { id: string }) => o.id === offer.id).modulePrice = be.value;
         else if (key === 'bsfcGPerKwh') c.engines.find((e: { id: string }) => e.id === offer.engineId).bsfcGPerKwh = be.value;
         else c.assumptions[key] = be.value;

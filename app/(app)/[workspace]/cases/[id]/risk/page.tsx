@@ -1,6 +1,6 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { notFound } from 'next/navigation';
+import { CaseNav } from '@/components/cases/case-nav';
 import { RiskWorkbench } from '@/components/risk/risk-workbench';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
@@ -24,8 +24,8 @@ export default async function Page({ params, searchParams }: { params: Promise<{
       <PageHeader
         title={`Sensitivity and risk — ${row.name}`}
         subtitle="Which drivers matter, where the repower stops paying, and how likely it is to lose money."
-        action={<Link className="btn" href={`/${workspace}/cases/${caseId}`}>Back to the case</Link>}
       />
+      <CaseNav slug={workspace} caseId={caseId} current="risk" />
       <RiskWorkbench slug={workspace} caseId={caseId} initialTruck={truck ?? null} negative={access.workspace.settings.negativeStyle} canRun={CAN_RUN_RISK.includes(access.role)} />
       <SafetyCaution />
     </>
