@@ -24,5 +24,5 @@ export function unitLabel(d: Pick<DriverView, 'unit'> | undefined): string {
 }
 
 /** Input ↔ stored value: percentages are typed as percent. */
-export const toInput = (d: DriverView, v: number) => (d.unit.includes('%') ? Number((v * 100).toPrecision(6)) : Number(v.toPrecision(8)));
+export const toInput = (d: DriverView, v: number) => (d.unit.includes('%') ? Number((v * 100).toPrecision(6)) : Number(v.toPrecision(6)));
 export const fromInput = (d: DriverView, v: number) => (d.unit.includes('%') ? v / 100 : v);
