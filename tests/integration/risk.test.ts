@@ -162,6 +162,23 @@ describe.each(backends)('risk endpoints on $name', ({ pg }) => {
     expect(second.body.run.result.fleet.deltaNpv.mean).toBe(fleet.mean);
   });
 
+  it('stops a run at the time limit and keeps what it found', async () => {
+    signInAs(ids['analyst@aldervane.test']);
+    process.env.HAULCASE_MC_TIME_LIMIT_MS = '200';
+    try {
+      const started = await call(startRun, params, { body: { iterations: 100000, seed: 3 } });
+      expect(started.status).toBe(202);
+      const finished = await whenFinished(started.body.run.id);
+      expect(finished?.status).toBe('timed-out');
+      expect(finished!.done).toBeLessThan(100000);
+      const row = await k('monte_carlo_runs').where({ id: started.body.run.id }).first();
+      expect(row.status).toBe('timed-out');
+      expect(row.done).toBe(finished!.done);
+    } finally {
+      delete process.env.HAULCASE_MC_TIME_LIMIT_MS;
+    }
+  });
+
   it('cancels a long run: the workers stop and the iterations done are summarised', async () => {
     signInAs(ids['analyst@aldervane.test']);
     const started = await call(startRun, params, { body: { iterations: 100000, seed: 9 } });
