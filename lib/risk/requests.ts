@@ -125,9 +125,16 @@ export function runTwoWay(c: CaseFile, body: z.infer<typeof twoWayRequestSchema>
   return { metric, baseValue: ev.baseValue, table: twoWay(ev, row!, column!, body.rowValues, body.columnValues) };
 }
 
-/** Checks a Monte Carlo request against the case: known drivers, each once, bounds inside the driver's range. */
+/** Iterations × trucks a run may hold: each keeps three npvs (8 bytes each) until it is summarised, so about 72 MB. */
+export const MAX_TRUCK_ITERATIONS = 3_000_000;
+
+/** Checks a Monte Carlo request against the case: known drivers, each once, bounds inside the driver's range, a size the server can hold. */
 export function checkMonteCarlo(c: CaseFile, body: z.infer<typeof monteCarloRequestSchema>): void {
   const problems: Problem[] = [];
+  if (body.iterations * c.trucks.length > MAX_TRUCK_ITERATIONS) {
+    const most = Math.floor(MAX_TRUCK_ITERATIONS / c.trucks.length);
+    problems.push({ path: 'iterations', message: `must be at most ${most.toLocaleString('en-US')} for ${c.trucks.length} trucks (iterations × trucks up to ${MAX_TRUCK_ITERATIONS.toLocaleString('en-US')})` });
+  }
   const seen = new Set<string>();
   body.distributions.forEach((entry, i) => {
     const path = `distributions[${i}]`;
