@@ -6,6 +6,7 @@ cd "$(dirname "$0")/.."
 export NEXT_TELEMETRY_DISABLED=1
 npm ci --no-audit --no-fund
 npm run --silent db:setup
+node_modules/.bin/tsx scripts/build-workers.ts
 node_modules/.bin/next build
 echo
 echo "Haulcase is starting on http://127.0.0.1:${PORT:-3000}. Demo logins (password: haulcase-demo):"

@@ -3,6 +3,7 @@ import * as m0001 from './0001_accounts';
 import * as m0002 from './0002_fleet';
 import * as m0003 from './0003_cases';
 import * as m0006 from './0006_mail_sink';
+import * as m0007 from './0007_monte_carlo_runs';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -14,6 +15,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0002_fleet': m0002,
   '0003_cases': m0003,
   '0006_mail_sink': m0006,
+  '0007_monte_carlo_runs': m0007,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

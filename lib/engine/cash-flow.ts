@@ -41,13 +41,13 @@ export interface PolicyCash {
   residual: ResidualDetail;
 }
 
-/** Tax, depreciation, residual and cash flow for a policy run. */
-export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash {
+/** Depreciation of a run's capital spends: the repower always, overhauls and repairs when capitalised. */
+export function depreciateSpends(
+  setup: TruckSetup,
+  run: PolicyRun,
+): { depreciation: number[]; writeOff: number; spends: DepreciatedSpend[] } {
   const { a, n } = setup;
-  const t = a.taxRate;
   const expense = a.rebuildAccounting === 'expense';
-
-  // capital spends and their schedules: the repower always, overhauls and repairs when capitalised
   const depreciation = new Array<number>(n + 1).fill(0);
   let writeOff = 0;
   const spends: DepreciatedSpend[] = [];
@@ -63,10 +63,14 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
     writeOff += placed.writeOff;
     spends.push({ period: ev.period, category, amount: ev.cost, schedule, byPeriod: placed.byPeriod, writeOff: placed.writeOff });
   }
+  return { depreciation, writeOff, spends };
+}
 
+/** Residual credit of the engine fitted at the end of a run (MODEL.md section 7). */
+export function residualOf(setup: TruckSetup, run: PolicyRun): ResidualDetail {
   const endEngine = run.endEngine;
-  const gN = setup.generalIndex[n];
-  const residual: ResidualDetail = {
+  const gN = setup.generalIndex[setup.n];
+  return {
     engineId: endEngine.id,
     engineAge: run.endAge,
     lifeHours: endEngine.lifeHours,
@@ -74,37 +78,78 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
     priceIndex: gN,
     credit: residualCredit(endEngine.overhaulCost, run.endAge, endEngine.lifeHours, gN),
   };
+}
 
+/** One period's cash: the breakdown by category, CF_y (their sum), CO2 and deductible costs.
+ * The full and the NPV-only paths both call this, so their cash flows are identical. */
+export interface PeriodCash {
+  breakdown: BreakdownEntry;
+  cashFlow: number;
+  co2: number;
+  deductible: number;
+}
+
+export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreciation: number, writeOff: number, credit: number): PeriodCash {
+  const a = setup.a;
+  const t = a.taxRate;
+  const expense = a.rebuildAccounting === 'expense';
+  const r = run.periods[y];
+  const co2 = co2Tonnes(r.fuelLitres, a.co2KgPerLitre);
+  const fuel = r.fuelLitres * a.fuelPrice * setup.fuelIndex[y];
+  const carbon = co2 * a.carbonPrice * setup.carbonIndex[y];
+  const deductible = fuel + carbon + r.lube + r.lostMargin + (expense ? r.overhauls + r.failures : 0);
+  const taxEffect = t * (deductible - r.extraMargin + depreciation + writeOff - credit);
+  const b: BreakdownEntry = {
+    fuel: negate(fuel),
+    carbon: negate(carbon),
+    lube: negate(r.lube),
+    overhauls: negate(r.overhauls),
+    failures: negate(r.failures),
+    capital: negate(r.capital),
+    lostMargin: negate(r.lostMargin),
+    extraMargin: r.extraMargin,
+    taxEffect,
+    residual: credit,
+  };
+  const cashFlow =
+    b.fuel + b.carbon + b.lube + b.overhauls + b.failures + b.capital + b.lostMargin + b.extraMargin + b.taxEffect + b.residual;
+  return { breakdown: b, cashFlow, co2, deductible };
+}
+
+/** Tax, depreciation, residual and cash flow for a policy run. */
+export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash {
+  const n = setup.n;
+  const { depreciation, writeOff, spends } = depreciateSpends(setup, run);
+  const residual = residualOf(setup, run);
   const cashFlows = new Array<number>(n + 1);
   const breakdown = new Array<BreakdownEntry>(n + 1);
   const co2 = new Array<number>(n + 1);
   const deductible = new Array<number>(n + 1);
   for (let y = 0; y <= n; y++) {
-    const r = run.periods[y];
-    co2[y] = co2Tonnes(r.fuelLitres, a.co2KgPerLitre);
-    const fuel = r.fuelLitres * a.fuelPrice * setup.fuelIndex[y];
-    const carbon = co2[y] * a.carbonPrice * setup.carbonIndex[y];
-    deductible[y] = fuel + carbon + r.lube + r.lostMargin + (expense ? r.overhauls + r.failures : 0);
-    const wo = y === n ? writeOff : 0;
-    const credit = y === n ? residual.credit : 0;
-    const taxEffect = t * (deductible[y] - r.extraMargin + depreciation[y] + wo - credit);
-    const b: BreakdownEntry = {
-      fuel: negate(fuel),
-      carbon: negate(carbon),
-      lube: negate(r.lube),
-      overhauls: negate(r.overhauls),
-      failures: negate(r.failures),
-      capital: negate(r.capital),
-      lostMargin: negate(r.lostMargin),
-      extraMargin: r.extraMargin,
-      taxEffect,
-      residual: credit,
-    };
-    breakdown[y] = b;
-    cashFlows[y] =
-      b.fuel + b.carbon + b.lube + b.overhauls + b.failures + b.capital + b.lostMargin + b.extraMargin + b.taxEffect + b.residual;
+    const pc = periodCash(setup, run, y, depreciation[y], y === n ? writeOff : 0, y === n ? residual.credit : 0);
+    co2[y] = pc.co2;
+    deductible[y] = pc.deductible;
+    breakdown[y] = pc.breakdown;
+    cashFlows[y] = pc.cashFlow;
   }
   return { run, n, cashFlows, breakdown, co2Tonnes: co2, deductibleCosts: deductible, depreciation, writeOff, spends, residual };
+}
+
+/**
+ * NPV of a policy run alone, Σ CF_y·DF_y, summed in the same order as
+ * `policyResult` from the same `periodCash`, so it equals the full path's npv
+ * exactly; skips the per-period trace, IRR and the other results (Monte Carlo,
+ * sensitivity).
+ */
+export function policyNpv(setup: TruckSetup, run: PolicyRun): number {
+  const n = setup.n;
+  const { depreciation, writeOff } = depreciateSpends(setup, run);
+  const credit = residualOf(setup, run).credit;
+  let npv = 0;
+  for (let y = 0; y <= n; y++) {
+    npv += periodCash(setup, run, y, depreciation[y], y === n ? writeOff : 0, y === n ? credit : 0).cashFlow * setup.discountFactor[y];
+  }
+  return npv;
 }
 
 /** The per-period trace of a policy for the detailed output (workbook export, timelines). */

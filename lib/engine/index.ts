@@ -54,3 +54,5 @@ export {
 } from './units';
 export { validateCase, CaseValidationError } from '@/lib/validation/case';
 export type { CaseFile, CaseFileInput, CaseProblem } from '@/lib/validation/case';
+export { evaluateNpvs, fleetBestNpv } from './npv-only';
+export type { CaseNpvs } from './npv-only';

@@ -25,6 +25,9 @@ export default async function setup(project: TestProject) {
   const distDir = process.env.NEXT_DIST_DIR || '.next-e2e';
   const env: NodeJS.ProcessEnv = { ...process.env, NEXT_DIST_DIR: distDir, NEXT_TELEMETRY_DISABLED: '1', NODE_ENV: 'production' };
   const built = fs.existsSync(path.join(root, distDir, 'BUILD_ID'));
+  // the Monte Carlo worker is bundled on its own (about a second, so always): the app starts it from .haulcase/
+  const w = spawnSync(path.join(root, 'node_modules/.bin/tsx'), ['scripts/build-workers.ts'], { cwd: root, env, stdio: 'inherit' });
+  if (w.status !== 0) throw new Error('worker build failed');
   if (!(process.env.E2E_REUSE_BUILD === '1' && built)) {
     const b = spawnSync(path.join(root, 'node_modules/.bin/next'), ['build'], { cwd: root, env, stdio: 'inherit' });
     if (b.status !== 0) throw new Error('next build failed');

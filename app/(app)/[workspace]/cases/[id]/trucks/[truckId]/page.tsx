@@ -18,7 +18,7 @@ export default async function TruckPage({ params }: { params: Promise<{ workspac
   return (
     <>
       <PageHeader title={`Truck ${unit}`} subtitle={`In “${c.name}”: cash flows by year and category, engine events, and the case for repowering.`} />
-      <CaseNav slug={workspace} caseId={c.id} current="truck" />
+      <CaseNav slug={workspace} caseId={c.id} current="truck" truckId={unit} />
       <TruckView slug={workspace} caseId={c.id} truckId={unit} />
       <SafetyCaution />
     </>

@@ -1,0 +1,34 @@
+/** Shapes of the risk API's answers, as the screens read them. */
+import type { BreakEven } from '@/lib/engine/sensitivity/break-even';
+import type { SpiderLine, TornadoRow, TwoWayTable } from '@/lib/engine/sensitivity/analyses';
+import type { MonteCarloResult, Summary } from '@/lib/engine/monte-carlo/stats';
+import type { MetricInput, MonteCarloRequest } from '@/lib/validation/risk';
+
+export type { BreakEven, SpiderLine, TornadoRow, TwoWayTable, MonteCarloResult, Summary, MetricInput, MonteCarloRequest };
+
+export interface DriverView {
+  id: string;
+  label: string;
+  unit: string;
+  base: number;
+  min: number;
+  max: number | null;
+}
+
+export interface DriversAnswer {
+  case: { id: number; name: string; status: string; currency: string };
+  trucks: { id: string; engineId: string; repowerOfferId: string }[];
+  truckId: string | null;
+  drivers: DriverView[];
+}
+
+export interface RunView {
+  id: string;
+  status: 'running' | 'done' | 'cancelled' | 'timed-out' | 'failed';
+  iterations: number;
+  done: number;
+  createdAt: string;
+  finishedAt: string | null;
+  error: string | null;
+  result: MonteCarloResult | null;
+}

@@ -1,0 +1,38 @@
+import 'server-only';
+/**
+ * The case/1 a risk analysis runs on: a business case's frozen file once
+ * approved (risk on the numbers that were approved), else the case as the
+ * case page builds it from stored data (lib/cases/evaluate.ts); validated.
+ */
+import type { Access } from '@/lib/auth/access';
+import { loadValidCase } from '@/lib/cases/evaluate';
+import { db } from '@/lib/db';
+import { invalid, notFound } from '@/lib/http';
+import { validateCase, type CaseFile } from '@/lib/validation/case';
+
+export interface RiskCase {
+  id: number;
+  name: string;
+  status: string;
+  caseFile: CaseFile;
+}
+
+/** Route param → case id, or 404 for anything that is not a positive whole number. */
+export function parseCaseId(raw: string): number {
+  const id = Number(raw);
+  if (!Number.isInteger(id) || id <= 0) throw notFound('No such business case.');
+  return id;
+}
+
+export async function loadRiskCase(access: Access, caseId: number): Promise<RiskCase> {
+  const row = await db()('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('id', 'name', 'status', 'frozenCase');
+  if (!row) throw notFound('No such business case.');
+  if (!row.frozenCase) {
+    // the same case the case page evaluates (same loader, same problems)
+    const { file } = await loadValidCase(access, caseId);
+    return { id: row.id, name: row.name, status: row.status, caseFile: file };
+  }
+  const v = validateCase(JSON.parse(row.frozenCase));
+  if (!v.ok) throw invalid(v.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The frozen case is not valid.');
+  return { id: row.id, name: row.name, status: row.status, caseFile: v.value };
+}

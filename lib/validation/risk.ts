@@ -1,0 +1,71 @@
+/**
+ * Request bodies of the sensitivity and Monte Carlo endpoints. Driver ids
+ * ("fuelPrice", "modulePrice@offer-id", "annualHours@*") are checked against
+ * the case on the server (lib/risk/requests.ts), since only it knows the ids.
+ */
+import { z } from 'zod';
+
+const finite = () => z.number().refine(Number.isFinite, 'must be a finite number');
+
+export const metricSchema = z.discriminatedUnion('kind', [
+  z.strictObject({ kind: z.literal('truck-delta'), truckId: z.string().min(1, 'choose a truck') }),
+  z.strictObject({ kind: z.literal('fleet-delta') }),
+  z.strictObject({ kind: z.literal('fleet-best') }),
+]);
+
+const driverIdSchema = z.string().min(1).max(200);
+
+export const tornadoRequestSchema = z.strictObject({
+  metric: metricSchema,
+  drivers: z.array(driverIdSchema).max(200).optional(),
+  relative: z.number().gt(0, 'must be above 0').lt(1, 'must be below 1 (100 %)').default(0.2),
+  ranges: z
+    .record(driverIdSchema, z.strictObject({ low: finite(), high: finite() }).refine((r) => r.low <= r.high, 'low must not exceed high'))
+    .default({}),
+});
+
+export const spiderRequestSchema = z.strictObject({
+  metric: metricSchema,
+  drivers: z.array(driverIdSchema).max(200).optional(),
+  changes: z.array(z.number().min(-0.9, 'must be at least -0.9 (-90 %)').max(2, 'must be at most 2 (+200 %)')).min(2).max(21).optional(),
+});
+
+export const breakEvenRequestSchema = z.strictObject({
+  metric: metricSchema.refine((m) => m.kind !== 'fleet-best', 'break-even needs a ΔNPV metric (truck-delta or fleet-delta)'),
+  drivers: z.array(driverIdSchema).max(200).optional(),
+  ranges: z
+    .record(driverIdSchema, z.tuple([finite(), finite()]).refine(([a, b]) => a < b, 'the range must run from a lower to a higher value'))
+    .default({}),
+});
+
+export const twoWayRequestSchema = z.strictObject({
+  metric: metricSchema,
+  row: driverIdSchema,
+  column: driverIdSchema,
+  rowValues: z.array(finite()).min(2).max(12).optional(),
+  columnValues: z.array(finite()).min(2).max(12).optional(),
+});
+
+export const distributionSchema = z.discriminatedUnion('kind', [
+  z.strictObject({ kind: z.literal('fixed') }),
+  z.strictObject({ kind: z.literal('uniform'), min: finite(), max: finite() }).refine((d) => d.min <= d.max, 'min must not exceed max'),
+  z
+    .strictObject({ kind: z.literal('triangular'), min: finite(), mode: finite(), max: finite() })
+    .refine((d) => d.min <= d.mode && d.mode <= d.max, 'must have min ≤ mode ≤ max'),
+  z
+    .strictObject({ kind: z.literal('normal'), mean: finite(), sd: finite().min(0, 'sd must not be negative'), min: finite(), max: finite() })
+    .refine((d) => d.min <= d.max, 'min must not exceed max'),
+]);
+
+export const MAX_ITERATIONS = 100_000;
+
+export const monteCarloRequestSchema = z.strictObject({
+  iterations: z.number().int('must be a whole number').min(10, 'must be at least 10').max(MAX_ITERATIONS, `must be at most ${MAX_ITERATIONS}`),
+  seed: z.number().int('must be a whole number').min(0, 'must not be negative').max(2 ** 31 - 1, 'must be below 2,147,483,648'),
+  sampleFailures: z.boolean().default(true),
+  distributions: z.array(z.strictObject({ driver: driverIdSchema, distribution: distributionSchema })).max(200).default([]),
+});
+
+export type MetricInput = z.infer<typeof metricSchema>;
+export type MonteCarloRequest = z.infer<typeof monteCarloRequestSchema>;
+export type DistributionInput = z.infer<typeof distributionSchema>;
