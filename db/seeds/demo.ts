@@ -44,7 +44,8 @@ async function insertId(knex: Knex, table: string, values: Record<string, unknow
 /**
  * Seeds the invented demo mine "Aldervane Copper — North Pit" (fleet from
  * scenarios/aldervane-north-pit.json, assumption sets from
- * scenarios/aldervane-assumption-sets.json), one user per role, and a second
+ * scenarios/aldervane-assumption-sets.json), a draft business case over the
+ * whole fleet, one user per role, and a second
  * small workspace so that workspace separation can be seen and tested.
  * Does nothing when the demo workspace already exists.
  */
@@ -94,9 +95,25 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
         engineTypeId: engineIds[engineId], repowerOfferId: offerIds[repowerOfferId] ?? null, ...fields, ...audit,
       });
     }
+    const setIds: Record<string, number> = {};
     for (const s of sets.sets) {
-      await trx('assumption_sets').insert({ workspaceId: ws, name: s.name, assumptions: JSON.stringify(s.assumptions), ...audit });
+      setIds[s.name] = await insertId(trx, 'assumption_sets', { workspaceId: ws, name: s.name, assumptions: JSON.stringify(s.assumptions), ...audit });
     }
+    // A draft business case over the whole fleet, so the demo opens on results.
+    const truckRows = await trx('trucks').where({ workspaceId: ws }).orderBy('unitNumber').select('id');
+    await trx('business_cases').insert({
+      workspaceId: ws,
+      name: 'North Pit fleet — base assumptions',
+      assumptionSetId: setIds.Base,
+      selection: JSON.stringify(truckRows.map((t) => ({ truckId: t.id, repowerOfferId: null }))),
+      plan: JSON.stringify({ budgets: { '0': 3_000_000, '1': 12_000_000, '2': 10_000_000 }, swapsPerMonth: 2, startMonth: '2027-01' }),
+      status: 'draft',
+      version: 1,
+      createdBy: users.analyst,
+      updatedBy: users.analyst,
+      createdAt: now,
+      updatedAt: now,
+    });
     await trx('audit_log').insert({ workspaceId: ws, userId: null, action: 'seed', entity: 'workspace', entityId: String(ws), before: null, after: JSON.stringify({ slug: DEMO_WORKSPACE }), at: now });
   });
   return { created: true };

@@ -1,7 +1,9 @@
 import fs from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+import { hashPassword } from '@/lib/auth/password';
+import { createKnex } from '@/lib/db/connection';
+import { DEMO_PASSWORD, openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
 
 describe('password reset by e-mail and the audit log', () => {
   let page: Page;
@@ -11,7 +13,13 @@ describe('password reset by e-mail and the audit log', () => {
   beforeAll(async () => {
     ({ page, baseURL, close } = await openBrowser());
   });
-  afterAll(async () => close());
+  afterAll(async () => {
+    await close();
+    // Other browser files sign in as the viewer with the demo password: put it back.
+    const k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+    await k('users').where({ email: 'viewer@aldervane.test' }).update({ passwordHash: await hashPassword(DEMO_PASSWORD) });
+    await k.destroy();
+  });
 
   it('resets a password through the mailed link, once', async () => {
     await page.goto(`${baseURL}/sign-in`);
