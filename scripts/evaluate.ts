@@ -4,37 +4,15 @@
  * file, invalid JSON or an invalid case, prints one `path: reason` line per
  * problem on stderr and exits 2.
  */
-import { readFileSync } from 'node:fs';
 import { evaluateCase } from '../lib/engine/evaluate';
-import { validateCase } from '../lib/validation/case';
-
-function fail(lines: string[]): never {
-  process.stderr.write(lines.map((l) => `${l}\n`).join(''));
-  process.exit(2);
-}
+import { fail, readCaseFileOrExit } from './cli-case';
 
 const file = process.argv[2];
 if (!file) fail(['(arguments): usage: npm run --silent evaluate -- <path/to/case.json>']);
-
-let text: string;
-try {
-  text = readFileSync(file, 'utf8');
-} catch (err) {
-  fail([`${file}: cannot read the file (${(err as NodeJS.ErrnoException).code ?? (err as Error).message})`]);
-}
-
-let input: unknown;
-try {
-  input = JSON.parse(text);
-} catch (err) {
-  fail([`${file}: not valid JSON (${(err as Error).message})`]);
-}
-
-const checked = validateCase(input);
-if (!checked.ok) fail(checked.problems.map((p) => `${p.path}: ${p.message}`));
+const checked = readCaseFileOrExit(file);
 
 // A reader that closes early (`| head`) is not an error of ours.
 process.stdout.on('error', (err: NodeJS.ErrnoException) => process.exit(err.code === 'EPIPE' ? 0 : 1));
 
-const result = evaluateCase(checked.value, { trusted: true });
+const result = evaluateCase(checked, { trusted: true });
 process.stdout.write(`${JSON.stringify(result, null, 2)}\n`);
