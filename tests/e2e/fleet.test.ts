@@ -1,9 +1,21 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
+import { createKnex } from '@/lib/db/connection';
 import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+
+/** Puts the demo fleet back as seeded (other browser files compare with it): drops the imported trucks, restores T3-01. */
+async function restoreDemoFleet() {
+  const demo = JSON.parse(fs.readFileSync(path.resolve('scenarios/aldervane-north-pit.json'), 'utf8'));
+  const t301 = demo.trucks.find((t: { id: string }) => t.id === 'T3-01');
+  const k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+  const ws = await k('workspaces').where({ slug: WS }).first('id');
+  await k('trucks').where({ workspaceId: ws.id }).andWhere('unitNumber', 'like', 'T5-%').delete();
+  await k('trucks').where({ workspaceId: ws.id, unitNumber: 'T3-01' }).update({ engineHours: t301.engineHours, loadFactor: t301.loadFactor });
+  await k.destroy();
+}
 
 const HEADER = 'unit_number,payload_class,engine_type,repower_offer,engine_hours_h,remaining_life_h,annual_hours_h,load_factor,tonnes_per_hour,fuel_burn_l_per_h,notes';
 const line = (unit: string, hours: string) => `${unit},300 t,ac-2600-legacy,kestrel-km2700,${hours},52000,6200,0.5,810,,brought in from the planning sheet`;
@@ -21,6 +33,7 @@ describe('fleet register, import and quote documents in the browser', () => {
   afterAll(async () => {
     await close();
     fs.rmSync(dir, { recursive: true, force: true });
+    await restoreDemoFleet();
   });
 
   it('analyst imports a fleet file with an error, sees the row errors, fixes the file and imports it', async () => {
