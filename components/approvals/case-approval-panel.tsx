@@ -2,7 +2,7 @@
 
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
-import useSWR from 'swr';
+import useSWR, { useSWRConfig } from 'swr';
 import type { CaseApprovalView } from '@/lib/approvals/queries';
 import { ApiError, fetcher, sendJson } from '@/lib/fetcher';
 import { StatusBadge } from './status-badge';
@@ -25,6 +25,7 @@ export function CaseApprovalPanel({ workspace, caseId }: { workspace: string; ca
   const [message, setMessage] = useState<{ kind: 'error' | 'ok'; text: string } | null>(null);
   const [pending, setPending] = useState(false);
   const router = useRouter();
+  const { mutate: mutateKey } = useSWRConfig();
 
   if (isLoading) return <section className="card p-4 text-sm text-muted" aria-busy="true">Loading approval status…</section>;
   if (error || !data) return <section className="card p-4 text-sm text-loss" role="alert">Could not load the approval status: {(error as Error)?.message}</section>;
@@ -37,6 +38,8 @@ export function CaseApprovalPanel({ workspace, caseId }: { workspace: string; ca
       setComment('');
       // Reload the status first, so the confirmation never shows beside the old status.
       await mutate();
+      // the case's settings form reads the status and version from this key
+      void mutateKey(base);
       setMessage({ kind: 'ok', text: done });
       if (path === 'revision' && r.id) router.push(`/${workspace}/approvals/${r.id}`);
       else router.refresh();

@@ -58,7 +58,7 @@ export function CasesList({ slug, canEdit }: { slug: string; canEdit: boolean })
                       <button type="button" className="btn py-0.5" onClick={() => act(() => sendJson(`${key}/${c.id}/copy`, 'POST'))}>Copy</button>
                       {c.status === 'draft' || c.status === 'returned' ? (
                         <>
-                          <button type="button" className="btn py-0.5" onClick={() => { const n = window.prompt('New name', c.name); if (n !== null) act(() => sendJson(`${key}/${c.id}`, 'PATCH', { version: c.version, name: n })); }}>Rename</button>
+                          <Link className="btn py-0.5" href={`/${slug}/cases/${c.id}?edit=1`} aria-label={`Edit settings of ${c.name}`}>Edit</Link>
                           <button type="button" className="btn btn-danger py-0.5" onClick={() => { if (window.confirm(`Delete “${c.name}”?`)) act(() => sendJson(`${key}/${c.id}?version=${c.version}`, 'DELETE')); }}>Delete</button>
                         </>
                       ) : null}

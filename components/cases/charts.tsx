@@ -15,6 +15,11 @@ const theme = buildChartTheme({
   tickLength: 4,
   svgLabelSmall: { fill: '#5d646d', fontSize: 11 },
   svgLabelBig: { fill: '#15181c', fontSize: 12 },
+  // visx draws the bottom axis line 2 px in gridColorDark, which read as a dark data series
+  // along the floor of every chart; a thin rule-coloured line is the axis and nothing more.
+  xAxisLineStyles: { stroke: '#e3e4e1', strokeWidth: 1 },
+  yAxisLineStyles: { stroke: '#e3e4e1', strokeWidth: 1 },
+  xTickLineStyles: { stroke: '#e3e4e1', strokeWidth: 1 },
 });
 const MARGIN = { top: 16, right: 20, bottom: 44, left: 88 };
 type Pt = { x: number; y: number };

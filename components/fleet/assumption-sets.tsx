@@ -4,6 +4,7 @@ import { useState } from 'react';
 import useSWR, { useSWRConfig } from 'swr';
 import { ApiError, sendJson } from '@/lib/fetcher';
 import { formatNumber, formatPercent } from '@/lib/format';
+import { DEFAULT_ASSUMPTIONS } from '@/lib/validation/default-assumptions';
 import { assumptionSetInputSchema, type AssumptionSetInput } from '@/lib/validation/fleet';
 import { EntityForm, type FieldSpec } from './entity-form';
 import { api, type AssumptionSetRow, type WorkspaceView } from './types';
@@ -32,19 +33,24 @@ function fields(currency: string): FieldSpec[] {
   ];
 }
 
-/** Named sets of economic assumptions (base, high fuel, low fuel …): edit, copy, delete. */
+/** Named sets of economic assumptions (base, high fuel, low fuel …): new from the model's defaults, edit, copy, delete. */
 export function AssumptionSets({ ws }: { ws: WorkspaceView }) {
   const key = api(ws.slug, 'assumption-sets');
   const { data, error } = useSWR<{ items: AssumptionSetRow[] }>(key);
   const { mutate } = useSWRConfig();
-  const [editing, setEditing] = useState<AssumptionSetRow | null>(null);
+  const [editing, setEditing] = useState<AssumptionSetRow | 'new' | null>(null);
   const [message, setMessage] = useState<string | null>(null);
   if (error) return <p role="alert" className="text-sm text-loss">Could not load assumption sets: {error.message}</p>;
   if (!data) return <p className="text-sm text-muted">Loading assumption sets…</p>;
 
   const save = async (values: AssumptionSetInput) => {
     if (!editing) return;
-    await sendJson(api(ws.slug, `assumption-sets/${editing.id}`), 'PUT', { ...values, version: editing.version });
+    if (editing === 'new') {
+      await sendJson(key, 'POST', values);
+      setMessage(`Added "${values.name}".`);
+    } else {
+      await sendJson(api(ws.slug, `assumption-sets/${editing.id}`), 'PUT', { ...values, version: editing.version });
+    }
     await mutate(key);
     setEditing(null);
   };
@@ -76,19 +82,22 @@ export function AssumptionSets({ ws }: { ws: WorkspaceView }) {
     <section>
       {editing ? (
         <div className="mb-4">
-          <h2 className="mb-2 text-base font-semibold">Edit “{editing.name}”</h2>
+          <h2 className="mb-2 text-base font-semibold">{editing === 'new' ? 'New assumption set' : `Edit “${editing.name}”`}</h2>
+          {editing === 'new' ? <p className="mb-2 text-sm text-muted">Starts from the model&rsquo;s reference values; name it and change what differs for your site.</p> : null}
           <EntityForm
-            key={`${editing.id}:${editing.version}`}
+            key={editing === 'new' ? 'new' : `${editing.id}:${editing.version}`}
             schema={assumptionSetInputSchema}
             fields={fields(ws.currency)}
-            defaultValues={editing as never}
-            submitLabel="Save assumption set"
+            defaultValues={editing === 'new' ? { name: '', notes: '', assumptions: { ...DEFAULT_ASSUMPTIONS, depreciation: { ...DEFAULT_ASSUMPTIONS.depreciation } } } : (editing as never)}
+            submitLabel={editing === 'new' ? 'Add assumption set' : 'Save assumption set'}
             onSubmit={save}
             onCancel={() => setEditing(null)}
-            extraActions={<button type="button" className="btn btn-danger" onClick={() => remove(editing)}>Delete</button>}
+            extraActions={editing === 'new' ? null : <button type="button" className="btn btn-danger" onClick={() => remove(editing)}>Delete</button>}
             testId="assumption-form"
           />
         </div>
+      ) : ws.canEdit ? (
+        <button type="button" className="btn btn-primary mb-2" onClick={() => { setMessage(null); setEditing('new'); }}>New set</button>
       ) : null}
       {message ? <p role="status" className="mb-2 text-sm">{message}</p> : null}
       <div className="card overflow-x-auto">

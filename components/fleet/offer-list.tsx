@@ -2,7 +2,7 @@
 
 import { Fragment, useState } from 'react';
 import useSWR, { useSWRConfig } from 'swr';
-import { sendJson } from '@/lib/fetcher';
+import { ApiError, sendJson } from '@/lib/fetcher';
 import { formatMoney, formatNumber, formatPercent } from '@/lib/format';
 import { offerInputSchema, type OfferInput } from '@/lib/validation/fleet';
 import { EntityForm, type FieldSpec } from './entity-form';
@@ -17,6 +17,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
   const { mutate } = useSWRConfig();
   const [editing, setEditing] = useState<OfferRow | 'new' | null>(null);
   const [open, setOpen] = useState<number | null>(null);
+  const [notice, setNotice] = useState<{ ok: boolean; text: string } | null>(null);
   if (error) return <p role="alert" className="text-sm text-loss">Could not load offers: {error.message}</p>;
   if (!data || !engines.data) return <p className="text-sm text-muted">Loading offers…</p>;
 
@@ -39,6 +40,20 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
     await mutate(key);
     setEditing(null);
   };
+  const remove = async (o: OfferRow) => {
+    if (!window.confirm(`Delete the repower offer ${o.key} from ${o.supplier}, with its quote documents?`)) return;
+    setNotice(null);
+    try {
+      await sendJson(api(ws.slug, `offers/${o.id}?version=${o.version}`), 'DELETE');
+      if (editing !== 'new' && editing?.id === o.id) setEditing(null);
+      if (open === o.id) setOpen(null);
+      setNotice({ ok: true, text: `Deleted ${o.key} and its quote documents.` });
+    } catch (e) {
+      // 409: still in use (the answer names the trucks and cases) or changed by someone else
+      setNotice({ ok: false, text: e instanceof ApiError ? e.message : 'Could not reach the server; nothing was deleted.' });
+    }
+    await mutate(key);
+  };
   const money = (x: number) => formatMoney(x, { negative: ws.negativeStyle });
 
   return (
@@ -60,6 +75,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
       ) : ws.canEdit ? (
         <button type="button" className="btn btn-primary mb-2" onClick={() => setEditing('new')}>Add offer</button>
       ) : null}
+      {notice ? <p role={notice.ok ? 'status' : 'alert'} className={`mb-2 text-sm ${notice.ok ? '' : 'text-loss'}`} data-testid="offer-notice">{notice.text}</p> : null}
       <div className="card overflow-x-auto">
         <table className="data-table" data-testid="offer-table">
           <thead>
@@ -78,7 +94,12 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
                   <td>{o.timing === 'now' ? 'now' : 'at overhaul'}</td>
                   <td className="whitespace-nowrap text-right">
                     <button type="button" className="text-xs text-accent hover:underline" onClick={() => setOpen(open === o.id ? null : o.id)} aria-expanded={open === o.id}>Quotes</button>
-                    {ws.canEdit ? <button type="button" className="ml-3 text-xs text-accent hover:underline" aria-label={`Edit ${o.key}`} onClick={() => setEditing(o)}>Edit</button> : null}
+                    {ws.canEdit ? (
+                      <>
+                        <button type="button" className="ml-3 text-xs text-accent hover:underline" aria-label={`Edit ${o.key}`} onClick={() => setEditing(o)}>Edit</button>
+                        <button type="button" className="ml-3 text-xs text-loss hover:underline" aria-label={`Delete ${o.key}`} onClick={() => remove(o)}>Delete</button>
+                      </>
+                    ) : null}
                   </td>
                 </tr>
                 {open === o.id ? (

@@ -36,7 +36,13 @@ export function QuoteDocuments({ ws, offerId, offerKey }: { ws: WorkspaceView; o
   };
   const remove = async (d: Doc) => {
     if (!window.confirm(`Remove ${d.fileName}?`)) return;
-    await sendJson(`${key}/${d.id}`, 'DELETE');
+    setMessage(null);
+    try {
+      await sendJson(`${key}/${d.id}`, 'DELETE');
+      setMessage(`Removed ${d.fileName}.`);
+    } catch (e) {
+      setMessage(`${(e as Error).message} Nothing was removed.`);
+    }
     await mutate();
   };
 

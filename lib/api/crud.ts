@@ -7,6 +7,7 @@ import { CAN } from '@/lib/auth/roles';
 import { writeAudit } from '@/lib/audit';
 import { db } from '@/lib/db';
 import { conflict, invalid, notFound, parseOr422, readJson, route } from '@/lib/http';
+import { getStorage } from '@/lib/storage';
 import { nowIso } from '@/lib/time';
 
 type Row = Record<string, unknown>;
@@ -28,6 +29,8 @@ export type EntityConfig = {
   toRow: (k: Knex, workspaceId: number, input: Row) => Promise<Row>;
   /** Refuse a delete that would break other rows (409). */
   beforeDelete?: (k: Knex, workspaceId: number, id: number) => Promise<void>;
+  /** Storage keys of files that go with the row (its rows cascade); removed once the delete has committed. */
+  storedFiles?: (k: Knex, workspaceId: number, id: number) => Promise<string[]>;
 };
 
 type Params = { workspace: string };
@@ -49,6 +52,21 @@ async function assertUnique(k: Knex, cfg: EntityConfig, workspaceId: number, val
   if (exceptId !== undefined) q = q.whereNot({ id: exceptId });
   if (await q.first('id')) {
     throw invalid([{ path: cfg.uniqueField, message: `"${String(value)}" is already used by another ${cfg.label} in this workspace` }]);
+  }
+}
+
+/**
+ * Runs after the commit, so a rolled-back delete never loses a file; a file that
+ * cannot be removed is logged and left as an orphan, never a row without its file.
+ */
+async function removeStoredFiles(keys: string[]) {
+  const storage = getStorage();
+  for (const key of keys) {
+    try {
+      await storage.delete(key);
+    } catch (e) {
+      console.error(`[haulcase] could not remove stored file ${key}:`, e);
+    }
   }
 }
 
@@ -112,14 +130,17 @@ export function itemHandlers(cfg: EntityConfig) {
     const id = parseId(p.id);
     const wsId = access.workspace.id;
     const v = new URL(req.url).searchParams.get('version');
-    await db().transaction(async (trx) => {
+    const files = await db().transaction(async (trx) => {
       const before = await trx(cfg.table).where({ id, workspaceId: wsId }).first();
       if (!before) throw notFound(`No such ${cfg.label} in this workspace.`);
       if (v !== null && Number(v) !== before.version) throw conflict();
       if (cfg.beforeDelete) await cfg.beforeDelete(trx, wsId, id);
+      const keys = cfg.storedFiles ? await cfg.storedFiles(trx, wsId, id) : [];
       await trx(cfg.table).where({ id, workspaceId: wsId }).delete();
       await writeAudit(trx, { workspaceId: wsId, userId: access.userId, action: 'delete', entity: cfg.entity, entityId: id, before });
+      return keys;
     });
+    await removeStoredFiles(files);
     return new NextResponse(null, { status: 204 });
   });
   return { GET, PUT, DELETE };

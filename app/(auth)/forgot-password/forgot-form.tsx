@@ -18,7 +18,7 @@ export function ForgotForm() {
       const r = await sendJson<{ message: string }>('/api/password/forgot', 'POST', { email });
       setDone(r.message);
     } catch (err) {
-      const e2 = err as ApiError;
+      const e2 = err instanceof ApiError ? err : new ApiError(0, 'Could not reach the server. Try again.');
       setError(e2.problems[0]?.message ?? e2.message);
     } finally {
       setPending(false);
@@ -32,7 +32,8 @@ export function ForgotForm() {
         <label htmlFor="email" className="label">Email</label>
         <input id="email" name="email" type="email" autoComplete="username" className="field" aria-invalid={Boolean(error)} />
       </div>
-      <div aria-live="polite" className="min-h-5 text-sm text-loss">{error}</div>
+      {/* a 429 (too many requests) reads the same whether or not the address has an account */}
+      <div role="alert" aria-live="polite" className="min-h-5 text-sm text-loss" data-testid="forgot-error">{error}</div>
       <button type="submit" className="btn btn-primary w-full justify-center" disabled={pending}>{pending ? 'Sending…' : 'Mail me a reset link'}</button>
       <p className="text-xs text-muted"><a className="underline" href="/sign-in">Back to sign-in</a></p>
     </form>

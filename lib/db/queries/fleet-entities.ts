@@ -86,6 +86,26 @@ const offerQuery = (k: Knex, ws: number) =>
     .where('o.workspaceId', ws)
     .select('o.*', 'e.key as engineKey');
 
+const listNames = (names: string[]) => (names.length > 3 ? `${names.slice(0, 3).join(', ')} and ${names.length - 3} more` : names.join(', '));
+
+/**
+ * An offer still named by a truck or by a case that is not frozen would leave
+ * those without an offer (the schema would quietly null the trucks'), so the
+ * delete is refused (409) and says who still uses it.
+ */
+async function refuseOfferInUse(k: Knex, ws: number, id: number) {
+  const trucksUsing = (await k('trucks').where({ workspaceId: ws, repowerOfferId: id }).orderBy('unitNumber').select('unitNumber')).map((r) => String(r.unitNumber));
+  const casesUsing = (await k('business_cases').where({ workspaceId: ws }).whereNull('frozenCase').select('name', 'selection'))
+    .filter((c) => (JSON.parse(c.selection || '[]') as Array<{ repowerOfferId: number | null }>).some((s) => s.repowerOfferId === id))
+    .map((c) => `“${c.name}”`);
+  if (!trucksUsing.length && !casesUsing.length) return;
+  const parts = [
+    trucksUsing.length ? `${trucksUsing.length} truck(s) (${listNames(trucksUsing)})` : '',
+    casesUsing.length ? `${casesUsing.length} business case(s) (${listNames(casesUsing)})` : '',
+  ].filter(Boolean);
+  throw conflict(`This repower offer is still named by ${parts.join(' and ')}; give them another offer first. Nothing was deleted.`);
+}
+
 export const offers: EntityConfig = {
   table: 'repower_offers',
   entity: 'repower_offer',
@@ -102,7 +122,9 @@ export const offers: EntityConfig = {
     await assertOwned(k, 'engine_types', ws, input.engineTypeId, 'engineTypeId', 'an engine type');
     return input;
   },
-  // Trucks that named this offer fall back to none (the schema's SET NULL); documents go with it.
+  beforeDelete: refuseOfferInUse,
+  // The documents' rows cascade with the offer; their bytes are removed after the commit.
+  storedFiles: async (k, ws, id) => (await k('quote_documents').where({ workspaceId: ws, offerId: id }).select('storageKey')).map((r) => r.storageKey as string),
 };
 
 // ---------------------------------------------------------------- assumption sets

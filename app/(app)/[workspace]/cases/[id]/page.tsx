@@ -2,17 +2,22 @@ import type { Metadata } from 'next';
 import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { CaseNav } from '@/components/cases/case-nav';
+import { CaseSettings } from '@/components/cases/case-settings';
 import { CaseResults } from '@/components/cases/case-results';
 import { ExportButtons } from '@/components/export/export-buttons';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
+import { CAN } from '@/lib/auth/roles';
 import { fetchCase } from '@/lib/db/queries/cases';
 
 export const metadata: Metadata = { title: 'Case results' };
 
-export default async function CasePage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
+type Props = { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ edit?: string }> };
+
+export default async function CasePage({ params, searchParams }: Props) {
   const { workspace, id } = await params;
+  const { edit } = await searchParams;
   const access = await getPageAccess(workspace);
   const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
   if (!c) notFound();
@@ -20,6 +25,8 @@ export default async function CasePage({ params }: { params: Promise<{ workspace
     <>
       <PageHeader title={c.name} subtitle="NPV of keep, rebuild and repower for every truck; the best policy; the gain of repowering." action={<ExportButtons slug={workspace} caseId={c.id} />} />
       <CaseNav slug={workspace} caseId={c.id} current="results" />
+      {/* the form shows only to editors; the PATCH handler checks the role and status again */}
+      <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
       <CaseResults slug={workspace} caseId={c.id} />
       <div className="mt-4 max-w-2xl"><CaseApprovalPanel workspace={workspace} caseId={c.id} /></div>
       <SafetyCaution />
