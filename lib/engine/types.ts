@@ -226,6 +226,8 @@ export interface DetailedCaseResult {
 /** What a failure-age provider (Monte Carlo) is told when an engine's life starts. */
 export interface FailureAgeContext {
   truckId: string;
+  /** the truck's index in the case's truck list (−1 when the caller did not say) */
+  truckIndex: number;
   policy: PolicyKey;
   engineId: string;
   /** 0 for the engine fitted at the start, then 1, 2, … after each event of the policy */
