@@ -8,7 +8,7 @@ import type { CaseFileInput, Engine, RepowerOffer } from '@/lib/validation/case'
 import { CaseValidationError, validateCase } from '@/lib/validation/case';
 import { createNpvScratch, policyNpv, type NpvScratch } from './cash-flow';
 import { bestPolicy } from './results';
-import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
+import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type TruckSetup } from './setup';
 import { emptyPolicyRun, simulatePolicyInto, type PolicyRun } from './simulate';
 import type { EvaluateOptions, FailureAgeProvider, PolicyKey } from './types';
 
@@ -25,10 +25,12 @@ export interface CaseNpvs {
 export interface NpvWorkspace {
   run: PolicyRun;
   scratch: NpvScratch;
+  /** the last setup of each truck (by index), to lend its hours to the next */
+  setups: (TruckSetup | undefined)[];
 }
 
 export function createNpvWorkspace(): NpvWorkspace {
-  return { run: emptyPolicyRun(), scratch: createNpvScratch() };
+  return { run: emptyPolicyRun(), scratch: createNpvScratch(), setups: [] };
 }
 
 export function createCaseNpvs(count: number): CaseNpvs {
@@ -75,7 +77,8 @@ export function evaluateNpvsInto(
   const count = valid.trucks.length;
   for (let i = 0; i < count; i++) {
     const input = valid.trucks[i];
-    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables);
+    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables, ws.setups[i]);
+    ws.setups[i] = setup;
     const keep = policyNpv(setup, simulatePolicyInto(run, setup, 'keep', failureAge, false, i), scratch);
     const rebuild = policyNpv(setup, simulatePolicyInto(run, setup, 'rebuild', failureAge, false, i), scratch);
     const repower = policyNpv(setup, simulatePolicyInto(run, setup, 'repower', failureAge, false, i), scratch);

@@ -120,7 +120,8 @@ export function buildCaseYearTables(a: ResolvedAssumptions, trucks: readonly Pic
 /**
  * A truck's setup. `tables`, when given, must be built from the same
  * assumptions and reach at least period N; the setup then shares them (its
- * arrays may be longer than N + 1: readers stop at N).
+ * arrays may be longer than N + 1: readers stop at N). `previous`, a setup of
+ * the same truck, lends its hours when they would be the same numbers.
  */
 export function buildTruckSetup(
   truck: Truck,
@@ -128,6 +129,7 @@ export function buildTruckSetup(
   engines: ReadonlyMap<string, Engine>,
   offers: ReadonlyMap<string, RepowerOffer>,
   tables?: YearTables,
+  previous?: TruckSetup,
 ): TruckSetup {
   const start = engines.get(truck.engineId);
   const offer = offers.get(truck.repowerOfferId);
@@ -135,9 +137,16 @@ export function buildTruckSetup(
   if (!start || !offer || !next) throw new Error(`truck ${truck.id}: unknown engine or repower offer`);
 
   const n = truckHorizon(truck, a);
-  const hours = new Float64Array(n + 1);
-  for (let y = 0; y <= n; y++) {
-    hours[y] = y === 0 ? 0 : Math.max(0, Math.min(truck.annualHours, truck.remainingLifeHours - (y - 1) * truck.annualHours));
+  // the same hours as the previous setup of this truck when its hours and N have not moved
+  // (Monte Carlo: a typed array per truck and iteration is mostly allocator work)
+  const same =
+    previous !== undefined && previous.n === n &&
+    previous.truck.annualHours === truck.annualHours && previous.truck.remainingLifeHours === truck.remainingLifeHours;
+  const hours = same ? previous.hours : new Float64Array(n + 1);
+  if (!same) {
+    for (let y = 0; y <= n; y++) {
+      hours[y] = y === 0 ? 0 : Math.max(0, Math.min(truck.annualHours, truck.remainingLifeHours - (y - 1) * truck.annualHours));
+    }
   }
   const years = tables && tables.discountFactor.length > n ? tables : buildYearTables(a, n);
 
