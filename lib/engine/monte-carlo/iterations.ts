@@ -45,6 +45,8 @@ export interface RunControl {
   every?: number;
   /** checked with each progress call; true stops the run (the figures so far are returned) */
   shouldStop?: () => boolean;
+  /** write the npvs here (at least (to − from)·trucks·3 long, e.g. a worker's block of a shared buffer) */
+  into?: Float64Array;
 }
 
 /**
@@ -68,7 +70,8 @@ export function runIterations(
     });
   // the working case's engine objects: drivers change them in place, so this map always reads the sampled law
   const engines = new Map<string, Engine>(work.engines.map((e) => [e.id, e]));
-  const npvs = new Float64Array((to - from) * trucks * POLICY_SLOTS);
+  const npvs = control.into ?? new Float64Array((to - from) * trucks * POLICY_SLOTS);
+  if (npvs.length < (to - from) * trucks * POLICY_SLOTS) throw new RangeError('runIterations: the output buffer is too short');
   const every = control.every ?? 100;
   // one uniform per (truck, engine life), shared by the three policies: the same
   // engine life fails at the same quantile whatever the policy (common random numbers)
@@ -116,7 +119,9 @@ export function runIterations(
       if (control.shouldStop?.()) break;
     }
   }
-  return { npvs: done === to - from ? npvs : npvs.slice(0, done * trucks * POLICY_SLOTS), done };
+  const length = done * trucks * POLICY_SLOTS;
+  if (control.into) return { npvs: npvs.subarray(0, length), done };
+  return { npvs: done === to - from ? npvs : npvs.slice(0, length), done };
 }
 
 /**

@@ -171,36 +171,73 @@ export interface MonteCarloResult {
 
 /** Summaries from the npvs of `runIterations` (concatenated in iteration order). */
 export function summariseRun(truckIds: readonly string[], npvs: Float64Array): MonteCarloResult {
+  const iterations = runLength(truckIds.length, npvs);
+  return {
+    iterations,
+    trucks: summariseTrucks(truckIds, npvs, 0, truckIds.length),
+    fleet: summariseFleet(truckIds.length, npvs),
+  };
+}
+
+/** Whole iterations held in `npvs` for a fleet of `trucks`. */
+export function runLength(trucks: number, npvs: ArrayLike<number>): number {
+  return Math.floor(npvs.length / (trucks * POLICY_SLOTS));
+}
+
+/** Index 0, 1, 2 of the best of keep, rebuild, repower (`bestPolicy`). */
+function bestIndex(keep: number, rebuild: number, repower: number): number {
+  const b = bestPolicy({ keep, rebuild, repower });
+  return b === 'keep' ? 0 : b === 'rebuild' ? 1 : 2;
+}
+
+/**
+ * The risk of trucks [from, to) of a run: each truck's figures depend on its
+ * own samples only, so workers may summarise blocks of trucks side by side.
+ */
+export function summariseTrucks(truckIds: readonly string[], npvs: Float64Array, from: number, to: number): TruckRisk[] {
   const trucks = truckIds.length;
-  const iterations = Math.floor(npvs.length / (trucks * POLICY_SLOTS));
+  const iterations = runLength(trucks, npvs);
+  const count = Math.max(0, to - from);
+  // one pass in memory order over the run, then each truck's samples on their own
+  const deltas = Array.from({ length: count }, () => new Float64Array(iterations));
+  const best = new Float64Array(count * POLICY_SLOTS);
+  for (let i = 0; i < iterations; i++) {
+    for (let k = 0; k < count; k++) {
+      const o = (i * trucks + from + k) * POLICY_SLOTS;
+      deltas[k][i] = npvs[o + 2] - npvs[o + 1];
+      best[k * POLICY_SLOTS + bestIndex(npvs[o], npvs[o + 1], npvs[o + 2])]++;
+    }
+  }
+  return deltas.map((delta, k) => ({
+    id: truckIds[from + k],
+    deltaNpv: summarise(delta, 20),
+    bestShare: {
+      keep: best[k * POLICY_SLOTS] / iterations,
+      rebuild: best[k * POLICY_SLOTS + 1] / iterations,
+      repower: best[k * POLICY_SLOTS + 2] / iterations,
+    },
+  }));
+}
+
+/** The fleet's figures: per iteration, Σ over trucks (in truck order) of Δnpv and of the best policy's npv. */
+export function summariseFleet(trucks: number, npvs: Float64Array): MonteCarloResult['fleet'] {
+  const iterations = runLength(trucks, npvs);
   const fleetDelta = new Float64Array(iterations);
   const fleetBest = new Float64Array(iterations);
-  const perTruck = truckIds.map(() => new Float64Array(iterations));
-  // counts of keep, rebuild, repower as best, 3 per truck (a typed array, not objects keyed by name)
-  const bestCount = new Float64Array(trucks * POLICY_SLOTS);
   for (let i = 0; i < iterations; i++) {
+    let d = 0;
+    let b = 0;
     for (let t = 0; t < trucks; t++) {
       const o = (i * trucks + t) * POLICY_SLOTS;
       const keep = npvs[o];
       const rebuild = npvs[o + 1];
       const repower = npvs[o + 2];
-      const d = repower - rebuild;
-      perTruck[t][i] = d;
-      fleetDelta[i] += d;
-      const b = bestPolicy({ keep, rebuild, repower });
-      const k = b === 'keep' ? 0 : b === 'rebuild' ? 1 : 2;
-      bestCount[t * POLICY_SLOTS + k]++;
-      fleetBest[i] += k === 0 ? keep : k === 1 ? rebuild : repower;
+      d += repower - rebuild;
+      const k = bestIndex(keep, rebuild, repower);
+      b += k === 0 ? keep : k === 1 ? rebuild : repower;
     }
+    fleetDelta[i] = d;
+    fleetBest[i] = b;
   }
-  const share = (t: number) => ({
-    keep: bestCount[t * POLICY_SLOTS] / iterations,
-    rebuild: bestCount[t * POLICY_SLOTS + 1] / iterations,
-    repower: bestCount[t * POLICY_SLOTS + 2] / iterations,
-  });
-  return {
-    iterations,
-    trucks: truckIds.map((id, t) => ({ id, deltaNpv: summarise(perTruck[t], 20), bestShare: share(t) })),
-    fleet: { deltaNpv: summarise(fleetDelta), bestNpv: summarise(fleetBest) },
-  };
+  return { deltaNpv: summarise(fleetDelta), bestNpv: summarise(fleetBest) };
 }
