@@ -80,7 +80,7 @@ export function depreciateSpends(
 export function depreciationInto(setup: TruckSetup, run: PolicyRun, depreciation: Float64Array): number {
   const { a, n } = setup;
   const expense = a.rebuildAccounting === 'expense';
-  depreciation.fill(0, 0, n + 1);
+  for (let y = 0; y <= n; y++) depreciation[y] = 0; // a loop: fill() is a builtin call, dear for a dozen slots
   let writeOff = 0;
   const events = run.events;
   for (let i = 0; i < events.length; i++) {

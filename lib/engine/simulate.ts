@@ -119,7 +119,7 @@ function drawFailureAge(st: RunState, startAge: number): number {
   const e = st.engine;
   if (!st.failureAge) return medianFailureAgeMemo(startAge, e.weibullShape, e.weibullScaleHours);
   const truckId = st.setup.truck.id;
-  const f = st.failureAge({ truckId, truckIndex: st.truckIndex, policy: st.policy, engineId: e.id, lifeIndex: st.lifeIndex, startAge });
+  const f = st.failureAge({ truckId, truckIndex: st.truckIndex, policy: st.policy, engineId: e.id, engine: e, lifeIndex: st.lifeIndex, startAge });
   if (!Number.isFinite(f) || !(f > startAge)) {
     throw new RangeError(`failure age ${f} for truck ${truckId} must be finite and above its start age ${startAge}`);
   }

@@ -68,8 +68,6 @@ export function runIterations(
       const ref = parseDriverId(d.driver);
       return { ref, dist: d.distribution, base: getDriver(validCase, ref) };
     });
-  // the working case's engine objects: drivers change them in place, so this map always reads the sampled law
-  const engines = new Map<string, Engine>(work.engines.map((e) => [e.id, e]));
   const npvs = control.into ?? new Float64Array((to - from) * trucks * POLICY_SLOTS);
   if (npvs.length < (to - from) * trucks * POLICY_SLOTS) throw new RangeError('runIterations: the output buffer is too short');
   const every = control.every ?? 100;
@@ -88,11 +86,12 @@ export function runIterations(
     const us = lifeU[t];
     while (us.length <= ctx.lifeIndex) us.push(uniformFloat64(rng));
     const cache = ages[t];
-    const hit = cache.find(ctx.lifeIndex, ctx.engineId, ctx.startAge);
+    // ctx.engine is the working case's engine object: drivers change it in place, so it holds the sampled law
+    const e = ctx.engine;
+    const hit = cache.find(ctx.lifeIndex, e, ctx.startAge);
     if (hit >= 0) return cache.age[hit];
-    const e = engines.get(ctx.engineId)!;
     const age = sampleWeibullAge(us[ctx.lifeIndex], e.weibullShape, e.weibullScaleHours, ctx.startAge);
-    cache.add(ctx.lifeIndex, ctx.engineId, ctx.startAge, age);
+    cache.add(ctx.lifeIndex, e, ctx.startAge, age);
     return age;
   };
 
@@ -132,7 +131,7 @@ export function runIterations(
 class AgeCache {
   epoch = 1;
   stamp: number[] = [];
-  engine: string[] = [];
+  engine: Engine[] = [];
   start: number[] = [];
   age: number[] = [];
 
@@ -140,14 +139,14 @@ class AgeCache {
     this.epoch++;
   }
 
-  find(life: number, engine: string, start: number): number {
+  find(life: number, engine: Engine, start: number): number {
     for (let k = life * 2; k < life * 2 + 2; k++) {
       if (this.stamp[k] === this.epoch && this.start[k] === start && this.engine[k] === engine) return k;
     }
     return -1;
   }
 
-  add(life: number, engine: string, start: number, age: number): void {
+  add(life: number, engine: Engine, start: number, age: number): void {
     let k = life * 2;
     while (this.stamp.length < k + 2) this.stamp.push(0);
     if (this.stamp[k] === this.epoch) k++;
