@@ -106,7 +106,7 @@ export function residualOf(setup: TruckSetup, run: PolicyRun): ResidualDetail {
 }
 
 /** One period's cash: the breakdown by category, CF_y (their sum), CO2 and deductible costs.
- * The full and the NPV-only paths both compute it with `periodFigures`, so their cash flows are identical. */
+ * The full and the NPV-only paths both compute it with `periodCashFlow`, so their cash flows are identical. */
 export interface PeriodCash {
   breakdown: BreakdownEntry;
   cashFlow: number;
@@ -114,7 +114,7 @@ export interface PeriodCash {
   deductible: number;
 }
 
-/** The amounts of one period before signs: costs positive, as `periodFigures` fills them. */
+/** The amounts of one period before signs: costs positive, as `periodCashFlow` fills them. */
 interface PeriodFigures {
   fuel: number;
   carbon: number;
@@ -123,7 +123,19 @@ interface PeriodFigures {
   taxEffect: number;
 }
 
-function periodFigures(setup: TruckSetup, run: PolicyRun, y: number, depreciation: number, writeOff: number, credit: number, out: PeriodFigures): void {
+/**
+ * CF_y: the signed categories added in breakdown order (the order fixes the
+ * rounding); with `out`, the amounts behind it too (the full path's breakdown).
+ */
+function periodCashFlow(
+  setup: TruckSetup,
+  run: PolicyRun,
+  y: number,
+  depreciation: number,
+  writeOff: number,
+  credit: number,
+  out: PeriodFigures | null,
+): number {
   const a = setup.a;
   const t = a.taxRate;
   const expense = a.rebuildAccounting === 'expense';
@@ -132,24 +144,23 @@ function periodFigures(setup: TruckSetup, run: PolicyRun, y: number, depreciatio
   const fuel = r.fuelLitres * a.fuelPrice * setup.fuelIndex[y];
   const carbon = co2 * a.carbonPrice * setup.carbonIndex[y];
   const deductible = fuel + carbon + r.lube + r.lostMargin + (expense ? r.overhauls + r.failures : 0);
-  out.fuel = fuel;
-  out.carbon = carbon;
-  out.co2 = co2;
-  out.deductible = deductible;
-  out.taxEffect = t * (deductible - r.extraMargin + depreciation + writeOff - credit);
-}
-
-/** CF_y: the signed categories added in breakdown order (the order fixes the rounding). */
-function cashFlowOf(r: PolicyRun['periods'][number], f: PeriodFigures, credit: number): number {
+  const taxEffect = t * (deductible - r.extraMargin + depreciation + writeOff - credit);
+  if (out) {
+    out.fuel = fuel;
+    out.carbon = carbon;
+    out.co2 = co2;
+    out.deductible = deductible;
+    out.taxEffect = taxEffect;
+  }
   return (
-    negate(f.fuel) + negate(f.carbon) + negate(r.lube) + negate(r.overhauls) + negate(r.failures) + negate(r.capital) +
-    negate(r.lostMargin) + r.extraMargin + f.taxEffect + credit
+    negate(fuel) + negate(carbon) + negate(r.lube) + negate(r.overhauls) + negate(r.failures) + negate(r.capital) +
+    negate(r.lostMargin) + r.extraMargin + taxEffect + credit
   );
 }
 
 export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreciation: number, writeOff: number, credit: number): PeriodCash {
   const f: PeriodFigures = { fuel: 0, carbon: 0, co2: 0, deductible: 0, taxEffect: 0 };
-  periodFigures(setup, run, y, depreciation, writeOff, credit, f);
+  const cashFlow = periodCashFlow(setup, run, y, depreciation, writeOff, credit, f);
   const r = run.periods[y];
   const b: BreakdownEntry = {
     fuel: negate(f.fuel),
@@ -163,7 +174,7 @@ export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreci
     taxEffect: f.taxEffect,
     residual: credit,
   };
-  return { breakdown: b, cashFlow: cashFlowOf(r, f, credit), co2: f.co2, deductible: f.deductible };
+  return { breakdown: b, cashFlow, co2: f.co2, deductible: f.deductible };
 }
 
 /** Tax, depreciation, residual and cash flow for a policy run. */
@@ -188,18 +199,17 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
 /** Reusable buffers for `policyNpv` (one per thread of work; sized on demand). */
 export interface NpvScratch {
   depreciation: Float64Array;
-  figures: PeriodFigures;
 }
 
 export function createNpvScratch(): NpvScratch {
-  return { depreciation: new Float64Array(64), figures: { fuel: 0, carbon: 0, co2: 0, deductible: 0, taxEffect: 0 } };
+  return { depreciation: new Float64Array(64) };
 }
 
 const sharedScratch = createNpvScratch();
 
 /**
  * NPV of a policy run alone, Σ CF_y·DF_y, summed in the same order as
- * `policyResult` from the same `periodFigures`, so it equals the full path's
+ * `policyResult` from the same `periodCashFlow`, so it equals the full path's
  * npv exactly; skips the per-period trace, IRR and the other results (Monte
  * Carlo, sensitivity) and allocates nothing per period.
  */
@@ -211,14 +221,11 @@ export function policyNpv(setup: TruckSetup, run: PolicyRun, scratch: NpvScratch
   const end = run.endEngine;
   // the same figure as residualOf(…).credit, without building its record
   const credit = residualCredit(end.overhaulCost, run.endAge, end.lifeHours, setup.generalIndex[n]);
-  const f = scratch.figures;
   const df = setup.discountFactor;
   let npv = 0;
   for (let y = 0; y <= n; y++) {
     const last = y === n;
-    const c = last ? credit : 0;
-    periodFigures(setup, run, y, depreciation[y], last ? writeOff : 0, c, f);
-    npv += cashFlowOf(run.periods[y], f, c) * df[y];
+    npv += periodCashFlow(setup, run, y, depreciation[y], last ? writeOff : 0, last ? credit : 0, null) * df[y];
   }
   return npv;
 }
