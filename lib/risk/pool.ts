@@ -22,7 +22,9 @@ export interface PoolRun {
 
 /** Idle workers kept per bundle, at most this many (two runs at once of two workers each). */
 const MAX_IDLE = 4;
-const idle = new Map<string, Worker[]>();
+// on globalThis, like the job registry, so a hot reload in development does not strand warm workers
+const holder = globalThis as unknown as { __haulcaseMcIdle?: Map<string, Worker[]> };
+const idle = (holder.__haulcaseMcIdle ??= new Map<string, Worker[]>());
 
 function takeWorker(bundle: string): Worker {
   const list = idle.get(bundle) ?? [];
