@@ -1,12 +1,15 @@
 /**
  * Monte Carlo of 10,000 iterations over a synthetic fleet of 100 trucks, with
  * failures sampled and three drivers drawn, in 2 worker threads (the path the
- * app takes), wall time from start to summaries. Target: 1.5 s or less.
+ * app takes), wall time from start to summaries, with fresh and with warm
+ * workers, and the CPU time it took (the machine is shared). Target: 1.5 s or less.
  */
 import { readFileSync } from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { validateCase } from '@/lib/engine';
-import { runIterations, summariseRun, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
+import { runIterations, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
+import type { CaseFileInput } from '@/lib/validation/case';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
 import { runInWorkers } from '@/lib/risk/pool';
 import { syntheticFleet } from './support/synthetic-fleet';
@@ -37,24 +40,46 @@ export async function run(): Promise<void> {
   console.log(`one thread, ${TRUCKS} trucks: ${oneThread.toFixed(0)} iterations/s (${(oneThread * TRUCKS).toFixed(0)} truck-iterations/s)`);
 
   const bundle = await buildMonteCarloWorker();
-  const t0 = performance.now();
-  const pool = runInWorkers(bundle, v.value, spec, { workers: 2, stop: new SharedArrayBuffer(4) });
-  const { npvs, done } = await pool.finished;
-  const ran = performance.now();
-  const result = summariseRun(v.value.trucks.map((t) => t.id), npvs);
-  const total = performance.now() - t0;
-  console.log(
-    `2 workers, ${done.toLocaleString('en-US')} iterations × ${TRUCKS} trucks: ${(total / 1000).toFixed(2)} s ` +
-      `(iterations ${((ran - t0) / 1000).toFixed(2)} s, summaries ${((total - (ran - t0)) / 1000).toFixed(2)} s), ` +
-      `${((done / total) * 1000).toFixed(0)} iterations/s; fleet ΔNPV P50 ${Math.round(result.fleet.deltaNpv.p50).toLocaleString('en-US')}`,
-  );
-  console.log(`target: 10,000 × 100 in ≤ 1.5 s → ${total <= 1500 ? 'met' : 'NOT met'} (${(total / 1000).toFixed(2)} s)`);
+  // first with fresh workers (a server's first run), then again with the same workers, warm (every later run)
+  const cold = await timedRun(bundle, v.value, spec, 'fresh workers');
+  const warm = await timedRun(bundle, v.value, spec, 'warm workers');
+  for (const [label, t] of [['fresh workers', cold], ['warm workers', warm]] as const) {
+    console.log(`target: 10,000 × 100 in ≤ 1.5 s, ${label} → ${t <= 1500 ? 'met' : 'NOT met'} (${(t / 1000).toFixed(2)} s)`);
+  }
 
   // the demo mine as the risk page runs it by default: 24 trucks, 2,000 iterations
   const demo = validateCase(base);
   if (!demo.ok) throw new Error('demo case is not valid');
   const d0 = performance.now();
-  const demoRun = await runInWorkers(bundle, demo.value, { ...spec, iterations: 2000 }, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
-  summariseRun(demo.value.trucks.map((t) => t.id), demoRun.npvs);
-  console.log(`demo mine, 2,000 iterations × ${demo.value.trucks.length} trucks in 2 workers: ${((performance.now() - d0) / 1000).toFixed(2)} s`);
+  await runInWorkers(bundle, demo.value, { ...spec, iterations: 2000 }, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
+  console.log(`demo mine, 2,000 iterations × ${demo.value.trucks.length} trucks in 2 warm workers: ${((performance.now() - d0) / 1000).toFixed(2)} s`);
+}
+
+/** One run in 2 workers, start to summaries; prints wall and CPU time and returns the wall ms. */
+async function timedRun(bundle: string, c: CaseFileInput, spec: MonteCarloSpec, label: string): Promise<number> {
+  const cpu0 = process.cpuUsage(); // all threads of the process: the workers' work too
+  const t0 = performance.now();
+  let ran = 0;
+  const pool = runInWorkers(bundle, c, spec, {
+    workers: 2,
+    stop: new SharedArrayBuffer(4),
+    onProgress: (d) => {
+      if (d === spec.iterations && !ran) ran = performance.now();
+    },
+  });
+  const { done, result } = await pool.finished;
+  const total = performance.now() - t0;
+  const cpu = process.cpuUsage(cpu0);
+  const cpuSeconds = (cpu.user + cpu.system) / 1e6;
+  console.log(
+    `2 ${label}, ${done.toLocaleString('en-US')} iterations × ${c.trucks.length} trucks: ${(total / 1000).toFixed(2)} s ` +
+      `(iterations ${((ran - t0) / 1000).toFixed(2)} s, summaries ${((total - (ran - t0)) / 1000).toFixed(2)} s), ` +
+      `${((done / total) * 1000).toFixed(0)} iterations/s; fleet ΔNPV P50 ${Math.round(result!.fleet.deltaNpv.p50).toLocaleString('en-US')}`,
+  );
+  // other work on the machine shows as fewer cores busy than 2: then the wall time is not the code's alone
+  console.log(
+    `  CPU ${cpuSeconds.toFixed(2)} s (${((cpuSeconds * 1000) / total).toFixed(2)} cores busy), ` +
+      `${(done / cpuSeconds).toFixed(0)} iterations per CPU-second; load average ${os.loadavg()[0].toFixed(2)}`,
+  );
+  return total;
 }

@@ -4,10 +4,10 @@
  * per-period breakdown by category that adds up to each CF_y.
  */
 import { co2Tonnes } from './fuel';
-import { depreciationSchedule, placeSchedule } from './depreciation';
+import { addScheduleInto, depreciationSchedule, placeSchedule } from './depreciation';
 import type { PolicyRun } from './simulate';
 import type { TruckSetup } from './setup';
-import type { BreakdownEntry, DepreciatedSpend, PeriodDetail, PolicyDetail, ResidualDetail } from './types';
+import type { BreakdownEntry, DepreciatedSpend, EngineEvent, PeriodDetail, PolicyDetail, ResidualDetail } from './types';
 
 /**
  * Residual credit of the engine fitted at the end of year N: its overhaul cost
@@ -41,6 +41,14 @@ export interface PolicyCash {
   residual: ResidualDetail;
 }
 
+/** The category an event's spend is depreciated under, or null when it is not (or costs nothing). */
+function depreciatedAs(ev: EngineEvent, expense: boolean): DepreciatedSpend['category'] | null {
+  if (ev.cost === 0) return null;
+  if (ev.kind === 'repower') return 'capital';
+  if (expense) return null;
+  return ev.kind === 'overhaul' ? 'overhauls' : 'failures';
+}
+
 /** Depreciation of a run's capital spends: the repower always, overhauls and repairs when capitalised. */
 export function depreciateSpends(
   setup: TruckSetup,
@@ -52,11 +60,8 @@ export function depreciateSpends(
   let writeOff = 0;
   const spends: DepreciatedSpend[] = [];
   for (const ev of run.events) {
-    let category: DepreciatedSpend['category'];
-    if (ev.kind === 'repower') category = 'capital';
-    else if (expense) continue;
-    else category = ev.kind === 'overhaul' ? 'overhauls' : 'failures';
-    if (ev.cost === 0) continue;
+    const category = depreciatedAs(ev, expense);
+    if (category === null) continue;
     const schedule = depreciationSchedule(ev.cost, a.depreciation); // empty under "none": no relief, no write-off
     const placed = placeSchedule(schedule, ev.period, n);
     for (let y = 1; y <= n; y++) depreciation[y] += placed.byPeriod[y];
@@ -64,6 +69,26 @@ export function depreciateSpends(
     spends.push({ period: ev.period, category, amount: ev.cost, schedule, byPeriod: placed.byPeriod, writeOff: placed.writeOff });
   }
   return { depreciation, writeOff, spends };
+}
+
+/**
+ * `depreciateSpends` into a caller's array (periods 0..N set), without the
+ * per-spend record; returns the write-off. Each D_j lands alone in its year,
+ * which is what adding the placed schedule's zeros and D_j comes to, so the
+ * sums are the same numbers.
+ */
+export function depreciationInto(setup: TruckSetup, run: PolicyRun, depreciation: Float64Array): number {
+  const { a, n } = setup;
+  const expense = a.rebuildAccounting === 'expense';
+  for (let y = 0; y <= n; y++) depreciation[y] = 0; // a loop: fill() is a builtin call, dear for a dozen slots
+  let writeOff = 0;
+  const events = run.events;
+  for (let i = 0; i < events.length; i++) {
+    const ev = events[i];
+    if (depreciatedAs(ev, expense) === null) continue;
+    writeOff += addScheduleInto(depreciationSchedule(ev.cost, a.depreciation), ev.period, n, depreciation);
+  }
+  return writeOff;
 }
 
 /** Residual credit of the engine fitted at the end of a run (MODEL.md section 7). */
@@ -81,7 +106,7 @@ export function residualOf(setup: TruckSetup, run: PolicyRun): ResidualDetail {
 }
 
 /** One period's cash: the breakdown by category, CF_y (their sum), CO2 and deductible costs.
- * The full and the NPV-only paths both call this, so their cash flows are identical. */
+ * The full and the NPV-only paths both compute it with `periodCashFlow`, so their cash flows are identical. */
 export interface PeriodCash {
   breakdown: BreakdownEntry;
   cashFlow: number;
@@ -89,7 +114,28 @@ export interface PeriodCash {
   deductible: number;
 }
 
-export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreciation: number, writeOff: number, credit: number): PeriodCash {
+/** The amounts of one period before signs: costs positive, as `periodCashFlow` fills them. */
+interface PeriodFigures {
+  fuel: number;
+  carbon: number;
+  co2: number;
+  deductible: number;
+  taxEffect: number;
+}
+
+/**
+ * CF_y: the signed categories added in breakdown order (the order fixes the
+ * rounding); with `out`, the amounts behind it too (the full path's breakdown).
+ */
+function periodCashFlow(
+  setup: TruckSetup,
+  run: PolicyRun,
+  y: number,
+  depreciation: number,
+  writeOff: number,
+  credit: number,
+  out: PeriodFigures | null,
+): number {
   const a = setup.a;
   const t = a.taxRate;
   const expense = a.rebuildAccounting === 'expense';
@@ -99,21 +145,36 @@ export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreci
   const carbon = co2 * a.carbonPrice * setup.carbonIndex[y];
   const deductible = fuel + carbon + r.lube + r.lostMargin + (expense ? r.overhauls + r.failures : 0);
   const taxEffect = t * (deductible - r.extraMargin + depreciation + writeOff - credit);
+  if (out) {
+    out.fuel = fuel;
+    out.carbon = carbon;
+    out.co2 = co2;
+    out.deductible = deductible;
+    out.taxEffect = taxEffect;
+  }
+  return (
+    negate(fuel) + negate(carbon) + negate(r.lube) + negate(r.overhauls) + negate(r.failures) + negate(r.capital) +
+    negate(r.lostMargin) + r.extraMargin + taxEffect + credit
+  );
+}
+
+export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreciation: number, writeOff: number, credit: number): PeriodCash {
+  const f: PeriodFigures = { fuel: 0, carbon: 0, co2: 0, deductible: 0, taxEffect: 0 };
+  const cashFlow = periodCashFlow(setup, run, y, depreciation, writeOff, credit, f);
+  const r = run.periods[y];
   const b: BreakdownEntry = {
-    fuel: negate(fuel),
-    carbon: negate(carbon),
+    fuel: negate(f.fuel),
+    carbon: negate(f.carbon),
     lube: negate(r.lube),
     overhauls: negate(r.overhauls),
     failures: negate(r.failures),
     capital: negate(r.capital),
     lostMargin: negate(r.lostMargin),
     extraMargin: r.extraMargin,
-    taxEffect,
+    taxEffect: f.taxEffect,
     residual: credit,
   };
-  const cashFlow =
-    b.fuel + b.carbon + b.lube + b.overhauls + b.failures + b.capital + b.lostMargin + b.extraMargin + b.taxEffect + b.residual;
-  return { breakdown: b, cashFlow, co2, deductible };
+  return { breakdown: b, cashFlow, co2: f.co2, deductible: f.deductible };
 }
 
 /** Tax, depreciation, residual and cash flow for a policy run. */
@@ -135,19 +196,36 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
   return { run, n, cashFlows, breakdown, co2Tonnes: co2, deductibleCosts: deductible, depreciation, writeOff, spends, residual };
 }
 
+/** Reusable buffers for `policyNpv` (one per thread of work; sized on demand). */
+export interface NpvScratch {
+  depreciation: Float64Array;
+}
+
+export function createNpvScratch(): NpvScratch {
+  return { depreciation: new Float64Array(64) };
+}
+
+const sharedScratch = createNpvScratch();
+
 /**
  * NPV of a policy run alone, Σ CF_y·DF_y, summed in the same order as
- * `policyResult` from the same `periodCash`, so it equals the full path's npv
- * exactly; skips the per-period trace, IRR and the other results (Monte Carlo,
- * sensitivity).
+ * `policyResult` from the same `periodCashFlow`, so it equals the full path's
+ * npv exactly; skips the per-period trace, IRR and the other results (Monte
+ * Carlo, sensitivity) and allocates nothing per period.
  */
-export function policyNpv(setup: TruckSetup, run: PolicyRun): number {
+export function policyNpv(setup: TruckSetup, run: PolicyRun, scratch: NpvScratch = sharedScratch): number {
   const n = setup.n;
-  const { depreciation, writeOff } = depreciateSpends(setup, run);
-  const credit = residualOf(setup, run).credit;
+  if (scratch.depreciation.length <= n) scratch.depreciation = new Float64Array(2 * (n + 1));
+  const depreciation = scratch.depreciation;
+  const writeOff = depreciationInto(setup, run, depreciation);
+  const end = run.endEngine;
+  // the same figure as residualOf(…).credit, without building its record
+  const credit = residualCredit(end.overhaulCost, run.endAge, end.lifeHours, setup.generalIndex[n]);
+  const df = setup.discountFactor;
   let npv = 0;
   for (let y = 0; y <= n; y++) {
-    npv += periodCash(setup, run, y, depreciation[y], y === n ? writeOff : 0, y === n ? credit : 0).cashFlow * setup.discountFactor[y];
+    const last = y === n;
+    npv += periodCashFlow(setup, run, y, depreciation[y], last ? writeOff : 0, last ? credit : 0, null) * df[y];
   }
   return npv;
 }

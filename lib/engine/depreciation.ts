@@ -100,6 +100,21 @@ export interface PlacedSchedule {
  */
 export function placeSchedule(schedule: readonly number[], spendPeriod: number, horizonYears: number): PlacedSchedule {
   const byPeriod = new Array<number>(horizonYears + 1).fill(0);
+  const writeOff = addScheduleInto(schedule, spendPeriod, horizonYears, byPeriod);
+  return { byPeriod, writeOff };
+}
+
+/**
+ * `placeSchedule` adding into an existing by-period array (each D_j to its
+ * own year); returns the spend's write-off, summed on its own from 0 so that
+ * it is the same number however the caller totals it.
+ */
+export function addScheduleInto(
+  schedule: readonly number[],
+  spendPeriod: number,
+  horizonYears: number,
+  byPeriod: { [y: number]: number },
+): number {
   let writeOff = 0;
   const first = Math.max(spendPeriod, 1);
   for (let j = 0; j < schedule.length; j++) {
@@ -107,5 +122,5 @@ export function placeSchedule(schedule: readonly number[], spendPeriod: number, 
     if (year <= horizonYears) byPeriod[year] += schedule[j];
     else writeOff += schedule[j];
   }
-  return { byPeriod, writeOff };
+  return writeOff;
 }

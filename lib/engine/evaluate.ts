@@ -12,7 +12,7 @@ import {
 import { assembleCashFlows, buildPolicyDetail, type PolicyCash } from './cash-flow';
 import { rollUpFleet } from './fleet';
 import { bestPolicy, comparePolicies, policyResult } from './results';
-import { buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
+import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
 import { simulatePolicy } from './simulate';
 import type {
   CaseResult,
@@ -41,12 +41,14 @@ function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, detailed: bo
   const offers = new Map<string, RepowerOffer>(c.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
   const out: Evaluated[] = [];
   const r = a.discountRate;
-  for (const input of c.trucks) {
+  const tables = buildCaseYearTables(a, c.trucks);
+  for (let index = 0; index < c.trucks.length; index++) {
+    const input = c.trucks[index];
     if (only !== undefined && input.id !== only) continue;
-    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers);
+    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables);
     const df = setup.discountFactor;
     const run = (policy: PolicyKey): PolicyCash =>
-      assembleCashFlows(setup, simulatePolicy(setup, policy, options.failureAge, detailed));
+      assembleCashFlows(setup, simulatePolicy(setup, policy, options.failureAge, detailed, index));
     const keep = run('keep');
     const rebuild = run('rebuild');
     const repower = run('repower');

@@ -6,11 +6,11 @@
  */
 import type { CaseFileInput, Engine, RepowerOffer } from '@/lib/validation/case';
 import { CaseValidationError, validateCase } from '@/lib/validation/case';
-import { policyNpv } from './cash-flow';
+import { createNpvScratch, policyNpv, type NpvScratch } from './cash-flow';
 import { bestPolicy } from './results';
-import { buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
-import { simulatePolicy } from './simulate';
-import type { EvaluateOptions, PolicyKey } from './types';
+import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type TruckSetup } from './setup';
+import { emptyPolicyRun, simulatePolicyInto, type PolicyRun } from './simulate';
+import type { EvaluateOptions, FailureAgeProvider, PolicyKey } from './types';
 
 /** Npv of each policy per truck, in the case's truck order. */
 export interface CaseNpvs {
@@ -19,6 +19,28 @@ export interface CaseNpvs {
   rebuild: Float64Array;
   repower: Float64Array;
   best: PolicyKey[];
+}
+
+/** Buffers reused from one evaluation to the next (Monte Carlo keeps one per worker). */
+export interface NpvWorkspace {
+  run: PolicyRun;
+  scratch: NpvScratch;
+  /** the last setup of each truck (by index), to lend its hours to the next */
+  setups: (TruckSetup | undefined)[];
+}
+
+export function createNpvWorkspace(): NpvWorkspace {
+  return { run: emptyPolicyRun(), scratch: createNpvScratch(), setups: [] };
+}
+
+export function createCaseNpvs(count: number): CaseNpvs {
+  return {
+    truckIds: new Array<string>(count),
+    keep: new Float64Array(count),
+    rebuild: new Float64Array(count),
+    repower: new Float64Array(count),
+    best: new Array<PolicyKey>(count),
+  };
 }
 
 /**
@@ -32,30 +54,40 @@ export function evaluateNpvs(c: CaseFileInput, options: EvaluateOptions = {}): C
     if (!v.ok) throw new CaseValidationError(v.problems);
     valid = v.value;
   }
+  const out = createCaseNpvs(valid.trucks.length);
+  evaluateNpvsInto(valid, options.failureAge, out, createNpvWorkspace());
+  return out;
+}
+
+/**
+ * `evaluateNpvs` of a valid case into `out` (sized for its trucks), reusing
+ * the workspace's buffers: what Monte Carlo calls once per iteration.
+ */
+export function evaluateNpvsInto(
+  valid: CaseFileInput,
+  failureAge: FailureAgeProvider | undefined,
+  out: CaseNpvs,
+  ws: NpvWorkspace,
+): void {
   const a = resolveAssumptions(valid.assumptions);
   const engines = new Map<string, Engine>(valid.engines.map((e) => [e.id, e]));
   const offers = new Map<string, RepowerOffer>(valid.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
+  const tables = buildCaseYearTables(a, valid.trucks);
+  const { run, scratch } = ws;
   const count = valid.trucks.length;
-  const out: CaseNpvs = {
-    truckIds: new Array<string>(count),
-    keep: new Float64Array(count),
-    rebuild: new Float64Array(count),
-    repower: new Float64Array(count),
-    best: new Array<PolicyKey>(count),
-  };
   for (let i = 0; i < count; i++) {
     const input = valid.trucks[i];
-    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers);
-    const keep = policyNpv(setup, simulatePolicy(setup, 'keep', options.failureAge));
-    const rebuild = policyNpv(setup, simulatePolicy(setup, 'rebuild', options.failureAge));
-    const repower = policyNpv(setup, simulatePolicy(setup, 'repower', options.failureAge));
+    const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables, ws.setups[i]);
+    ws.setups[i] = setup;
+    const keep = policyNpv(setup, simulatePolicyInto(run, setup, 'keep', failureAge, false, i), scratch);
+    const rebuild = policyNpv(setup, simulatePolicyInto(run, setup, 'rebuild', failureAge, false, i), scratch);
+    const repower = policyNpv(setup, simulatePolicyInto(run, setup, 'repower', failureAge, false, i), scratch);
     out.truckIds[i] = input.id;
     out.keep[i] = keep;
     out.rebuild[i] = rebuild;
     out.repower[i] = repower;
     out.best[i] = bestPolicy({ keep, rebuild, repower });
   }
-  return out;
 }
 
 /** The fleet's best-mix npv: each truck's best policy, summed in truck order as `rollUpFleet` does. */

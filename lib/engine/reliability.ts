@@ -42,7 +42,16 @@ export function conditionalReliability(t: number, age: number, shape: number, sc
  * @example medianFailureAge(0, 1, 1000) // = 1000·ln 2 ≈ 693.147
  */
 export function medianFailureAge(age: number, shape: number, scale: number): number {
-  return scale * Math.pow(Math.pow(age / scale, shape) + Math.LN2, 1 / shape);
+  return scale * Math.pow(ageTerm(age, shape, scale) + Math.LN2, 1 / shape);
+}
+
+/**
+ * (a/η)^β; for a new engine (a = 0) that is exactly +0 for every β > 0, so the
+ * power is skipped (most lives start new, and the powers are the costly part
+ * of a Monte Carlo iteration).
+ */
+function ageTerm(age: number, shape: number, scale: number): number {
+  return age === 0 ? 0 : Math.pow(age / scale, shape);
 }
 
 /**
@@ -65,6 +74,6 @@ export function medianResidualLife(age: number, shape: number, scale: number): n
  */
 export function sampleWeibullAge(u: number, shape: number, scale: number, currentAge = 0): number {
   const p = Math.min(Math.max(u, Number.EPSILON), 1 - Number.EPSILON);
-  const age = scale * Math.pow(Math.pow(currentAge / scale, shape) - Math.log1p(-p), 1 / shape);
+  const age = scale * Math.pow(ageTerm(currentAge, shape, scale) - Math.log1p(-p), 1 / shape);
   return age > currentAge ? age : currentAge + Number.EPSILON * Math.max(1, currentAge);
 }

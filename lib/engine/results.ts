@@ -100,9 +100,11 @@ export function comparePolicies(
  * @example bestPolicy({ keep: -10, rebuild: -10 + 5e-7, repower: -20 }) // = 'rebuild'
  */
 export function bestPolicy(npvs: Record<PolicyKey, number>): PolicyKey {
-  const top = Math.max(npvs.keep, npvs.rebuild, npvs.repower);
-  for (const key of ['rebuild', 'keep', 'repower'] as const) {
-    if (npvs[key] > top - ZERO) return key;
-  }
+  // written out rather than looped over the keys: Monte Carlo asks this per truck and iteration
+  const { keep, rebuild, repower } = npvs;
+  const floor = Math.max(keep, rebuild, repower) - ZERO;
+  if (rebuild > floor) return 'rebuild';
+  if (keep > floor) return 'keep';
+  if (repower > floor) return 'repower';
   return 'rebuild';
 }

@@ -21,11 +21,12 @@ export interface TruckSetup {
   /** N: years in the horizon */
   n: number;
   /** H_y for y = 0..N (H_0 = 0) */
-  hours: number[];
-  discountFactor: number[];
-  fuelIndex: number[];
-  carbonIndex: number[];
-  generalIndex: number[];
+  hours: Float64Array;
+  /** by period, read for y = 0..N only (shared tables may be longer) */
+  discountFactor: Float64Array;
+  fuelIndex: Float64Array;
+  carbonIndex: Float64Array;
+  generalIndex: Float64Array;
   powerKw: number;
   calibration: number;
   burnStart: number;
@@ -76,31 +77,78 @@ export function priceIndex(growth: number, period: number): number {
   return period === 0 ? 1 : Math.pow(1 + growth, period - 1);
 }
 
+/**
+ * Discount factors and price indices by period 0..n. They depend on the
+ * assumptions alone, not on the truck, so one table serves every truck of a
+ * case (a truck reads its first N + 1 entries).
+ */
+export interface YearTables {
+  discountFactor: Float64Array;
+  fuelIndex: Float64Array;
+  carbonIndex: Float64Array;
+  generalIndex: Float64Array;
+}
+
+export function buildYearTables(a: ResolvedAssumptions, n: number): YearTables {
+  // typed arrays: one element kind for every table, so the hot loops' loads stay monomorphic
+  const discountFactor = new Float64Array(n + 1);
+  const fuelIndex = new Float64Array(n + 1);
+  const carbonIndex = new Float64Array(n + 1);
+  const generalIndex = new Float64Array(n + 1);
+  const half = a.timing === 'mid-year' ? 0.5 : 0;
+  for (let y = 0; y <= n; y++) {
+    discountFactor[y] = y === 0 ? 1 : Math.pow(1 + a.discountRate, -(y - half));
+    fuelIndex[y] = priceIndex(a.fuelEscalation, y);
+    carbonIndex[y] = priceIndex(a.carbonEscalation, y);
+    generalIndex[y] = priceIndex(a.inflation, y);
+  }
+  return { discountFactor, fuelIndex, carbonIndex, generalIndex };
+}
+
+/** N of a truck under the assumptions (see `horizonYears`). */
+export function truckHorizon(truck: Pick<Truck, 'remainingLifeHours' | 'annualHours'>, a: ResolvedAssumptions): number {
+  return horizonYears(truck.remainingLifeHours, truck.annualHours, a.horizonYears);
+}
+
+/** Year tables long enough for every truck of a case. */
+export function buildCaseYearTables(a: ResolvedAssumptions, trucks: readonly Pick<Truck, 'remainingLifeHours' | 'annualHours'>[]): YearTables {
+  let longest = 1;
+  for (const t of trucks) longest = Math.max(longest, truckHorizon(t, a));
+  return buildYearTables(a, longest);
+}
+
+/**
+ * A truck's setup. `tables`, when given, must be built from the same
+ * assumptions and reach at least period N; the setup then shares them (its
+ * arrays may be longer than N + 1: readers stop at N). `previous`, a setup of
+ * the same truck, lends its hours when they would be the same numbers.
+ */
 export function buildTruckSetup(
   truck: Truck,
   a: ResolvedAssumptions,
   engines: ReadonlyMap<string, Engine>,
   offers: ReadonlyMap<string, RepowerOffer>,
+  tables?: YearTables,
+  previous?: TruckSetup,
 ): TruckSetup {
   const start = engines.get(truck.engineId);
   const offer = offers.get(truck.repowerOfferId);
   const next = offer && engines.get(offer.engineId);
   if (!start || !offer || !next) throw new Error(`truck ${truck.id}: unknown engine or repower offer`);
 
-  const n = horizonYears(truck.remainingLifeHours, truck.annualHours, a.horizonYears);
-  const hours = new Array<number>(n + 1);
-  const discountFactor = new Array<number>(n + 1);
-  const fuelIndex = new Array<number>(n + 1);
-  const carbonIndex = new Array<number>(n + 1);
-  const generalIndex = new Array<number>(n + 1);
-  const half = a.timing === 'mid-year' ? 0.5 : 0;
-  for (let y = 0; y <= n; y++) {
-    hours[y] = y === 0 ? 0 : Math.max(0, Math.min(truck.annualHours, truck.remainingLifeHours - (y - 1) * truck.annualHours));
-    discountFactor[y] = y === 0 ? 1 : Math.pow(1 + a.discountRate, -(y - half));
-    fuelIndex[y] = priceIndex(a.fuelEscalation, y);
-    carbonIndex[y] = priceIndex(a.carbonEscalation, y);
-    generalIndex[y] = priceIndex(a.inflation, y);
+  const n = truckHorizon(truck, a);
+  // the same hours as the previous setup of this truck when its hours and N have not moved
+  // (Monte Carlo: a typed array per truck and iteration is mostly allocator work)
+  const same =
+    previous !== undefined && previous.n === n &&
+    previous.truck.annualHours === truck.annualHours && previous.truck.remainingLifeHours === truck.remainingLifeHours;
+  const hours = same ? previous.hours : new Float64Array(n + 1);
+  if (!same) {
+    for (let y = 0; y <= n; y++) {
+      hours[y] = y === 0 ? 0 : Math.max(0, Math.min(truck.annualHours, truck.remainingLifeHours - (y - 1) * truck.annualHours));
+    }
   }
+  const years = tables && tables.discountFactor.length > n ? tables : buildYearTables(a, n);
 
   const powerKw = powerDemandKw(truck.loadFactor, start.ratedKw);
   const modelledStart = modelledBurnLitresPerHour(powerKw, start.bsfcGPerKwh, a.fuelDensityKgPerL);
@@ -116,10 +164,10 @@ export function buildTruckSetup(
     next,
     n,
     hours,
-    discountFactor,
-    fuelIndex,
-    carbonIndex,
-    generalIndex,
+    discountFactor: years.discountFactor,
+    fuelIndex: years.fuelIndex,
+    carbonIndex: years.carbonIndex,
+    generalIndex: years.generalIndex,
     powerKw,
     calibration,
     burnStart,

@@ -45,6 +45,11 @@ function emptyPeriod(): PeriodRun {
   };
 }
 
+function clearPeriod(p: PeriodRun): void {
+  p.hours = 0; p.fuelLitres = 0; p.tonnes = 0; p.extraTonnes = 0; p.oilServices = 0; p.topUpLitres = 0;
+  p.downtimeDays = 0; p.lube = 0; p.overhauls = 0; p.failures = 0; p.capital = 0; p.lostMargin = 0; p.extraMargin = 0;
+}
+
 /**
  * Oil services in a segment from age a1 to a2 with interval I: one at every
  * multiple of I in (a1, a2], less one when a2 is itself a multiple and the
@@ -71,6 +76,8 @@ interface RunState {
   periods: PeriodRun[];
   segments: Segment[];
   events: EngineEvent[];
+  /** index of the truck in its case, passed to the failure-age provider */
+  truckIndex: number;
   engine: Engine;
   burn: number;
   age: number;
@@ -81,11 +88,38 @@ interface RunState {
   extraTph: number;
 }
 
+/**
+ * A few recent median failure ages by (start age, β, η): on the median path
+ * every new engine of a type has the same one, and the three policies of a
+ * truck share the first, so most lives reuse a number instead of taking two
+ * powers. Same arguments, same function: the same number.
+ */
+const MEMO = 8;
+const memoAge = new Float64Array(MEMO).fill(Number.NaN);
+const memoShape = new Float64Array(MEMO);
+const memoScale = new Float64Array(MEMO);
+const memoValue = new Float64Array(MEMO);
+let memoNext = 0;
+
+function medianFailureAgeMemo(age: number, shape: number, scale: number): number {
+  for (let k = 0; k < MEMO; k++) {
+    if (memoAge[k] === age && memoShape[k] === shape && memoScale[k] === scale) return memoValue[k];
+  }
+  const value = medianFailureAge(age, shape, scale);
+  const k = memoNext;
+  memoNext = (memoNext + 1) % MEMO;
+  memoAge[k] = age;
+  memoShape[k] = shape;
+  memoScale[k] = scale;
+  memoValue[k] = value;
+  return value;
+}
+
 function drawFailureAge(st: RunState, startAge: number): number {
   const e = st.engine;
-  if (!st.failureAge) return medianFailureAge(startAge, e.weibullShape, e.weibullScaleHours);
+  if (!st.failureAge) return medianFailureAgeMemo(startAge, e.weibullShape, e.weibullScaleHours);
   const truckId = st.setup.truck.id;
-  const f = st.failureAge({ truckId, policy: st.policy, engineId: e.id, lifeIndex: st.lifeIndex, startAge });
+  const f = st.failureAge({ truckId, truckIndex: st.truckIndex, policy: st.policy, engineId: e.id, engine: e, lifeIndex: st.lifeIndex, startAge });
   if (!Number.isFinite(f) || !(f > startAge)) {
     throw new RangeError(`failure age ${f} for truck ${truckId} must be finite and above its start age ${startAge}`);
   }
@@ -150,6 +184,11 @@ function nextEventKind(st: RunState): EventKind {
   return st.failAt < st.engine.lifeHours - ZERO ? 'failure' : 'overhaul';
 }
 
+/** A run with no periods yet, to be filled (and refilled) by `simulatePolicyInto`. */
+export function emptyPolicyRun(): PolicyRun {
+  return { policy: 'keep', periods: [], segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0 };
+}
+
 /**
  * Run one policy over the horizon. Deterministic on the median path unless a
  * failure-age provider is given; pure (the setup is only read). With `trace`
@@ -160,12 +199,33 @@ export function simulatePolicy(
   policy: PolicyKey,
   failureAge?: FailureAgeProvider,
   trace = false,
+  truckIndex = -1,
+): PolicyRun {
+  return simulatePolicyInto(emptyPolicyRun(), setup, policy, failureAge, trace, truckIndex);
+}
+
+/**
+ * `simulatePolicy` writing into `run`, whose period objects are zeroed and
+ * reused (Monte Carlo refills one run per policy instead of allocating some
+ * fifty objects per truck and iteration). Periods past N may be left over from
+ * a longer truck: readers stop at N. Events and segments are new each time.
+ */
+export function simulatePolicyInto(
+  run: PolicyRun,
+  setup: TruckSetup,
+  policy: PolicyKey,
+  failureAge?: FailureAgeProvider,
+  trace = false,
+  truckIndex = -1,
 ): PolicyRun {
   const { truck, a: as, offer, n, hours, generalIndex } = setup;
-  const periods: PeriodRun[] = [];
-  for (let y = 0; y <= n; y++) periods.push(emptyPeriod());
+  const periods = run.periods;
+  for (let y = 0; y <= n; y++) {
+    if (y < periods.length) clearPeriod(periods[y]);
+    else periods.push(emptyPeriod());
+  }
   const st: RunState = {
-    setup, policy, failureAge, trace, periods, segments: [], events: [],
+    setup, policy, failureAge, trace, periods, segments: [], events: [], truckIndex,
     engine: setup.start, burn: setup.burnStart, age: truck.engineHours, lifeIndex: 0, failAt: 0,
     repowered: false, tph: truck.tonnesPerHour, extraTph: 0,
   };
@@ -219,5 +279,10 @@ export function simulatePolicy(
       if (kind) bookEvent(st, kind, y, ran);
     }
   }
-  return { policy, periods, segments: st.segments, events: st.events, endEngine: st.engine, endAge: st.age };
+  run.policy = policy;
+  run.segments = st.segments;
+  run.events = st.events;
+  run.endEngine = st.engine;
+  run.endAge = st.age;
+  return run;
 }

@@ -2,6 +2,7 @@
  * Result types of the engine: `case-result/1` (MODEL.md section 10) and the
  * detailed per-period trace behind it.
  */
+import type { Engine } from '@/lib/validation/case';
 
 export const POLICIES = ['keep', 'rebuild', 'repower'] as const;
 export type PolicyKey = (typeof POLICIES)[number];
@@ -226,8 +227,12 @@ export interface DetailedCaseResult {
 /** What a failure-age provider (Monte Carlo) is told when an engine's life starts. */
 export interface FailureAgeContext {
   truckId: string;
+  /** the truck's index in the case's truck list (−1 when the caller did not say) */
+  truckIndex: number;
   policy: PolicyKey;
   engineId: string;
+  /** the engine itself, as the evaluated case holds it (its Weibull law is the one to draw from) */
+  engine: Engine;
   /** 0 for the engine fitted at the start, then 1, 2, … after each event of the policy */
   lifeIndex: number;
   /** age at which this life starts: the truck's engine hours for life 0, else 0 */

@@ -1,8 +1,8 @@
 import 'server-only';
 /**
  * In-process Monte Carlo job manager: splits a run's iterations across worker
- * threads, tracks progress, stops on cancel or at the time limit, and merges
- * the workers' npvs (in iteration order) into the summaries. Jobs are keyed
+ * threads, tracks progress, stops on cancel or at the time limit, and keeps
+ * the summaries the workers make of the iterations done. Jobs are keyed
  * by a random id; the registry lives on globalThis so hot reloads keep it.
  * Persisting a run's row is the caller's business (lib/risk/runs.ts), through
  * the onFinish hook, so this module stays free of the database.
@@ -10,7 +10,7 @@ import 'server-only';
 import { randomUUID } from 'node:crypto';
 import path from 'node:path';
 import type { Worker } from 'node:worker_threads';
-import { summariseRun, type MonteCarloResult, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
+import type { MonteCarloResult, MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { runInWorkers } from './pool';
 
@@ -119,9 +119,9 @@ export function startJob(o: StartOptions): JobView {
   }, o.timeLimitMs ?? Number(process.env.HAULCASE_MC_TIME_LIMIT_MS ?? 120_000));
 
   job.finished = pool.finished
-    .then(({ npvs, done }) => {
+    .then(({ done, result }) => {
       job.done = done;
-      job.result = done > 0 ? summariseRun(o.validCase.trucks.map((t) => t.id), npvs) : null;
+      job.result = result; // summarised by the workers, off the request thread
       if (job.status === 'running') job.status = 'done';
     })
     .catch((err: unknown) => {

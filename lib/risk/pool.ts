@@ -1,17 +1,91 @@
 /**
  * Runs a Monte Carlo spec's iterations across worker threads, each a
- * contiguous block, and joins their npvs back in iteration order. Shared by
- * the job manager and the benchmark (no server-only imports here).
+ * contiguous block written straight into one shared buffer (no copies, no
+ * merge), then has the same workers summarise blocks of trucks side by side.
+ * Shared by the job manager and the benchmark (no server-only imports here).
+ *
+ * Workers outlive a run: finished ones wait, unreferenced, for the next run
+ * (a fresh worker spends its first iterations in the interpreter while the
+ * optimiser catches up, which is most of a short run's time). A worker that
+ * fails is terminated, never reused.
  */
 import { Worker } from 'node:worker_threads';
-import type { MonteCarloSpec } from '@/lib/engine/monte-carlo';
+import type { MonteCarloResult, MonteCarloSpec, TruckRisk } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
-import type { WorkerInput, WorkerMessage } from './worker-entry';
+import type { WorkerMessage, WorkerRequest } from './worker-entry';
 
 export interface PoolRun {
   workers: Worker[];
-  /** npvs of the iterations done, in iteration order within each block, blocks in order */
-  finished: Promise<{ npvs: Float64Array; done: number }>;
+  /** npvs of the iterations done, in iteration order; their summaries (null when none ran) */
+  finished: Promise<{ npvs: Float64Array; done: number; result: MonteCarloResult | null }>;
+}
+
+/** Idle workers kept per bundle, at most this many (two runs at once of two workers each). */
+const MAX_IDLE = 4;
+// on globalThis, like the job registry, so a hot reload in development does not strand warm workers
+const holder = globalThis as unknown as { __haulcaseMcIdle?: Map<string, Worker[]> };
+const idle = (holder.__haulcaseMcIdle ??= new Map<string, Worker[]>());
+
+function takeWorker(bundle: string): Worker {
+  const list = idle.get(bundle) ?? [];
+  let w = list.pop();
+  while (w && w.threadId < 0) w = list.pop(); // exited while idle
+  if (w) {
+    w.ref();
+    return w;
+  }
+  const fresh = new Worker(bundle);
+  fresh.on('exit', () => {
+    const l = idle.get(bundle);
+    const at = l ? l.indexOf(fresh) : -1;
+    if (l && at >= 0) l.splice(at, 1);
+  });
+  return fresh;
+}
+
+function giveBack(bundle: string, workers: Worker[]): void {
+  const list = idle.get(bundle) ?? [];
+  idle.set(bundle, list);
+  for (const w of workers) {
+    if (list.length >= MAX_IDLE) {
+      void w.terminate();
+      continue;
+    }
+    w.unref(); // an idle worker must not keep the process alive
+    list.push(w);
+  }
+}
+
+/** Send one request and wait for its answer (progress messages go to onProgress). */
+function ask(worker: Worker, request: WorkerRequest, onProgress?: (done: number) => void): Promise<WorkerMessage> {
+  return new Promise((resolve, reject) => {
+    const cleanup = () => {
+      worker.off('message', onMessage);
+      worker.off('error', onError);
+      worker.off('exit', onExit);
+    };
+    const onMessage = (m: WorkerMessage) => {
+      if (m.type === 'progress') {
+        onProgress?.(m.done);
+        return;
+      }
+      cleanup();
+      resolve(m);
+    };
+    // a missing bundle (npm run build:workers not run) also ends up here
+    const onError = (err: Error) => {
+      cleanup();
+      reject(new Error(`Monte Carlo worker failed: ${err.message}`));
+    };
+    const onExit = (code: number) => {
+      cleanup();
+      reject(new Error(`worker stopped with code ${code}`));
+    };
+    worker.on('message', onMessage);
+    worker.on('error', onError);
+    worker.on('exit', onExit);
+    worker.postMessage(request);
+  });
 }
 
 export function runInWorkers(
@@ -21,38 +95,59 @@ export function runInWorkers(
   o: { workers: number; stop: SharedArrayBuffer; onProgress?: (done: number) => void },
 ): PoolRun {
   const total = spec.iterations;
+  const trucks = validCase.trucks.length;
+  const truckIds = validCase.trucks.map((t) => t.id);
   const count = Math.max(1, Math.min(o.workers, Math.ceil(total / 100)));
+  const perIteration = trucks * 3;
+  const out = new SharedArrayBuffer(total * perIteration * 8);
   const doneBy = new Array<number>(count).fill(0);
-  const parts: (Float64Array | null)[] = new Array(count).fill(null);
   const progressEvery = Math.max(10, Math.min(250, Math.floor(total / count / 40)));
-  const workers: Worker[] = [];
-  const runs = Array.from({ length: count }, (_, w) => {
-    const from = Math.floor((total * w) / count);
-    const to = Math.floor((total * (w + 1)) / count);
-    const data: WorkerInput = { validCase, spec, from, to, stop: o.stop, progressEvery };
-    const worker = new Worker(bundle, { workerData: data });
-    workers.push(worker);
-    return new Promise<void>((resolve, reject) => {
-      worker.on('message', (m: WorkerMessage) => {
-        doneBy[w] = m.done;
-        o.onProgress?.(doneBy.reduce((a, b) => a + b, 0));
-        if (m.type === 'done') parts[w] = m.npvs;
-      });
-      // a missing bundle (npm run build:workers not run) also ends up here
-      worker.on('error', (err) => reject(new Error(`Monte Carlo worker failed: ${err.message}`)));
-      worker.on('exit', (code) => (parts[w] || code === 0 ? resolve() : reject(new Error(`worker stopped with code ${code}`))));
-    });
-  });
-  const finished = Promise.all(runs).then(() => {
-    const length = parts.reduce((a, p) => a + (p?.length ?? 0), 0);
-    const npvs = new Float64Array(length);
+  const workers = Array.from({ length: count }, () => takeWorker(bundle));
+  const blocks = workers.map((_, w) => ({ from: Math.floor((total * w) / count), to: Math.floor((total * (w + 1)) / count) }));
+
+  const runs = workers.map((worker, w) =>
+    ask(worker, { type: 'run', validCase, spec, ...blocks[w], stop: o.stop, out, offset: blocks[w].from * perIteration, progressEvery }, (done) => {
+      doneBy[w] = done;
+      o.onProgress?.(doneBy.reduce((a, b) => a + b, 0));
+    }).then((m) => {
+      if (m.type === 'done') doneBy[w] = m.done;
+    }),
+  );
+
+  const finished = Promise.all(runs).then(async () => {
+    const done = doneBy.reduce((a, b) => a + b, 0);
+    o.onProgress?.(done);
+    const all = new Float64Array(out);
+    // a stopped run: move each block's finished iterations up behind the previous block's
     let at = 0;
-    for (const p of parts) {
-      if (!p) continue;
-      npvs.set(p, at);
-      at += p.length;
+    for (let w = 0; w < count; w++) {
+      const start = blocks[w].from * perIteration;
+      const length = doneBy[w] * perIteration;
+      if (start !== at) all.copyWithin(at, start, start + length);
+      at += length;
     }
-    return { npvs, done: doneBy.reduce((a, b) => a + b, 0) };
+    const npvs = all.subarray(0, at);
+    let result: MonteCarloResult | null = null;
+    if (done > 0) {
+      const parts = await Promise.all(
+        workers.map((worker, w) =>
+          ask(worker, {
+            type: 'summarise', truckIds, npvs: out, length: at,
+            trucksFrom: Math.floor((trucks * w) / count), trucksTo: Math.floor((trucks * (w + 1)) / count), fleet: w === 0,
+          }),
+        ),
+      );
+      const truckRisk: TruckRisk[] = [];
+      let fleet: MonteCarloResult['fleet'] | null = null;
+      for (const m of parts) {
+        if (m.type !== 'summary') continue;
+        truckRisk.push(...m.trucks);
+        fleet = m.fleet ?? fleet;
+      }
+      result = { iterations: done, trucks: truckRisk, fleet: fleet as MonteCarloResult['fleet'] };
+    }
+    giveBack(bundle, workers);
+    return { npvs, done, result };
   });
   finished.catch(() => workers.forEach((w) => void w.terminate()));
   return { workers, finished };

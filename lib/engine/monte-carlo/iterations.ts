@@ -9,7 +9,8 @@
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import type { CaseFileInput } from '@/lib/validation/case';
-import { evaluateNpvs } from '../npv-only';
+import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto } from '../npv-only';
+import type { Engine } from '@/lib/validation/case';
 import { sampleWeibullAge } from '../reliability';
 import { clampDriver, cloneCase, getDriver, parseDriverId, setDriver, type DriverRef } from '../sensitivity/drivers';
 import type { FailureAgeContext } from '../types';
@@ -44,6 +45,8 @@ export interface RunControl {
   every?: number;
   /** checked with each progress call; true stops the run (the figures so far are returned) */
   shouldStop?: () => boolean;
+  /** write the npvs here (at least (to − from)·trucks·3 long, e.g. a worker's block of a shared buffer) */
+  into?: Float64Array;
 }
 
 /**
@@ -65,35 +68,49 @@ export function runIterations(
       const ref = parseDriverId(d.driver);
       return { ref, dist: d.distribution, base: getDriver(validCase, ref) };
     });
-  const engines = new Map(validCase.engines.map((e) => [e.id, e]));
-  const truckIndex = new Map(validCase.trucks.map((t, i) => [t.id, i]));
-  const npvs = new Float64Array((to - from) * trucks * POLICY_SLOTS);
+  const npvs = control.into ?? new Float64Array((to - from) * trucks * POLICY_SLOTS);
+  if (npvs.length < (to - from) * trucks * POLICY_SLOTS) throw new RangeError('runIterations: the output buffer is too short');
   const every = control.every ?? 100;
   // one uniform per (truck, engine life), shared by the three policies: the same
   // engine life fails at the same quantile whatever the policy (common random numbers)
   const lifeU: number[][] = Array.from({ length: trucks }, () => []);
+  // the failure age drawn for (truck, life), by engine and start age: the policies often
+  // ask for the same one (life 0 always; keep and rebuild after that), and it is the same number
+  const ages = Array.from({ length: trucks }, () => new AgeCache());
+  const result = createCaseNpvs(trucks);
+  const ws = createNpvWorkspace();
+  let rng = xoroshiro128plus(0);
+
+  const failureAge = (ctx: FailureAgeContext): number => {
+    const t = ctx.truckIndex;
+    const us = lifeU[t];
+    while (us.length <= ctx.lifeIndex) us.push(uniformFloat64(rng));
+    const cache = ages[t];
+    // ctx.engine is the working case's engine object: drivers change it in place, so it holds the sampled law
+    const e = ctx.engine;
+    const hit = cache.find(ctx.lifeIndex, e, ctx.startAge);
+    if (hit >= 0) return cache.age[hit];
+    const age = sampleWeibullAge(us[ctx.lifeIndex], e.weibullShape, e.weibullScaleHours, ctx.startAge);
+    cache.add(ctx.lifeIndex, e, ctx.startAge, age);
+    return age;
+  };
 
   let done = 0;
   for (let i = from; i < to; i++) {
-    const rng = xoroshiro128plus(iterationSeed(spec.seed, i));
+    rng = xoroshiro128plus(iterationSeed(spec.seed, i));
     for (const a of active) setDriver(work, validCase, a.ref, clampDriver(a.ref, sampleDistribution(a.dist, uniformFloat64(rng), a.base)));
-    let failureAge: ((ctx: FailureAgeContext) => number) | undefined;
     if (spec.sampleFailures) {
-      for (const l of lifeU) l.length = 0;
-      failureAge = (ctx) => {
-        const us = lifeU[truckIndex.get(ctx.truckId) as number];
-        while (us.length <= ctx.lifeIndex) us.push(uniformFloat64(rng));
-        // engines are read from the working case: a driver may have moved their Weibull law
-        const e = work.engines.find((x) => x.id === ctx.engineId) ?? engines.get(ctx.engineId)!;
-        return sampleWeibullAge(us[ctx.lifeIndex], e.weibullShape, e.weibullScaleHours, ctx.startAge);
-      };
+      for (let t = 0; t < trucks; t++) {
+        lifeU[t].length = 0;
+        ages[t].clear();
+      }
     }
-    const r = evaluateNpvs(work, { trusted: true, failureAge });
+    evaluateNpvsInto(work, spec.sampleFailures ? failureAge : undefined, result, ws);
     const off = (i - from) * trucks * POLICY_SLOTS;
     for (let t = 0; t < trucks; t++) {
-      npvs[off + t * 3] = r.keep[t];
-      npvs[off + t * 3 + 1] = r.rebuild[t];
-      npvs[off + t * 3 + 2] = r.repower[t];
+      npvs[off + t * 3] = result.keep[t];
+      npvs[off + t * 3 + 1] = result.rebuild[t];
+      npvs[off + t * 3 + 2] = result.repower[t];
     }
     done++;
     if (done % every === 0) {
@@ -101,5 +118,42 @@ export function runIterations(
       if (control.shouldStop?.()) break;
     }
   }
-  return { npvs: done === to - from ? npvs : npvs.slice(0, done * trucks * POLICY_SLOTS), done };
+  const length = done * trucks * POLICY_SLOTS;
+  if (control.into) return { npvs: npvs.subarray(0, length), done };
+  return { npvs: done === to - from ? npvs : npvs.slice(0, length), done };
+}
+
+/**
+ * Failure ages of one truck in one iteration, keyed by (life, engine, start
+ * age): two slots per life (a truck's lives after the first run on one of two
+ * engines); a third combination is simply not cached. `clear` bumps an epoch.
+ */
+class AgeCache {
+  epoch = 1;
+  stamp: number[] = [];
+  engine: Engine[] = [];
+  start: number[] = [];
+  age: number[] = [];
+
+  clear(): void {
+    this.epoch++;
+  }
+
+  find(life: number, engine: Engine, start: number): number {
+    for (let k = life * 2; k < life * 2 + 2; k++) {
+      if (this.stamp[k] === this.epoch && this.start[k] === start && this.engine[k] === engine) return k;
+    }
+    return -1;
+  }
+
+  add(life: number, engine: Engine, start: number, age: number): void {
+    let k = life * 2;
+    while (this.stamp.length < k + 2) this.stamp.push(0);
+    if (this.stamp[k] === this.epoch) k++;
+    if (this.stamp[k] === this.epoch) return;
+    this.stamp[k] = this.epoch;
+    this.engine[k] = engine;
+    this.start[k] = start;
+    this.age[k] = age;
+  }
 }

@@ -39,14 +39,18 @@ export function percentileSorted(sorted: ArrayLike<number>, p: number): number {
   return sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
 }
 
+const PERCENTILES = [0.05, 0.1, 0.5, 0.9, 0.95] as const;
+
 /** Summary of samples in iteration order (the order matters for the running mean only). */
 export function summarise(samples: Float64Array, bins = 30): Summary {
   const n = samples.length;
   let sum = 0;
+  let nan = false;
   const runningMean: [number, number][] = [];
   const step = Math.max(1, Math.ceil(n / 100));
   for (let i = 0; i < n; i++) {
     sum += samples[i];
+    if (samples[i] !== samples[i]) nan = true;
     if ((i + 1) % step === 0 || i === n - 1) runningMean.push([i + 1, sum / (i + 1)]);
   }
   const mean = n ? sum / n : Number.NaN;
@@ -56,9 +60,20 @@ export function summarise(samples: Float64Array, bins = 30): Summary {
     ss += (samples[i] - mean) ** 2;
     if (samples[i] < 0) negative++;
   }
-  const sorted = Float64Array.from(samples).sort();
-  const min = sorted[0];
-  const max = sorted[n - 1];
+  // only the order statistics the summary reads (min, max and each percentile's two ranks) are put
+  // in place, in O(n) instead of a full sort; they are the numbers a sorted copy holds at those ranks
+  const ordered = Float64Array.from(samples);
+  if (nan) ordered.sort();
+  else {
+    const ranks = [0, n - 1];
+    for (const p of PERCENTILES) {
+      const lo = Math.floor((n - 1) * p);
+      ranks.push(lo, Math.min(n - 1, lo + 1));
+    }
+    selectRanks(ordered, ranks);
+  }
+  const min = ordered[0];
+  const max = ordered[n - 1];
   const histogram: Summary['histogram'] = [];
   const width = (max - min) / bins;
   if (n > 0 && width > 0) {
@@ -73,15 +88,66 @@ export function summarise(samples: Float64Array, bins = 30): Summary {
     sd: n > 1 ? Math.sqrt(ss / (n - 1)) : 0,
     min,
     max,
-    p5: percentileSorted(sorted, 0.05),
-    p10: percentileSorted(sorted, 0.1),
-    p50: percentileSorted(sorted, 0.5),
-    p90: percentileSorted(sorted, 0.9),
-    p95: percentileSorted(sorted, 0.95),
+    p5: percentileSorted(ordered, 0.05),
+    p10: percentileSorted(ordered, 0.1),
+    p50: percentileSorted(ordered, 0.5),
+    p90: percentileSorted(ordered, 0.9),
+    p95: percentileSorted(ordered, 0.95),
     probNegative: n ? negative / n : Number.NaN,
     histogram,
     runningMean,
   };
+}
+
+/** The order of a typed array's sort: by value, −0 before +0 (no NaN here). */
+function before(a: number, b: number): boolean {
+  return a < b || (a === 0 && b === 0 && 1 / a < 1 / b);
+}
+
+/**
+ * Rearrange `a` so that, at each index in `ranks`, it holds what `a.sort()`
+ * would put there (multi-quickselect with three-way partitions; a range that
+ * partitions badly for long is sorted instead).
+ */
+export function selectRanks(a: Float64Array, ranks: readonly number[]): void {
+  const wanted = [...new Set(ranks)].filter((r) => r >= 0 && r < a.length).sort((x, y) => x - y);
+  const stack: number[] = [0, a.length - 1, 0, wanted.length - 1, 0];
+  while (stack.length) {
+    const depth = stack.pop() as number;
+    const rHi = stack.pop() as number;
+    const rLo = stack.pop() as number;
+    const hi = stack.pop() as number;
+    const lo = stack.pop() as number;
+    if (rLo > rHi || lo >= hi) continue;
+    if (hi - lo < 24 || depth > 60) {
+      a.subarray(lo, hi + 1).sort();
+      continue;
+    }
+    const x = a[lo];
+    const y = a[(lo + hi) >>> 1];
+    const z = a[hi];
+    const pivot = before(x, y) ? (before(y, z) ? y : before(x, z) ? z : x) : before(x, z) ? x : before(y, z) ? z : y;
+    // [lo, lt) before the pivot, [lt, i) equal to it, (gt, hi] after it
+    let lt = lo;
+    let gt = hi;
+    let i = lo;
+    while (i <= gt) {
+      const v = a[i];
+      if (before(v, pivot)) {
+        a[i++] = a[lt];
+        a[lt++] = v;
+      } else if (before(pivot, v)) {
+        a[i] = a[gt];
+        a[gt--] = v;
+      } else i++;
+    }
+    let k = rLo;
+    while (k <= rHi && wanted[k] < lt) k++;
+    stack.push(lo, lt - 1, rLo, k - 1, depth + 1);
+    let m = k;
+    while (m <= rHi && wanted[m] <= gt) m++;
+    stack.push(gt + 1, hi, m, rHi, depth + 1);
+  }
 }
 
 export interface TruckRisk {
@@ -105,34 +171,73 @@ export interface MonteCarloResult {
 
 /** Summaries from the npvs of `runIterations` (concatenated in iteration order). */
 export function summariseRun(truckIds: readonly string[], npvs: Float64Array): MonteCarloResult {
+  const iterations = runLength(truckIds.length, npvs);
+  return {
+    iterations,
+    trucks: summariseTrucks(truckIds, npvs, 0, truckIds.length),
+    fleet: summariseFleet(truckIds.length, npvs),
+  };
+}
+
+/** Whole iterations held in `npvs` for a fleet of `trucks`. */
+export function runLength(trucks: number, npvs: ArrayLike<number>): number {
+  return Math.floor(npvs.length / (trucks * POLICY_SLOTS));
+}
+
+/** Index 0, 1, 2 of the best of keep, rebuild, repower (`bestPolicy`). */
+function bestIndex(keep: number, rebuild: number, repower: number): number {
+  const b = bestPolicy({ keep, rebuild, repower });
+  return b === 'keep' ? 0 : b === 'rebuild' ? 1 : 2;
+}
+
+/**
+ * The risk of trucks [from, to) of a run: each truck's figures depend on its
+ * own samples only, so workers may summarise blocks of trucks side by side.
+ */
+export function summariseTrucks(truckIds: readonly string[], npvs: Float64Array, from: number, to: number): TruckRisk[] {
   const trucks = truckIds.length;
-  const iterations = Math.floor(npvs.length / (trucks * POLICY_SLOTS));
+  const iterations = runLength(trucks, npvs);
+  const count = Math.max(0, to - from);
+  // one pass in memory order over the run, then each truck's samples on their own
+  const deltas = Array.from({ length: count }, () => new Float64Array(iterations));
+  const best = new Float64Array(count * POLICY_SLOTS);
+  for (let i = 0; i < iterations; i++) {
+    for (let k = 0; k < count; k++) {
+      const o = (i * trucks + from + k) * POLICY_SLOTS;
+      deltas[k][i] = npvs[o + 2] - npvs[o + 1];
+      best[k * POLICY_SLOTS + bestIndex(npvs[o], npvs[o + 1], npvs[o + 2])]++;
+    }
+  }
+  return deltas.map((delta, k) => ({
+    id: truckIds[from + k],
+    deltaNpv: summarise(delta, 20),
+    bestShare: {
+      keep: best[k * POLICY_SLOTS] / iterations,
+      rebuild: best[k * POLICY_SLOTS + 1] / iterations,
+      repower: best[k * POLICY_SLOTS + 2] / iterations,
+    },
+  }));
+}
+
+/** The fleet's figures: per iteration, Σ over trucks (in truck order) of Δnpv and of the best policy's npv. */
+export function summariseFleet(trucks: number, npvs: Float64Array): MonteCarloResult['fleet'] {
+  const iterations = runLength(trucks, npvs);
   const fleetDelta = new Float64Array(iterations);
   const fleetBest = new Float64Array(iterations);
-  const perTruck = truckIds.map(() => new Float64Array(iterations));
-  const best = truckIds.map(() => ({ keep: 0, rebuild: 0, repower: 0 }));
   for (let i = 0; i < iterations; i++) {
+    let d = 0;
+    let b = 0;
     for (let t = 0; t < trucks; t++) {
       const o = (i * trucks + t) * POLICY_SLOTS;
       const keep = npvs[o];
       const rebuild = npvs[o + 1];
       const repower = npvs[o + 2];
-      const d = repower - rebuild;
-      perTruck[t][i] = d;
-      fleetDelta[i] += d;
-      const b = bestPolicy({ keep, rebuild, repower });
-      best[t][b]++;
-      fleetBest[i] += b === 'keep' ? keep : b === 'rebuild' ? rebuild : repower;
+      d += repower - rebuild;
+      const k = bestIndex(keep, rebuild, repower);
+      b += k === 0 ? keep : k === 1 ? rebuild : repower;
     }
+    fleetDelta[i] = d;
+    fleetBest[i] = b;
   }
-  const share = (c: { keep: number; rebuild: number; repower: number }) => ({
-    keep: c.keep / iterations,
-    rebuild: c.rebuild / iterations,
-    repower: c.repower / iterations,
-  });
-  return {
-    iterations,
-    trucks: truckIds.map((id, t) => ({ id, deltaNpv: summarise(perTruck[t], 20), bestShare: share(best[t]) })),
-    fleet: { deltaNpv: summarise(fleetDelta), bestNpv: summarise(fleetBest) },
-  };
+  return { deltaNpv: summarise(fleetDelta), bestNpv: summarise(fleetBest) };
 }
