@@ -1,8 +1,14 @@
 import type { Knex } from 'knex';
 import { nowIso } from '../time';
 
-/** Failed sign-ins allowed per account and address inside the window, and per address alone. */
-export const THROTTLE = { windowMinutes: 15, perAccountAndAddress: 5, perAddress: 30 } as const;
+/**
+ * Failed sign-ins allowed inside the window: per account and address, per address alone,
+ * and per account from any address (so changing addresses does not buy unlimited guesses).
+ */
+export const THROTTLE = { windowMinutes: 15, perAccountAndAddress: 5, perAddress: 30, perAccount: 20 } as const;
+
+/** The address when no trusted proxy tells it: per-address limits are then skipped, as they would be shared by everyone. */
+export const UNKNOWN_ADDRESS = 'unknown';
 
 export type ThrottleState = { locked: false } | { locked: true; retryAfterSeconds: number };
 
@@ -20,12 +26,16 @@ export async function checkSignInThrottle(k: Knex, email: string, address: strin
     )) as Row[];
     return rows[0];
   };
-  const pair = [await stats({ email: norm(email), address })];
-  const byAddress = [await stats({ address })];
-  const over = [
-    { n: Number(pair[0].n), first: pair[0].first ?? '', limit: THROTTLE.perAccountAndAddress },
-    { n: Number(byAddress[0].n), first: byAddress[0].first ?? '', limit: THROTTLE.perAddress },
-  ].filter((x) => x.n >= x.limit);
+  const rules: Array<{ where: Record<string, string>; limit: number }> = [
+    { where: { email: norm(email), address }, limit: THROTTLE.perAccountAndAddress },
+    { where: { email: norm(email) }, limit: THROTTLE.perAccount },
+    ...(address === UNKNOWN_ADDRESS ? [] : [{ where: { address }, limit: THROTTLE.perAddress }]),
+  ];
+  const over: Array<{ first: string }> = [];
+  for (const rule of rules) {
+    const row = await stats(rule.where);
+    if (Number(row.n) >= rule.limit) over.push({ first: row.first ?? '' });
+  }
   if (!over.length) return { locked: false };
   const until = Math.max(...over.map((x) => new Date(x.first).getTime() + THROTTLE.windowMinutes * 60_000));
   return { locked: true, retryAfterSeconds: Math.max(1, Math.ceil((until - now.getTime()) / 1000)) };
@@ -39,13 +49,21 @@ export async function recordSignInAttempt(k: Knex, email: string, address: strin
   }
 }
 
-/** The caller's address as the app sees it (first X-Forwarded-For hop behind a proxy). */
-export function clientAddress(headers: Headers | Record<string, string | string[] | undefined>): string {
+/**
+ * The caller's address as the app sees it. Forwarding headers are set by whoever sends
+ * the request, so they are read only when `HAULCASE_TRUSTED_PROXY=1` says a proxy in
+ * front of the app sets them (then its X-Forwarded-For entry, the right-most, is used).
+ */
+export function clientAddress(
+  headers: Headers | Record<string, string | string[] | undefined>,
+  env: Record<string, string | undefined> = process.env,
+): string {
+  if (env.HAULCASE_TRUSTED_PROXY !== '1') return UNKNOWN_ADDRESS;
   const get = (name: string): string | undefined => {
     if (headers instanceof Headers) return headers.get(name) ?? undefined;
     const v = headers[name];
     return Array.isArray(v) ? v[0] : v;
   };
-  const forwarded = get('x-forwarded-for')?.split(',')[0]?.trim();
-  return (forwarded || get('x-real-ip') || 'local').slice(0, 64);
+  const hops = (get('x-forwarded-for') ?? '').split(',').map((h) => h.trim()).filter(Boolean);
+  return (hops[hops.length - 1] || get('x-real-ip') || UNKNOWN_ADDRESS).slice(0, 64);
 }

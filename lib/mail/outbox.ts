@@ -7,9 +7,15 @@ export type OutboxMessage = { id: number; fromAddress: string; to: string[]; sub
 /** Whether this server sends to the local sink (the outbox exists only then). */
 export const outboxEnabled = () => readMailConfig().sink;
 
+/** Shown instead of the body of account mail: its single-use link belongs to the addressee alone. */
+export const ACCOUNT_MAIL_WITHHELD =
+  'Account message delivered to its addressee. Its single-use link is theirs alone, so its content is not shown here.';
+
 /**
  * What the local sink received for one workspace: mail tagged with it, and
- * account mail (password resets) addressed to one of its members.
+ * account mail (password resets) addressed to one of its members — the latter
+ * with its content withheld, or an admin of one workspace could take over a
+ * member's account (and with it their roles in other workspaces).
  */
 export async function fetchOutbox(workspaceId: number, slug: string, limit = 100): Promise<OutboxMessage[]> {
   const k = db();
@@ -22,5 +28,5 @@ export async function fetchOutbox(workspaceId: number, slug: string, limit = 100
     .map((r) => ({ id: r.id, fromAddress: r.fromAddress, to: JSON.parse(r.toAddresses) as string[], subject: r.subject, text: r.text, html: r.html, receivedAt: r.receivedAt, ws: r.workspaceSlug }))
     .filter((r) => r.ws === slug || r.to.some((t) => emails.has(t)))
     .slice(0, limit)
-    .map(({ ws: _ws, ...m }) => m);
+    .map(({ ws, ...m }) => (ws === slug ? m : { ...m, text: ACCOUNT_MAIL_WITHHELD, html: '' }));
 }

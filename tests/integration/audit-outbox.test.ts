@@ -3,6 +3,7 @@ import type { Knex } from 'knex';
 import { useDbForTests } from '@/lib/db';
 import { writeAudit } from '@/lib/audit';
 import { startMailSink, useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
+import { ACCOUNT_MAIL_WITHHELD } from '@/lib/mail/outbox';
 import { GET as auditJson } from '@/app/api/workspaces/[workspace]/audit/route';
 import { GET as auditCsv } from '@/app/api/workspaces/[workspace]/audit/csv/route';
 import { GET as outbox } from '@/app/api/workspaces/[workspace]/outbox/route';
@@ -100,5 +101,10 @@ describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
     expect(r.status).toBe(200);
     const seen = r.body.messages.map((m: { to: string[]; subject: string }) => `${m.to[0]}: ${m.subject}`);
     expect(seen).toEqual(['viewer@aldervane.test: Reset your Haulcase password', 'new.analyst@aldervane.test: You are invited to Aldervane Copper — North Pit on Haulcase']);
+    // Regression: the reset link was readable here, so an admin could take over a member's account.
+    const reset = r.body.messages[0];
+    expect(reset.text).toBe(ACCOUNT_MAIL_WITHHELD);
+    expect(JSON.stringify(reset)).not.toMatch(/reset-password\//);
+    expect(r.body.messages[1].text).toMatch(/\/invite\//);
   });
 });

@@ -21,6 +21,8 @@ describe.each([
   let sink: MailSink;
 
   beforeAll(async () => {
+    // these requests reach the app through a proxy that sets X-Forwarded-For
+    vi.stubEnv('HAULCASE_TRUSTED_PROXY', '1');
     ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
     useDbForTests(k);
     sink = await startMailSink({ k: () => k });
@@ -28,6 +30,7 @@ describe.each([
     signInAs(null);
   });
   afterAll(async () => {
+    vi.unstubAllEnvs();
     useMailSinkForTests(undefined);
     await sink.stop();
     await destroy();

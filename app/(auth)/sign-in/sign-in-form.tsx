@@ -2,6 +2,7 @@
 
 import { signIn } from 'next-auth/react';
 import { useState } from 'react';
+import { safeCallback } from '@/lib/auth/callback';
 
 const MESSAGES: Record<string, string> = {
   CredentialsSignin: 'Wrong email or password. Check both and try again.',
@@ -9,11 +10,6 @@ const MESSAGES: Record<string, string> = {
   NoWorkspace: 'Your account is not a member of any workspace yet. Ask an admin to invite you.',
   SessionRequired: 'Sign in to continue.',
 };
-
-/** Only same-site paths are followed after sign-in. */
-function safeCallback(url: string | undefined): string {
-  return url && url.startsWith('/') && !url.startsWith('//') ? url : '/';
-}
 
 export function SignInForm({ callbackUrl, initialError }: { callbackUrl?: string; initialError?: string }) {
   const [error, setError] = useState<string | null>(initialError ? (MESSAGES[initialError] ?? 'Sign-in failed. Try again.') : null);
@@ -30,7 +26,7 @@ export function SignInForm({ callbackUrl, initialError }: { callbackUrl?: string
     }
     setPending(true);
     setError(null);
-    const target = safeCallback(callbackUrl);
+    const target = safeCallback(callbackUrl, window.location.origin);
     const res = await signIn('credentials', { email, password, redirect: false, callbackUrl: target });
     setPending(false);
     if (!res || res.error || !res.ok) {
