@@ -3,12 +3,17 @@ import 'next-auth/jwt';
 
 declare module 'next-auth' {
   interface Session {
-    user: { id: number; email?: string | null; name?: string | null };
+    user: { id: number; email?: string | null; name?: string | null; passwordChangedAt?: string | null };
+  }
+  interface User {
+    passwordChangedAt?: string | null;
   }
 }
 
 declare module 'next-auth/jwt' {
   interface JWT {
     uid?: number;
+    /** users.passwordChangedAt when this token was issued */
+    pwc?: string | null;
   }
 }

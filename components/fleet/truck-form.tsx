@@ -1,7 +1,8 @@
 'use client';
 
+import { useState } from 'react';
 import useSWR, { useSWRConfig } from 'swr';
-import { sendJson } from '@/lib/fetcher';
+import { ApiError, sendJson } from '@/lib/fetcher';
 import { truckInputSchema, truckUpdateSchema, type TruckInput } from '@/lib/validation/fleet';
 import { EntityForm, type FieldSpec } from './entity-form';
 import { api, type EngineRow, type OfferRow, type TruckRow, type WorkspaceView } from './types';
@@ -11,6 +12,7 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
   const { mutate } = useSWRConfig();
   const engines = useSWR<{ items: EngineRow[] }>(api(ws.slug, 'engines'));
   const offers = useSWR<{ items: OfferRow[] }>(api(ws.slug, 'offers'));
+  const [deleteError, setDeleteError] = useState<string | null>(null);
   const fields: FieldSpec[] = [
     { name: 'unitNumber', label: 'Unit number', kind: 'text' },
     { name: 'payloadClass', label: 'Payload class', kind: 'text' },
@@ -33,10 +35,12 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
   };
   const remove = async () => {
     if (!truck || !window.confirm(`Delete truck ${truck.unitNumber}?`)) return;
+    setDeleteError(null);
     try {
       await sendJson(api(ws.slug, `trucks/${truck.id}?version=${truck.version}`), 'DELETE');
     } catch (e) {
-      window.alert((e as Error).message);
+      // 409: still named by a business case (the answer lists them) or changed by someone else
+      setDeleteError(e instanceof ApiError ? e.message : 'Could not reach the server; nothing was deleted.');
       return;
     }
     await mutate(api(ws.slug, 'trucks'));
@@ -48,6 +52,7 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
   return (
     <div className="mb-4">
       <h2 className="mb-2 text-base font-semibold">{truck ? `Edit truck ${truck.unitNumber}` : 'Add a truck'}</h2>
+      {deleteError ? <p role="alert" className="mb-2 text-sm text-loss" data-testid="truck-delete-error">{deleteError}</p> : null}
       <EntityForm
         key={truck ? `${truck.id}:${truck.version}` : 'new'}
         schema={truck ? truckUpdateSchema.omit({ version: true }) : truckInputSchema}

@@ -5,6 +5,7 @@ import * as m0003 from './0003_cases';
 import * as m0006 from './0006_mail_sink';
 import * as m0007 from './0007_monte_carlo_runs';
 import * as m0008 from './0008_reset_requests';
+import * as m0009 from './0009_submitted_case';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -18,6 +19,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0006_mail_sink': m0006,
   '0007_monte_carlo_runs': m0007,
   '0008_reset_requests': m0008,
+  '0009_submitted_case': m0009,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

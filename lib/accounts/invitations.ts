@@ -67,7 +67,7 @@ export async function acceptInvitation(input: { token: string; name?: string; pa
         ...(input.password ? [] : [{ path: 'password', message: 'Choose a password of at least 10 characters.' }]),
       ];
       if (problems.length) throw invalid(problems);
-      const [u] = await trx('users').insert({ email: row.email, name: input.name, passwordHash: await hashPassword(input.password as string), createdAt: at, updatedAt: at }).returning('id');
+      const [u] = await trx('users').insert({ email: row.email, name: input.name, passwordHash: await hashPassword(input.password as string), passwordChangedAt: at, createdAt: at, updatedAt: at }).returning('id');
       user = { id: insertedId(u) };
       created = true;
     }

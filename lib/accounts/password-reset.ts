@@ -34,7 +34,8 @@ export async function resetPassword(token: string, password: string): Promise<{ 
     const at = nowIso();
     const used = await trx('password_resets').where({ userId: row.userId }).whereNull('usedAt').update({ usedAt: at });
     if (used < 1) throw new HttpError(410, 'This password reset link has already been used. Links work once.');
-    await trx('users').where({ id: row.userId }).update({ passwordHash, updatedAt: at });
+    // moving the stamp ends every session signed in with the old password
+    await trx('users').where({ id: row.userId }).update({ passwordHash, passwordChangedAt: at, updatedAt: at });
     await writeAudit(trx, { workspaceId: null, userId: row.userId, action: 'reset-password', entity: 'user', entityId: row.userId });
     const user = await trx('users').where({ id: row.userId }).first('email');
     return { email: user.email as string };

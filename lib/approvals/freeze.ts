@@ -14,6 +14,8 @@ export type CaseRow = FrozenColumns & {
   assumptionSetId: number | null;
   selection: string;
   status: string;
+  /** canonical case/1 stored at submission, or null (never submitted, or sent back) */
+  submittedCase?: string | null;
 };
 
 type SelectionItem = { truckId: number; repowerOfferId?: number | null };
@@ -21,8 +23,10 @@ type SelectionItem = { truckId: number; repowerOfferId?: number | null };
 /**
  * The case/1 a business case stands for today, from the stored fleet, engines,
  * offers and its assumption set. An empty selection means every truck of the
- * workspace with its own offer. Invalid data is a 422 listing every problem, so
- * nothing can be approved that the engine would not accept.
+ * workspace with its own offer. Invalid data is a 422 listing every problem —
+ * including a selected truck since removed from the register, which would
+ * otherwise silently drop out — so nothing can be submitted or approved that
+ * the engine would not accept.
  */
 export async function buildCaseForRow(row: CaseRow, k: Knex = db()): Promise<CaseFile> {
   if (row.assumptionSetId == null) throw invalid([{ path: 'assumptionSetId', message: 'The case has no assumption set.' }]);
@@ -31,6 +35,12 @@ export async function buildCaseForRow(row: CaseRow, k: Knex = db()): Promise<Cas
     selection = JSON.parse(row.selection || '[]');
   } catch {
     throw invalid([{ path: 'selection', message: 'The stored truck selection is not valid JSON.' }]);
+  }
+  if (selection.length) {
+    // same rule and wording as loadValidCase, so the case page and the submit agree
+    const present = new Set((await k('trucks').where({ workspaceId: row.workspaceId }).whereIn('id', selection.map((s) => s.truckId)).pluck('id')).map(Number));
+    const missing = selection.flatMap((s, i) => (present.has(s.truckId) ? [] : [{ path: `selection[${i}]`, message: 'this truck has been removed from the fleet register' }]));
+    if (missing.length) throw invalid(missing, 'The case names trucks that are no longer in the fleet register.');
   }
   const file = await buildCaseFile(
     row.workspaceId,
@@ -43,17 +53,29 @@ export async function buildCaseForRow(row: CaseRow, k: Knex = db()): Promise<Cas
     k,
   );
   const checked = validateCase(file);
-  if (!checked.ok) throw invalid(checked.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The case data is not valid; fix it before approval.');
+  if (!checked.ok) throw invalid(checked.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The case data is not valid; fix it before submitting.');
   return checked.value;
 }
 
+/** The validated case/1 to store with a submission, as canonical JSON text. */
+export async function snapshotForSubmission(trx: Knex.Transaction, row: CaseRow): Promise<string> {
+  return canonicalJson(await buildCaseForRow(row, trx));
+}
+
+/** The snapshot stored at submission, or null. */
+export function readSubmittedCase(row: Pick<CaseRow, 'submittedCase'>): CaseFile | null {
+  return row.submittedCase ? (JSON.parse(row.submittedCase) as CaseFile) : null;
+}
+
 /**
- * Freezes a case inside the approving transaction: the exact case/1 and its
- * case-result/1 as canonical JSON text, and a SHA-256 of both. From then on the
- * stored text is the case; later fleet edits never reach it.
+ * Freezes a case inside the approving transaction: the case/1 exactly as it was
+ * submitted and its case-result/1, as canonical JSON text, and a SHA-256 of
+ * both. Fleet edits between submission and approval never reach it. A case
+ * submitted before snapshots were kept has none; it is built from the stored
+ * data as before.
  */
 export async function freezeCase(trx: Knex.Transaction, row: CaseRow): Promise<{ frozenCase: string; frozenResult: string; frozenHash: string }> {
-  const file = await buildCaseForRow(row, trx);
+  const file = readSubmittedCase(row) ?? (await buildCaseForRow(row, trx));
   const frozenCase = canonicalJson(file);
   const frozenResult = canonicalJson(evaluateCase(file, { trusted: true }));
   return { frozenCase, frozenResult, frozenHash: frozenHashOf(frozenCase, frozenResult) };

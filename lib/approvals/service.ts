@@ -5,7 +5,7 @@ import { writeAudit } from '@/lib/audit';
 import { db } from '@/lib/db';
 import { conflict, HttpError, notFound } from '@/lib/http';
 import { nowIso } from '@/lib/time';
-import { freezeCase, type CaseRow } from './freeze';
+import { freezeCase, snapshotForSubmission, type CaseRow } from './freeze';
 import { notifyDecision, notifySubmitted } from './notify';
 import { canDecide, canRevise, canSubmit, type CaseStatus, type Decision, type Outcome, type WorkflowState } from './workflow';
 
@@ -41,8 +41,10 @@ export async function submitCase(access: Access, id: number, input: { comment: s
     const row = await loadCase(trx, access.workspace.id, id);
     checkVersion(row, input.version);
     const step = orThrow(canSubmit(await workflowState(trx, row, access.workspace.settings.approvalsRequired), access.role));
+    // the approvers decide on, and the final approval freezes, exactly this snapshot
+    const submittedCase = await snapshotForSubmission(trx, row);
     const at = nowIso();
-    const patch = { status: step.next, submittedBy: access.userId, submittedAt: at, decidedAt: null, version: row.version + 1, updatedBy: access.userId, updatedAt: at };
+    const patch = { status: step.next, submittedCase, submittedBy: access.userId, submittedAt: at, decidedAt: null, version: row.version + 1, updatedBy: access.userId, updatedAt: at };
     const n = await trx('business_cases').where({ id, version: row.version }).update(patch);
     if (n !== 1) throw conflict();
     await trx('case_events').insert({ workspaceId: access.workspace.id, caseId: id, userId: access.userId, action: 'submit', comment: input.comment, at });
@@ -66,6 +68,8 @@ export async function decideCase(access: Access, id: number, input: { decision: 
       status: step.next,
       ...(step.final ? { decidedAt: at } : {}),
       ...frozen,
+      // a case sent back is edited again; its next submission takes a new snapshot
+      ...(step.next === 'returned' ? { submittedCase: null } : {}),
       version: row.version + 1,
       updatedBy: access.userId,
       updatedAt: at,

@@ -9,7 +9,9 @@ export async function fetchCaseSummary(workspaceId: number, id: number) {
   if (!row) return null;
   const set = row.assumptionSetId ? await k('assumption_sets').where({ id: row.assumptionSetId }).first('name') : null;
   let truckCount: number;
-  if (row.frozenCase) truckCount = (JSON.parse(row.frozenCase).trucks ?? []).length;
+  // what the approvers decide on: the frozen record, else the snapshot taken at submission
+  const stored = row.frozenCase ?? (row.status === 'submitted' ? row.submittedCase : null);
+  if (stored) truckCount = (JSON.parse(stored).trucks ?? []).length;
   else {
     const selected = JSON.parse(row.selection || '[]') as unknown[];
     truckCount = selected.length || Number((await k('trucks').where({ workspaceId }).count<{ n: number }[]>({ n: '*' }))[0].n);

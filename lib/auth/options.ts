@@ -32,17 +32,24 @@ export const authOptions: NextAuthOptions = {
         const ok = user ? await verifyPassword(password, user.passwordHash) : false;
         await recordSignInAttempt(k, email, address, ok);
         if (!ok) return null;
-        return { id: String(user.id), email: user.email, name: user.name };
+        return { id: String(user.id), email: user.email, name: user.name, passwordChangedAt: user.passwordChangedAt ?? null };
       },
     }),
   ],
   callbacks: {
     async jwt({ token, user }) {
-      if (user) token.uid = Number(user.id);
+      if (user) {
+        token.uid = Number(user.id);
+        // the password stamp at sign-in; a later reset makes it stale (lib/auth/session.ts)
+        token.pwc = user.passwordChangedAt ?? null;
+      }
       return token;
     },
     async session({ session, token }) {
-      if (session.user && typeof token.uid === 'number') session.user.id = token.uid;
+      if (session.user && typeof token.uid === 'number') {
+        session.user.id = token.uid;
+        session.user.passwordChangedAt = token.pwc ?? null;
+      }
       return session;
     },
   },

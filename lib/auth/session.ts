@@ -1,10 +1,16 @@
 import 'server-only';
 import { getServerSession } from 'next-auth';
 import { authOptions } from './options';
+import { isSessionCurrent } from './session-current';
 
-/** The signed-in user's id from the JWT session, or null. Integration tests replace this module. */
+/**
+ * The signed-in user's id from the JWT session, or null — also null when the
+ * password was reset after this session signed in. Integration tests replace
+ * this module.
+ */
 export async function getSessionUserId(): Promise<number | null> {
   const session = await getServerSession(authOptions);
   const id = session?.user?.id;
-  return typeof id === 'number' && Number.isInteger(id) ? id : null;
+  if (typeof id !== 'number' || !Number.isInteger(id)) return null;
+  return (await isSessionCurrent(id, session?.user?.passwordChangedAt)) ? id : null;
 }

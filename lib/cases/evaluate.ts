@@ -35,9 +35,11 @@ export async function loadValidCase(access: Access, id: number): Promise<Loaded>
   const wsId = access.workspace.id;
   const row = await fetchCase(wsId, id);
   if (!row) throw notFound('No such business case in this workspace.');
-  if (row.frozenCase) {
-    // An approved case is its frozen record: later edits to the fleet never reach it.
-    const file = JSON.parse(row.frozenCase) as CaseFile;
+  // An approved case is its frozen record, a case awaiting decision the snapshot
+  // taken at submission: later edits to the fleet reach neither.
+  const stored = row.frozenCase ?? (row.status === 'submitted' ? row.submittedCase : null);
+  if (stored) {
+    const file = JSON.parse(stored) as CaseFile;
     const units = file.trucks.map((t) => t.id);
     const rows = await db()('trucks').where({ workspaceId: wsId }).whereIn('unitNumber', units).select('id', 'unitNumber', 'payloadClass');
     return { row, file, truckRows: new Map(rows.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }])) };

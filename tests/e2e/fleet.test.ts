@@ -6,7 +6,7 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { createKnex } from '@/lib/db/connection';
 import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
 
-/** Puts the demo fleet back as seeded (other browser files compare with it): drops the imported trucks, restores T3-01. */
+/** Puts the demo fleet back as seeded (other browser files compare with it): drops the imported trucks and the test's own case, restores T3-01. */
 async function restoreDemoFleet() {
   const demo = JSON.parse(fs.readFileSync(path.resolve('scenarios/aldervane-north-pit.json'), 'utf8'));
   const t301 = demo.trucks.find((t: { id: string }) => t.id === 'T3-01');
@@ -14,6 +14,7 @@ async function restoreDemoFleet() {
   const ws = await k('workspaces').where({ slug: WS }).first('id');
   await k('trucks').where({ workspaceId: ws.id }).andWhere('unitNumber', 'like', 'T5-%').delete();
   await k('trucks').where({ workspaceId: ws.id, unitNumber: 'T3-01' }).update({ engineHours: t301.engineHours, loadFactor: t301.loadFactor });
+  await k('business_cases').where({ workspaceId: ws.id, name: 'Fleet test hold on T3-02' }).delete();
   await k.destroy();
 }
 
@@ -84,6 +85,29 @@ describe('fleet register, import and quote documents in the browser', () => {
     await row.getByText('1,234').waitFor();
     expect(await row.locator('td').nth(7).textContent()).toBe('0.51');
     await screenshot(page, 'fleet-register-analyst');
+  });
+
+  it('analyst tries to delete a truck that a draft case names: the refusal names the case and the truck stays', async () => {
+    // a draft of this file's own, so the check holds whatever other browser files did to the demo case
+    const k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+    const ws = await k('workspaces').where({ slug: WS }).first('id');
+    const truck = await k('trucks').where({ workspaceId: ws.id, unitNumber: 'T3-02' }).first('id');
+    const set = await k('assumption_sets').where({ workspaceId: ws.id }).orderBy('id').first('id');
+    const now = new Date().toISOString();
+    await k('business_cases').insert({ workspaceId: ws.id, name: 'Fleet test hold on T3-02', assumptionSetId: set.id, selection: JSON.stringify([{ truckId: truck.id, repowerOfferId: null }]), plan: '{}', status: 'draft', createdAt: now, updatedAt: now });
+    await k.destroy();
+    await page.goto(`${baseURL}/${WS}/fleet`);
+    await page.getByRole('button', { name: 'Edit T3-02' }).click();
+    const form = page.getByTestId('truck-form');
+    page.once('dialog', (d) => d.accept());
+    await form.getByRole('button', { name: 'Delete truck' }).click();
+    const message = page.getByTestId('truck-delete-error');
+    await message.waitFor();
+    const text = await message.textContent();
+    expect(text).toMatch(/^This truck is still named by \d business case\(s\) \(.*“Fleet test hold on T3-02”.*\); take it out of them first\. Nothing was deleted\.$/);
+    await screenshot(page, 'fleet-truck-delete-refused');
+    await form.getByRole('button', { name: 'Cancel' }).click();
+    expect(await page.locator('tr[data-unit="T3-02"]').count()).toBe(1);
   });
 
   it('analyst uploads a quote document; a file that is not a PDF or image is refused', async () => {

@@ -81,6 +81,8 @@ describe.each(backends)('invitations and password reset by e-mail on $name', ({ 
     expect(ok.body).toMatchObject({ slug: 'aldervane-north-pit', created: true });
     const user = await k('users').where({ email: 'second.approver@aldervane.test' }).first();
     expect(await verifyPassword('a-long-password', user.passwordHash)).toBe(true);
+    // the password set through the invitation is stamped like a reset (sessions compare with it)
+    expect(user.passwordChangedAt).toMatch(/^\d{4}-\d\d-\d\dT/);
     expect((await k('memberships').where({ userId: user.id }).first()).role).toBe('approver');
 
     const again = await call(accept, {}, { body: { token, name: 'Someone else', password: 'another-password' } });
@@ -139,6 +141,7 @@ describe.each(backends)('invitations and password reset by e-mail on $name', ({ 
     expect((await call(reset, {}, { body: { token, password: 'new-password-123' } })).status).toBe(200);
     const u = await k('users').where({ email: 'analyst@aldervane.test' }).first();
     expect(await verifyPassword('new-password-123', u.passwordHash)).toBe(true);
+    expect(u.passwordChangedAt).toMatch(/^\d{4}-\d\d-\d\dT/);
     const reuse = await call(reset, {}, { body: { token, password: 'third-password-123' } });
     expect(reuse.status).toBe(410);
     expect(await verifyPassword('new-password-123', (await k('users').where({ id: u.id }).first()).passwordHash)).toBe(true);

@@ -18,6 +18,8 @@ export type CaseRow = {
   version: number;
   /** canonical case/1 JSON frozen on approval, or null */
   frozenCase: string | null;
+  /** canonical case/1 JSON stored at submission (cleared when sent back), or null */
+  submittedCase: string | null;
   createdAt: string;
   updatedAt: string;
 };
@@ -35,6 +37,7 @@ function toCase(r: Raw): CaseRow {
     status: r.status,
     version: r.version,
     frozenCase: r.frozenCase ?? null,
+    submittedCase: r.submittedCase ?? null,
     createdAt: r.createdAt,
     updatedAt: r.updatedAt,
   };

@@ -26,6 +26,21 @@ async function countUses(k: Knex, table: string, where: Row): Promise<number> {
 
 // ---------------------------------------------------------------- trucks
 
+const listNames = (names: string[]) => (names.length > 3 ? `${names.slice(0, 3).join(', ')} and ${names.length - 3} more` : names.join(', '));
+
+/**
+ * A truck named by a case still being worked on or decided (draft, returned,
+ * submitted) would drop out of it, so the delete is refused (409) and says which
+ * cases. Approved cases keep their own frozen copy; rejected ones are closed.
+ */
+async function refuseTruckInUse(k: Knex, ws: number, id: number) {
+  const casesUsing = (await k('business_cases').where({ workspaceId: ws }).whereIn('status', ['draft', 'returned', 'submitted']).orderBy('name').select('name', 'selection'))
+    .filter((c) => (JSON.parse(c.selection || '[]') as Array<{ truckId: number }>).some((s) => s.truckId === id))
+    .map((c) => `“${c.name}”`);
+  if (!casesUsing.length) return;
+  throw conflict(`This truck is still named by ${casesUsing.length} business case(s) (${listNames(casesUsing)}); take it out of them first. Nothing was deleted.`);
+}
+
 const truckQuery = (k: Knex, workspaceId: number) =>
   k('trucks as t')
     .leftJoin('engine_types as e', 'e.id', 't.engineTypeId')
@@ -54,6 +69,7 @@ export const trucks: EntityConfig = {
     await assertOwned(k, 'repower_offers', ws, input.repowerOfferId, 'repowerOfferId', 'a repower offer');
     return input;
   },
+  beforeDelete: refuseTruckInUse,
 };
 
 // ---------------------------------------------------------------- engine types
@@ -85,8 +101,6 @@ const offerQuery = (k: Knex, ws: number) =>
     .leftJoin('engine_types as e', 'e.id', 'o.engineTypeId')
     .where('o.workspaceId', ws)
     .select('o.*', 'e.key as engineKey');
-
-const listNames = (names: string[]) => (names.length > 3 ? `${names.slice(0, 3).join(', ')} and ${names.length - 3} more` : names.join(', '));
 
 /**
  * An offer still named by a truck or by a case that is not frozen would leave
