@@ -1,7 +1,5 @@
-import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Knex } from 'knex';
-import { useDbForTests } from '@/lib/db';
-import { startMailSink, useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
 import { verifyFrozen } from '@/lib/approvals/canonical';
 import { fetchApprovalStamp, readFrozenResult } from '@/lib/approvals/freeze';
 import { POST as submit } from '@/app/api/workspaces/[workspace]/cases/[id]/submit/route';
@@ -9,9 +7,9 @@ import { POST as decide } from '@/app/api/workspaces/[workspace]/cases/[id]/deci
 import { GET as history } from '@/app/api/workspaces/[workspace]/cases/[id]/history/route';
 import { POST as revise } from '@/app/api/workspaces/[workspace]/cases/[id]/revision/route';
 import { PUT as putApprovals } from '@/app/api/workspaces/[workspace]/settings/approvals/route';
-import { createTestDb } from '../support/test-db';
+import { openMailDb } from './support/mail-db';
 import { call } from './support/call';
-import { insertDraftCase, userIds } from './support/cases';
+import { insertDraftCase } from './support/cases';
 import { signInAs } from './support/session';
 
 vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
@@ -24,23 +22,16 @@ const backends = [
 
 describe.each(backends)('approval workflow with e-mail through a real SMTP sink on $name', ({ pg }) => {
   let k: Knex;
-  let destroy: () => Promise<void>;
-  let sink: MailSink;
+  let close: () => Promise<void>;
   let ids: Record<string, number>;
   const p = (id: number) => ({ workspace: WS, id: String(id) });
   const mails = async () => k('mail_sink').orderBy('id');
 
   beforeAll(async () => {
-    ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
-    useDbForTests(k);
-    sink = await startMailSink({ k: () => k });
-    useMailSinkForTests(sink);
-    ids = await userIds(k);
+    ({ k, close, ids } = await openMailDb(pg));
   });
   afterAll(async () => {
-    useMailSinkForTests(undefined);
-    await sink.stop();
-    await destroy();
+    await close();
   });
 
   it('refuses a viewer both submitting and deciding (403), and changes nothing', async () => {

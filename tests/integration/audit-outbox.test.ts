@@ -1,17 +1,14 @@
-import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Knex } from 'knex';
-import { useDbForTests } from '@/lib/db';
 import { writeAudit } from '@/lib/audit';
-import { startMailSink, useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
 import { ACCOUNT_MAIL_WITHHELD } from '@/lib/mail/outbox';
 import { GET as auditJson } from '@/app/api/workspaces/[workspace]/audit/route';
 import { GET as auditCsv } from '@/app/api/workspaces/[workspace]/audit/csv/route';
 import { GET as outbox } from '@/app/api/workspaces/[workspace]/outbox/route';
 import { POST as invite } from '@/app/api/workspaces/[workspace]/invitations/route';
 import { POST as forgot } from '@/app/api/password/forgot/route';
-import { createTestDb } from '../support/test-db';
+import { openMailDb } from './support/mail-db';
 import { call } from './support/call';
-import { userIds } from './support/cases';
 import { signInAs } from './support/session';
 
 vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
@@ -25,17 +22,12 @@ const backends = [
 
 describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
   let k: Knex;
-  let destroy: () => Promise<void>;
-  let sink: MailSink;
+  let close: () => Promise<void>;
   let ids: Record<string, number>;
   let wsId: number;
 
   beforeAll(async () => {
-    ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
-    useDbForTests(k);
-    sink = await startMailSink({ k: () => k });
-    useMailSinkForTests(sink);
-    ids = await userIds(k);
+    ({ k, close, ids } = await openMailDb(pg));
     wsId = (await k('workspaces').where({ slug: 'aldervane-north-pit' }).first('id')).id;
     await writeAudit(k, { workspaceId: wsId, userId: ids['analyst@aldervane.test'], action: 'update', entity: 'truck', entityId: 'T301', before: { notes: 'ok' }, after: { notes: '=HYPERLINK("http://evil.test")' } });
     await k('audit_log').insert({ workspaceId: wsId, userId: ids['approver@aldervane.test'], action: 'approve', entity: 'business_case', entityId: '9', before: null, after: '{"status":"approved"}', at: '2026-01-15T10:00:00.000Z' });
@@ -43,9 +35,7 @@ describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
     await writeAudit(k, { workspaceId: corrin, userId: ids['analyst@aldervane.test'], action: 'update', entity: 'truck', entityId: 'C1', after: { secret: 'corrin only' } });
   });
   afterAll(async () => {
-    useMailSinkForTests(undefined);
-    await sink.stop();
-    await destroy();
+    await close();
   });
 
   it('filters by person, kind and date range, within this workspace only', async () => {

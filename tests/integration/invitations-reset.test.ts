@@ -1,16 +1,13 @@
-import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Knex } from 'knex';
-import { useDbForTests } from '@/lib/db';
 import { verifyPassword } from '@/lib/auth/password';
 import { hashToken } from '@/lib/accounts/tokens';
-import { startMailSink, useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
 import { GET as listInvites, POST as invite } from '@/app/api/workspaces/[workspace]/invitations/route';
 import { POST as accept } from '@/app/api/invitations/accept/route';
 import { POST as forgot } from '@/app/api/password/forgot/route';
 import { POST as reset } from '@/app/api/password/reset/route';
-import { createTestDb } from '../support/test-db';
+import { openMailDb } from './support/mail-db';
 import { call } from './support/call';
-import { userIds } from './support/cases';
 import { signInAs } from './support/session';
 
 vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
@@ -23,23 +20,16 @@ const backends = [
 
 describe.each(backends)('invitations and password reset by e-mail on $name', ({ pg }) => {
   let k: Knex;
-  let destroy: () => Promise<void>;
-  let sink: MailSink;
+  let close: () => Promise<void>;
   let ids: Record<string, number>;
   const lastMail = async () => k('mail_sink').orderBy('id', 'desc').first();
   const tokenIn = (text: string, path: string) => text.match(new RegExp(`${path}/([A-Za-z0-9_-]+)`))?.[1] as string;
 
   beforeAll(async () => {
-    ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
-    useDbForTests(k);
-    sink = await startMailSink({ k: () => k });
-    useMailSinkForTests(sink);
-    ids = await userIds(k);
+    ({ k, close, ids } = await openMailDb(pg));
   });
   afterAll(async () => {
-    useMailSinkForTests(undefined);
-    await sink.stop();
-    await destroy();
+    await close();
   });
 
   it('lets only an admin invite, and refuses a bad address with where and what', async () => {

@@ -1,10 +1,8 @@
-import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Knex } from 'knex';
-import { useDbForTests } from '@/lib/db';
 import { admitResetRequest, RESET_THROTTLE } from '@/lib/auth/reset-throttle';
-import { startMailSink, useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
 import { POST as forgot } from '@/app/api/password/forgot/route';
-import { createTestDb } from '../support/test-db';
+import { openMailDb } from './support/mail-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
 
@@ -17,23 +15,17 @@ describe.each([
   { name: 'PostgreSQL', pg: true },
 ])('forgot-password throttle on $name', ({ pg }) => {
   let k: Knex;
-  let destroy: () => Promise<void>;
-  let sink: MailSink;
+  let close: () => Promise<void>;
 
   beforeAll(async () => {
     // these requests reach the app through a proxy that sets X-Forwarded-For
     vi.stubEnv('HAULCASE_TRUSTED_PROXY', '1');
-    ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
-    useDbForTests(k);
-    sink = await startMailSink({ k: () => k });
-    useMailSinkForTests(sink);
+    ({ k, close } = await openMailDb(pg));
     signInAs(null);
   });
   afterAll(async () => {
     vi.unstubAllEnvs();
-    useMailSinkForTests(undefined);
-    await sink.stop();
-    await destroy();
+    await close();
   });
 
   it('answers 429 after three requests for one e-mail, the same for a known and an unknown address, mailing nothing more', async () => {

@@ -40,3 +40,10 @@ export async function createTestDb(opts: { pgUrl?: string; seed?: boolean } = {}
     },
   };
 }
+
+/** Demo user ids by e-mail. */
+export async function userIds(k: Knex): Promise<Record<string, number>> {
+  const ids: Record<string, number> = {};
+  for (const u of await k('users').select('id', 'email')) ids[u.email] = u.id;
+  return ids;
+}

@@ -11,8 +11,4 @@ export async function insertDraftCase(k: Knex, slug: string, name: string, setNa
   return typeof row === 'object' ? row.id : row;
 }
 
-export async function userIds(k: Knex): Promise<Record<string, number>> {
-  const ids: Record<string, number> = {};
-  for (const u of await k('users').select('id', 'email')) ids[u.email] = u.id;
-  return ids;
-}
+export { userIds } from '../../support/test-db';

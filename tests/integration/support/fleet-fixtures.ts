@@ -18,11 +18,7 @@ export async function snapshotWorkspace(k: Knex, slug: string) {
   };
 }
 
-export async function userIds(k: Knex): Promise<Record<string, number>> {
-  const ids: Record<string, number> = {};
-  for (const u of await k('users').select('id', 'email')) ids[u.email] = u.id;
-  return ids;
-}
+export { userIds } from '../../support/test-db';
 
 export const engineBody = (key: string) => ({
   key, name: `Test engine ${key}`, ratedKw: 2500, bsfcGPerKwh: 205, lifeHours: 21000, weibullShape: 3, weibullScaleHours: 24000,
