@@ -4,10 +4,10 @@
  * per-period breakdown by category that adds up to each CF_y.
  */
 import { co2Tonnes } from './fuel';
-import { addScheduleInto, depreciationSchedule, placeSchedule } from './depreciation';
-import type { PolicyRun } from './simulate';
+import { addScheduleInto, depreciationSchedule, placeSchedule, scheduleInto, scheduleLength } from './depreciation';
+import { EVENT_CODE, type PolicyRun } from './simulate';
 import type { TruckSetup } from './setup';
-import type { BreakdownEntry, DepreciatedSpend, EngineEvent, PeriodDetail, PolicyDetail, ResidualDetail } from './types';
+import type { BreakdownEntry, DepreciatedSpend, PeriodDetail, PolicyDetail, ResidualDetail } from './types';
 
 /**
  * Residual credit of the engine fitted at the end of year N: its overhaul cost
@@ -20,9 +20,9 @@ export function residualCredit(overhaulCost: number, age: number, lifeHours: num
   return overhaulCost * Math.max(0, 1 - age / lifeHours) * priceIndex;
 }
 
-/** A cost as cash: negative, and 0 rather than −0 when there is none. */
+/** A cost as cash: negative, and 0 rather than −0 when there is none (0 − x is exactly that, without a branch). */
 function negate(x: number): number {
-  return x === 0 ? 0 : -x;
+  return 0 - x;
 }
 
 /** Cash flows of a policy run: tax, depreciation, residual and the breakdown by category. */
@@ -41,12 +41,15 @@ export interface PolicyCash {
   residual: ResidualDetail;
 }
 
-/** The category an event's spend is depreciated under, or null when it is not (or costs nothing). */
-function depreciatedAs(ev: EngineEvent, expense: boolean): DepreciatedSpend['category'] | null {
-  if (ev.cost === 0) return null;
-  if (ev.kind === 'repower') return 'capital';
-  if (expense) return null;
-  return ev.kind === 'overhaul' ? 'overhauls' : 'failures';
+const CATEGORY_BY_CODE: DepreciatedSpend['category'][] = [];
+CATEGORY_BY_CODE[EVENT_CODE.overhaul] = 'overhauls';
+CATEGORY_BY_CODE[EVENT_CODE.failure] = 'failures';
+CATEGORY_BY_CODE[EVENT_CODE.repower] = 'capital';
+
+/** Whether an event's spend (kind code, cost) is depreciated: the repower always, overhauls and repairs when capitalised; never a zero cost. */
+function isDepreciated(code: number, cost: number, expense: boolean): boolean {
+  if (cost === 0) return false;
+  return code === EVENT_CODE.repower || !expense;
 }
 
 /** Depreciation of a run's capital spends: the repower always, overhauls and repairs when capitalised. */
@@ -59,14 +62,16 @@ export function depreciateSpends(
   const depreciation = new Array<number>(n + 1).fill(0);
   let writeOff = 0;
   const spends: DepreciatedSpend[] = [];
-  for (const ev of run.events) {
-    const category = depreciatedAs(ev, expense);
-    if (category === null) continue;
-    const schedule = depreciationSchedule(ev.cost, a.depreciation); // empty under "none": no relief, no write-off
-    const placed = placeSchedule(schedule, ev.period, n);
+  const log = run.log;
+  for (let i = 0; i < log.count; i++) {
+    const cost = log.cost[i];
+    const period = log.period[i];
+    if (!isDepreciated(log.kind[i], cost, expense)) continue;
+    const schedule = depreciationSchedule(cost, a.depreciation); // empty under "none": no relief, no write-off
+    const placed = placeSchedule(schedule, period, n);
     for (let y = 1; y <= n; y++) depreciation[y] += placed.byPeriod[y];
     writeOff += placed.writeOff;
-    spends.push({ period: ev.period, category, amount: ev.cost, schedule, byPeriod: placed.byPeriod, writeOff: placed.writeOff });
+    spends.push({ period, category: CATEGORY_BY_CODE[log.kind[i]], amount: cost, schedule, byPeriod: placed.byPeriod, writeOff: placed.writeOff });
   }
   return { depreciation, writeOff, spends };
 }
@@ -77,16 +82,18 @@ export function depreciateSpends(
  * which is what adding the placed schedule's zeros and D_j comes to, so the
  * sums are the same numbers.
  */
-export function depreciationInto(setup: TruckSetup, run: PolicyRun, depreciation: Float64Array): number {
+export function depreciationInto(setup: TruckSetup, run: PolicyRun, depreciation: Float64Array, scratch: NpvScratch): number {
   const { a, n } = setup;
   const expense = a.rebuildAccounting === 'expense';
   for (let y = 0; y <= n; y++) depreciation[y] = 0; // a loop: fill() is a builtin call, dear for a dozen slots
   let writeOff = 0;
-  const events = run.events;
-  for (let i = 0; i < events.length; i++) {
-    const ev = events[i];
-    if (depreciatedAs(ev, expense) === null) continue;
-    writeOff += addScheduleInto(depreciationSchedule(ev.cost, a.depreciation), ev.period, n, depreciation);
+  const log = run.log;
+  for (let i = 0; i < log.count; i++) {
+    const cost = log.cost[i];
+    if (!isDepreciated(log.kind[i], cost, expense)) continue;
+    if (scratch.schedule.length < scheduleLength(a.depreciation)) scratch.schedule = new Float64Array(scheduleLength(a.depreciation));
+    const length = scheduleInto(cost, a.depreciation, scratch.schedule);
+    writeOff += addScheduleInto(scratch.schedule, log.period[i], n, depreciation, length);
   }
   return writeOff;
 }
@@ -199,10 +206,12 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
 /** Reusable buffers for `policyNpv` (one per thread of work; sized on demand). */
 export interface NpvScratch {
   depreciation: Float64Array;
+  /** one spend's schedule D_1, D_2, … */
+  schedule: Float64Array;
 }
 
 export function createNpvScratch(): NpvScratch {
-  return { depreciation: new Float64Array(64) };
+  return { depreciation: new Float64Array(64), schedule: new Float64Array(32) };
 }
 
 const sharedScratch = createNpvScratch();
@@ -217,7 +226,7 @@ export function policyNpv(setup: TruckSetup, run: PolicyRun, scratch: NpvScratch
   const n = setup.n;
   if (scratch.depreciation.length <= n) scratch.depreciation = new Float64Array(2 * (n + 1));
   const depreciation = scratch.depreciation;
-  const writeOff = depreciationInto(setup, run, depreciation);
+  const writeOff = depreciationInto(setup, run, depreciation, scratch);
   const end = run.endEngine;
   // the same figure as residualOf(…).credit, without building its record
   const credit = residualCredit(end.overhaulCost, run.endAge, end.lifeHours, setup.generalIndex[n]);

@@ -31,9 +31,7 @@ export const MACRS_HALF_YEAR_PERCENT: Readonly<Record<3 | 5 | 7 | 10 | 15 | 20, 
  * @example macrsSchedule(100000, 7)[0] // = 14290
  */
 export function macrsSchedule(amount: number, years: number): number[] {
-  const table = MACRS_HALF_YEAR_PERCENT[years as 3 | 5 | 7 | 10 | 15 | 20];
-  if (!table) throw new RangeError(`MACRS: no GDS table for ${years} years (3, 5, 7, 10, 15, 20)`);
-  return table.map((pct) => (amount * pct) / 100);
+  return depreciationSchedule(amount, { method: 'macrs', years: years as 3 | 5 | 7 | 10 | 15 | 20 });
 }
 
 /**
@@ -42,7 +40,7 @@ export function macrsSchedule(amount: number, years: number): number[] {
  * @example straightLineSchedule(1000, 4) // = [250, 250, 250, 250]
  */
 export function straightLineSchedule(amount: number, years: number): number[] {
-  return Array.from({ length: years }, () => amount / years);
+  return depreciationSchedule(amount, { method: 'straight-line', years });
 }
 
 /**
@@ -55,14 +53,52 @@ export function straightLineSchedule(amount: number, years: number): number[] {
  * @example decliningBalanceSchedule(1000, 5, 2) // = [400, 240, 144, 108, 108]
  */
 export function decliningBalanceSchedule(amount: number, years: number, factor = 2): number[] {
-  const out: number[] = [];
-  let basis = amount;
-  for (let j = 1; j <= years; j++) {
-    const d = Math.max((basis * factor) / years, basis / (years - j + 1));
-    out.push(d);
-    basis -= d;
+  return depreciationSchedule(amount, { method: 'declining-balance', years, factor });
+}
+
+/** Entries in a schedule of the method: 0 under `none`, n + 1 for MACRS (half-year), else n. */
+export function scheduleLength(method: Depreciation): number {
+  if (method.method === 'none') return 0;
+  if (method.method === 'macrs') {
+    const table = MACRS_HALF_YEAR_PERCENT[method.years as 3 | 5 | 7 | 10 | 15 | 20];
+    if (!table) throw new RangeError(`MACRS: no GDS table for ${method.years} years (3, 5, 7, 10, 15, 20)`);
+    return table.length;
   }
-  return out;
+  return method.years;
+}
+
+/**
+ * The schedule D_1, D_2, … of `amount` written into `out` (at least
+ * `scheduleLength(method)` long); returns its length. The one place the
+ * methods' formulas live: `depreciationSchedule` copies from it, and the
+ * lean NPV path calls it with a reused buffer.
+ */
+export function scheduleInto(amount: number, method: Depreciation, out: { [j: number]: number }): number {
+  const length = scheduleLength(method);
+  switch (method.method) {
+    case 'none':
+      break;
+    case 'straight-line':
+      for (let j = 0; j < length; j++) out[j] = amount / method.years;
+      break;
+    case 'declining-balance': {
+      const years = method.years;
+      const factor = method.factor ?? 2;
+      let basis = amount;
+      for (let j = 1; j <= years; j++) {
+        const d = Math.max((basis * factor) / years, basis / (years - j + 1));
+        out[j - 1] = d;
+        basis -= d;
+      }
+      break;
+    }
+    case 'macrs': {
+      const table = MACRS_HALF_YEAR_PERCENT[method.years as 3 | 5 | 7 | 10 | 15 | 20];
+      for (let j = 0; j < length; j++) out[j] = (amount * table[j]) / 100;
+      break;
+    }
+  }
+  return length;
 }
 
 /**
@@ -72,16 +108,9 @@ export function decliningBalanceSchedule(amount: number, years: number, factor =
  * @example depreciationSchedule(1000, { method: 'straight-line', years: 2 }) // = [500, 500]
  */
 export function depreciationSchedule(amount: number, method: Depreciation): number[] {
-  switch (method.method) {
-    case 'none':
-      return [];
-    case 'straight-line':
-      return straightLineSchedule(amount, method.years);
-    case 'declining-balance':
-      return decliningBalanceSchedule(amount, method.years, method.factor ?? 2);
-    case 'macrs':
-      return macrsSchedule(amount, method.years);
-  }
+  const out = new Array<number>(scheduleLength(method));
+  scheduleInto(amount, method, out);
+  return out;
 }
 
 /** Where a spend's depreciation falls within a horizon of N years. */
@@ -110,14 +139,15 @@ export function placeSchedule(schedule: readonly number[], spendPeriod: number, 
  * it is the same number however the caller totals it.
  */
 export function addScheduleInto(
-  schedule: readonly number[],
+  schedule: ArrayLike<number>,
   spendPeriod: number,
   horizonYears: number,
   byPeriod: { [y: number]: number },
+  length = schedule.length,
 ): number {
   let writeOff = 0;
   const first = Math.max(spendPeriod, 1);
-  for (let j = 0; j < schedule.length; j++) {
+  for (let j = 0; j < length; j++) {
     const year = first + j;
     if (year <= horizonYears) byPeriod[year] += schedule[j];
     else writeOff += schedule[j];

@@ -13,7 +13,8 @@ import { assembleCashFlows, buildPolicyDetail, type PolicyCash } from './cash-fl
 import { rollUpFleet } from './fleet';
 import { bestPolicy, comparePolicies, policyResult } from './results';
 import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
-import { simulatePolicy } from './simulate';
+import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto, type CaseNpvs } from './npv-only';
+import { failureSourceOf, simulatePolicy } from './simulate';
 import type {
   CaseResult,
   DetailedCaseResult,
@@ -137,4 +138,15 @@ export function evaluateTruck(
   const [found] = evaluateTrucks(valid, options, true, truckId);
   if (!found || !found.detail) throw new Error(`no truck with id "${truckId}"`);
   return { result: found.result, detail: found.detail };
+}
+
+/**
+ * Npvs of every truck and policy; equal, number for number, to
+ * `evaluateCase(c).trucks[i].options[p].npv` (a test proves it).
+ */
+export function evaluateNpvs(c: CaseFileInput, options: EvaluateOptions = {}): CaseNpvs {
+  const valid = checked(c, options);
+  const out = createCaseNpvs(valid.trucks.length);
+  evaluateNpvsInto(valid, options.failureAge ? failureSourceOf(options.failureAge) : null, out, createNpvWorkspace());
+  return out;
 }

@@ -2,7 +2,7 @@
  * Public API of the finance engine (MODEL.md). Pure: no Next, React, database
  * or I/O. Case in (`case/1`), numbers out (`case-result/1`).
  */
-export { evaluateCase, evaluateCaseDetailed, evaluateTruck } from './evaluate';
+export { evaluateCase, evaluateCaseDetailed, evaluateNpvs, evaluateTruck } from './evaluate';
 export * from './types';
 export {
   ZERO,
@@ -54,5 +54,5 @@ export {
 } from './units';
 export { validateCase, CaseValidationError } from '@/lib/validation/case';
 export type { CaseFile, CaseFileInput, CaseProblem } from '@/lib/validation/case';
-export { evaluateNpvs, fleetBestNpv } from './npv-only';
+export { fleetBestNpv } from './npv-only';
 export type { CaseNpvs } from './npv-only';

@@ -3,14 +3,15 @@
  * simulation and cash flows as `evaluateCase` (shared code, not a second
  * model), but only each policy's npv per truck, without the trace, IRR, MIRR,
  * paybacks or breakdown arrays that many re-evaluations do not read.
+ * `evaluateNpvs`, which validates first, is in evaluate.ts: this module stays
+ * free of the validation schemas, so the Monte Carlo worker bundle is small.
  */
 import type { CaseFileInput, Engine, RepowerOffer } from '@/lib/validation/case';
-import { CaseValidationError, validateCase } from '@/lib/validation/case';
 import { createNpvScratch, policyNpv, type NpvScratch } from './cash-flow';
 import { bestPolicy } from './results';
 import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type TruckSetup } from './setup';
-import { emptyPolicyRun, simulatePolicyInto, type PolicyRun } from './simulate';
-import type { EvaluateOptions, FailureAgeProvider, PolicyKey } from './types';
+import { emptyPolicyRun, simulatePolicyInto, type FailureAgeSource, type PolicyRun } from './simulate';
+import type { PolicyKey } from './types';
 
 /** Npv of each policy per truck, in the case's truck order. */
 export interface CaseNpvs {
@@ -44,28 +45,12 @@ export function createCaseNpvs(count: number): CaseNpvs {
 }
 
 /**
- * Npvs of every truck and policy; equal, number for number, to
- * `evaluateCase(c).trucks[i].options[p].npv` (a test proves it).
- */
-export function evaluateNpvs(c: CaseFileInput, options: EvaluateOptions = {}): CaseNpvs {
-  let valid = c;
-  if (!options.trusted) {
-    const v = validateCase(c);
-    if (!v.ok) throw new CaseValidationError(v.problems);
-    valid = v.value;
-  }
-  const out = createCaseNpvs(valid.trucks.length);
-  evaluateNpvsInto(valid, options.failureAge, out, createNpvWorkspace());
-  return out;
-}
-
-/**
  * `evaluateNpvs` of a valid case into `out` (sized for its trucks), reusing
  * the workspace's buffers: what Monte Carlo calls once per iteration.
  */
 export function evaluateNpvsInto(
   valid: CaseFileInput,
-  failureAge: FailureAgeProvider | undefined,
+  failures: FailureAgeSource | null,
   out: CaseNpvs,
   ws: NpvWorkspace,
 ): void {
@@ -79,9 +64,9 @@ export function evaluateNpvsInto(
     const input = valid.trucks[i];
     const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables, ws.setups[i]);
     ws.setups[i] = setup;
-    const keep = policyNpv(setup, simulatePolicyInto(run, setup, 'keep', failureAge, false, i), scratch);
-    const rebuild = policyNpv(setup, simulatePolicyInto(run, setup, 'rebuild', failureAge, false, i), scratch);
-    const repower = policyNpv(setup, simulatePolicyInto(run, setup, 'repower', failureAge, false, i), scratch);
+    const keep = policyNpv(setup, simulatePolicyInto(run, setup, 'keep', failures, false, i), scratch);
+    const rebuild = policyNpv(setup, simulatePolicyInto(run, setup, 'rebuild', failures, false, i), scratch);
+    const repower = policyNpv(setup, simulatePolicyInto(run, setup, 'repower', failures, false, i), scratch);
     out.truckIds[i] = input.id;
     out.keep[i] = keep;
     out.rebuild[i] = rebuild;

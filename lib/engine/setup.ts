@@ -22,6 +22,8 @@ export interface TruckSetup {
   n: number;
   /** H_y for y = 0..N (H_0 = 0) */
   hours: Float64Array;
+  /** the truck figures the hours were computed from (a reused setup keeps its hours while they hold) */
+  hoursFrom: Pick<Truck, 'annualHours' | 'remainingLifeHours'>;
   /** by period, read for y = 0..N only (shared tables may be longer) */
   discountFactor: Float64Array;
   fuelIndex: Float64Array;
@@ -49,8 +51,10 @@ export function resolveOffer(input: CaseFileInput['repowerOffers'][number]): Rep
   return { ...input, productivityGain: input.productivityGain ?? 0, timing: input.timing ?? 'at-overhaul' };
 }
 
+/** A truck with its defaults; the input itself when it already has them (no copy per evaluation). */
 export function resolveTruck(input: CaseFileInput['trucks'][number]): Truck {
-  return { ...input, fuelBurnLitresPerHour: input.fuelBurnLitresPerHour ?? null };
+  if (input.fuelBurnLitresPerHour !== undefined) return input as Truck;
+  return { ...input, fuelBurnLitresPerHour: null };
 }
 
 /**
@@ -121,7 +125,9 @@ export function buildCaseYearTables(a: ResolvedAssumptions, trucks: readonly Pic
  * A truck's setup. `tables`, when given, must be built from the same
  * assumptions and reach at least period N; the setup then shares them (its
  * arrays may be longer than N + 1: readers stop at N). `previous`, a setup of
- * the same truck, lends its hours when they would be the same numbers.
+ * the same truck from an earlier evaluation, is refilled and returned instead
+ * of a new object (Monte Carlo: one per truck for a whole run), and keeps its
+ * hours when they would be the same numbers.
  */
 export function buildTruckSetup(
   truck: Truck,
@@ -141,7 +147,7 @@ export function buildTruckSetup(
   // (Monte Carlo: a typed array per truck and iteration is mostly allocator work)
   const same =
     previous !== undefined && previous.n === n &&
-    previous.truck.annualHours === truck.annualHours && previous.truck.remainingLifeHours === truck.remainingLifeHours;
+    previous.hoursFrom.annualHours === truck.annualHours && previous.hoursFrom.remainingLifeHours === truck.remainingLifeHours;
   const hours = same ? previous.hours : new Float64Array(n + 1);
   if (!same) {
     for (let y = 0; y <= n; y++) {
@@ -156,21 +162,30 @@ export function buildTruckSetup(
   const burnStart = calibration * modelledStart;
   const burnNext = calibration * modelledBurnLitresPerHour(powerKw, next.bsfcGPerKwh, a.fuelDensityKgPerL);
 
-  return {
-    truck,
-    a,
-    start,
-    offer,
-    next,
-    n,
-    hours,
-    discountFactor: years.discountFactor,
-    fuelIndex: years.fuelIndex,
-    carbonIndex: years.carbonIndex,
-    generalIndex: years.generalIndex,
-    powerKw,
-    calibration,
-    burnStart,
-    burnNext,
-  };
+  const hoursFrom = same ? previous.hoursFrom : { annualHours: truck.annualHours, remainingLifeHours: truck.remainingLifeHours };
+  if (previous === undefined) {
+    return {
+      truck, a, start, offer, next, n, hours, hoursFrom,
+      discountFactor: years.discountFactor, fuelIndex: years.fuelIndex, carbonIndex: years.carbonIndex, generalIndex: years.generalIndex,
+      powerKw, calibration, burnStart, burnNext,
+    };
+  }
+  const s = previous;
+  s.truck = truck;
+  s.a = a;
+  s.start = start;
+  s.offer = offer;
+  s.next = next;
+  s.n = n;
+  s.hours = hours;
+  s.hoursFrom = hoursFrom;
+  s.discountFactor = years.discountFactor;
+  s.fuelIndex = years.fuelIndex;
+  s.carbonIndex = years.carbonIndex;
+  s.generalIndex = years.generalIndex;
+  s.powerKw = powerKw;
+  s.calibration = calibration;
+  s.burnStart = burnStart;
+  s.burnNext = burnNext;
+  return s;
 }

@@ -31,11 +31,75 @@ export interface PeriodRun {
 export interface PolicyRun {
   policy: PolicyKey;
   periods: PeriodRun[];
+  /** the events of the run, in order, as numbers (always kept): what depreciation reads */
+  log: EventLog;
+  /** with `trace` only: the segments and the events as records (the detailed output) */
   segments: Segment[];
   events: EngineEvent[];
   /** engine fitted and its age at the end of year N */
   endEngine: Engine;
   endAge: number;
+  /** the run's working state, reused by the next run into this object */
+  state: RunState;
+}
+
+/** Event kinds as numbers in an `EventLog` (and in the simulation loop: no string compares there). */
+export const EVENT_CODE = { overhaul: 0, failure: 1, repower: 2 } as const satisfies Record<EventKind, number>;
+const OVERHAUL = EVENT_CODE.overhaul;
+const FAILURE = EVENT_CODE.failure;
+const REPOWER = EVENT_CODE.repower;
+/** No event ends the segment. */
+const NONE = -1;
+/** The kind of each code, for the event records. */
+export const EVENT_KINDS: readonly EventKind[] = ['overhaul', 'failure', 'repower'];
+
+/** Events of a run in typed arrays (period, kind code, cost), grown on demand and reused. */
+export interface EventLog {
+  count: number;
+  period: Int32Array;
+  kind: Uint8Array;
+  /** baseCost · priceIndex, as EngineEvent.cost */
+  cost: Float64Array;
+}
+
+function emptyEventLog(): EventLog {
+  return { count: 0, period: new Int32Array(8), kind: new Uint8Array(8), cost: new Float64Array(8) };
+}
+
+function logEvent(log: EventLog, period: number, kind: number, cost: number): void {
+  const i = log.count;
+  if (i === log.cost.length) {
+    const grow = <T extends Int32Array | Uint8Array | Float64Array>(a: T): T => {
+      const b = new (a.constructor as { new (n: number): T })(2 * i);
+      b.set(a);
+      return b;
+    };
+    log.period = grow(log.period);
+    log.kind = grow(log.kind);
+    log.cost = grow(log.cost);
+  }
+  log.period[i] = period;
+  log.kind[i] = kind;
+  log.cost[i] = cost;
+  log.count = i + 1;
+}
+
+/**
+ * Where failure ages come from when they are not the median path: asked once
+ * per engine life, with the life's start age, and must return an age above it.
+ * Monte Carlo passes one object for a whole run (no record per call); a
+ * `FailureAgeProvider` function is wrapped in one (`failureSourceOf`).
+ */
+export interface FailureAgeSource {
+  ageAt(truckIndex: number, lifeIndex: number, engine: Engine, startAge: number, policy: PolicyKey, truckId: string): number;
+}
+
+/** A provider function as a source: it is told the whole context record. */
+export function failureSourceOf(provider: FailureAgeProvider): FailureAgeSource {
+  return {
+    ageAt: (truckIndex, lifeIndex, engine, startAge, policy, truckId) =>
+      provider({ truckId, truckIndex, policy, engineId: engine.id, engine, lifeIndex, startAge }),
+  };
 }
 
 function emptyPeriod(): PeriodRun {
@@ -67,22 +131,30 @@ export function countOilServices(a1: number, a2: number, interval: number, endsI
   return count;
 }
 
-/** Mutable state of one policy run (module-level helpers instead of closures keep the hot path lean). */
-interface RunState {
+/**
+ * Mutable state of one policy run (module-level helpers instead of closures
+ * keep the hot path lean). One object per `PolicyRun`, reset at each run.
+ */
+export interface RunState {
   setup: TruckSetup;
   policy: PolicyKey;
-  failureAge: FailureAgeProvider | undefined;
+  failures: FailureAgeSource | null;
   trace: boolean;
   periods: PeriodRun[];
+  log: EventLog;
   segments: Segment[];
   events: EngineEvent[];
-  /** index of the truck in its case, passed to the failure-age provider */
+  /** index of the truck in its case, passed to the failure-age source */
   truckIndex: number;
   engine: Engine;
   burn: number;
   age: number;
+  /** floor((age + 1e-6) / service interval): oil services counted up to the current age */
+  serviceMark: number;
   lifeIndex: number;
   failAt: number;
+  /** operating hours run in the period before the event being booked */
+  hourOfYear: number;
   repowered: boolean;
   tph: number;
   extraTph: number;
@@ -117,17 +189,22 @@ function medianFailureAgeMemo(age: number, shape: number, scale: number): number
 
 function drawFailureAge(st: RunState, startAge: number): number {
   const e = st.engine;
-  if (!st.failureAge) return medianFailureAgeMemo(startAge, e.weibullShape, e.weibullScaleHours);
+  if (st.failures === null) return medianFailureAgeMemo(startAge, e.weibullShape, e.weibullScaleHours);
   const truckId = st.setup.truck.id;
-  const f = st.failureAge({ truckId, truckIndex: st.truckIndex, policy: st.policy, engineId: e.id, engine: e, lifeIndex: st.lifeIndex, startAge });
+  const f = st.failures.ageAt(st.truckIndex, st.lifeIndex, e, startAge, st.policy, truckId);
   if (!Number.isFinite(f) || !(f > startAge)) {
     throw new RangeError(`failure age ${f} for truck ${truckId} must be finite and above its start age ${startAge}`);
   }
   return f;
 }
 
+/** floor((age + 1e-6) / interval), the oil-service count up to an age (see `countOilServices`). */
+function serviceMarkAt(age: number, interval: number): number {
+  return Math.floor((age + ZERO) / interval);
+}
+
 /** Book an event in period y: its cost, days down and lost margin; then the engine starts a new life. */
-function bookEvent(st: RunState, kind: EventKind, y: number, hourOfYear: number): void {
+function bookEvent(st: RunState, code: number, y: number): void {
   const { setup } = st;
   const { offer, truck } = setup;
   const p = st.periods[y];
@@ -135,10 +212,10 @@ function bookEvent(st: RunState, kind: EventKind, y: number, hourOfYear: number)
   const engine = st.engine;
   let baseCost: number;
   let days: number;
-  if (kind === 'repower') {
+  if (code === REPOWER) {
     baseCost = offer.modulePrice + offer.installCost - offer.coreCredit;
     days = offer.downtimeDays;
-  } else if (kind === 'overhaul') {
+  } else if (code === OVERHAUL) {
     baseCost = engine.overhaulCost;
     days = engine.overhaulDowntimeDays;
   } else {
@@ -148,45 +225,73 @@ function bookEvent(st: RunState, kind: EventKind, y: number, hourOfYear: number)
   const cost = baseCost * idx;
   // days down at the rate before the event: a repower's own days at the old rate
   const lost = ((days * truck.annualHours) / 365) * st.tph * setup.a.marginPerTonne * idx;
-  if (kind === 'repower') p.capital += cost;
-  else if (kind === 'overhaul') p.overhauls += cost;
+  if (code === REPOWER) p.capital += cost;
+  else if (code === OVERHAUL) p.overhauls += cost;
   else p.failures += cost;
   p.lostMargin += lost;
   p.downtimeDays += days;
-  const event: EngineEvent = {
-    kind, period: y, hourOfYear, engineId: engine.id, engineAge: st.age,
-    baseCost, priceIndex: idx, cost, downtimeDays: days, downtimeTonnesPerHour: st.tph, lostMargin: lost,
-  };
-  if (kind === 'repower') {
-    event.newEngineId = setup.next.id;
+  logEvent(st.log, y, code, cost);
+  if (st.trace) {
+    const kind = EVENT_KINDS[code];
+    const event: EngineEvent = {
+      kind, period: y, hourOfYear: st.hourOfYear, engineId: engine.id, engineAge: st.age,
+      baseCost, priceIndex: idx, cost, downtimeDays: days, downtimeTonnesPerHour: st.tph, lostMargin: lost,
+    };
+    if (code === REPOWER) event.newEngineId = setup.next.id;
+    st.events.push(event);
+  }
+  if (code === REPOWER) {
     st.engine = setup.next;
     st.burn = setup.burnNext;
     st.repowered = true;
     st.extraTph = truck.tonnesPerHour * offer.productivityGain;
     st.tph = truck.tonnesPerHour + st.extraTph;
   }
-  st.events.push(event);
   st.age = 0;
+  st.serviceMark = serviceMarkAt(0, st.engine.serviceIntervalHours);
   st.lifeIndex += 1;
   st.failAt = drawFailureAge(st, 0);
 }
 
 /** The next event's age and kind: keep waits for the failure; rebuild takes the planned life unless
  * the failure comes first (equal counts as planned); repower replaces the first of them. */
-function nextEventAge(st: RunState): number {
-  if (st.policy === 'keep') return st.failAt;
+function nextEventAge(st: RunState, keep: boolean): number {
+  if (keep) return st.failAt;
   const planned = st.engine.lifeHours;
   return st.failAt < planned - ZERO ? st.failAt : planned;
 }
-function nextEventKind(st: RunState): EventKind {
-  if (st.policy === 'keep') return 'failure';
-  if (st.policy === 'repower' && !st.repowered) return 'repower';
-  return st.failAt < st.engine.lifeHours - ZERO ? 'failure' : 'overhaul';
+function nextEventKind(st: RunState, keep: boolean, repower: boolean): number {
+  if (keep) return FAILURE;
+  if (repower && !st.repowered) return REPOWER;
+  return st.failAt < st.engine.lifeHours - ZERO ? FAILURE : OVERHAUL;
 }
+
+/** Record a segment (the detailed output only). */
+function pushSegment(
+  st: RunState, y: number, engine: Engine, startAge: number, endAge: number, h: number, burn: number, litres: number,
+  tph: number, extraTph: number, services: number, serviceCost: number, topUp: number, code: number,
+): void {
+  st.segments.push({
+    period: y, engineId: engine.id, startAge, endAge, hours: h, litresPerHour: burn, litres,
+    tonnesPerHour: tph, extraTonnesPerHour: extraTph, oilServices: services, serviceCost,
+    topUpLitres: topUp, endsWith: code === NONE ? null : EVENT_KINDS[code],
+  });
+}
+
+// what a run without trace shows as its segments and event records (never pushed to: pushes need `trace`)
+const NO_SEGMENTS: readonly Segment[] = Object.freeze([]);
+const NO_EVENTS: readonly EngineEvent[] = Object.freeze([]);
 
 /** A run with no periods yet, to be filled (and refilled) by `simulatePolicyInto`. */
 export function emptyPolicyRun(): PolicyRun {
-  return { policy: 'keep', periods: [], segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0 };
+  const periods: PeriodRun[] = [];
+  const log = emptyEventLog();
+  const state: RunState = {
+    setup: undefined as unknown as TruckSetup, policy: 'keep', failures: null, trace: false, periods, log,
+    segments: [], events: [], truckIndex: -1, engine: undefined as unknown as Engine, burn: 0, age: 0, serviceMark: 0,
+    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0,
+  };
+  return { policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0, state };
 }
 
 /**
@@ -201,20 +306,21 @@ export function simulatePolicy(
   trace = false,
   truckIndex = -1,
 ): PolicyRun {
-  return simulatePolicyInto(emptyPolicyRun(), setup, policy, failureAge, trace, truckIndex);
+  return simulatePolicyInto(emptyPolicyRun(), setup, policy, failureAge ? failureSourceOf(failureAge) : null, trace, truckIndex);
 }
 
 /**
- * `simulatePolicy` writing into `run`, whose period objects are zeroed and
- * reused (Monte Carlo refills one run per policy instead of allocating some
- * fifty objects per truck and iteration). Periods past N may be left over from
- * a longer truck: readers stop at N. Events and segments are new each time.
+ * `simulatePolicy` writing into `run`, whose period objects, event log and
+ * state are zeroed and reused (Monte Carlo refills one run per policy and
+ * allocates nothing per truck and iteration). Periods past N may be left over
+ * from a longer truck: readers stop at N. With `trace`, the segments and
+ * event records are new arrays each time.
  */
 export function simulatePolicyInto(
   run: PolicyRun,
   setup: TruckSetup,
   policy: PolicyKey,
-  failureAge?: FailureAgeProvider,
+  failures: FailureAgeSource | null = null,
   trace = false,
   truckIndex = -1,
 ): PolicyRun {
@@ -224,62 +330,108 @@ export function simulatePolicyInto(
     if (y < periods.length) clearPeriod(periods[y]);
     else periods.push(emptyPeriod());
   }
-  const st: RunState = {
-    setup, policy, failureAge, trace, periods, segments: [], events: [], truckIndex,
-    engine: setup.start, burn: setup.burnStart, age: truck.engineHours, lifeIndex: 0, failAt: 0,
-    repowered: false, tph: truck.tonnesPerHour, extraTph: 0,
-  };
+  const st = run.state;
+  st.setup = setup;
+  st.policy = policy;
+  st.failures = failures;
+  st.trace = trace;
+  st.log.count = 0;
+  st.segments = trace ? [] : (NO_SEGMENTS as Segment[]);
+  st.events = trace ? [] : (NO_EVENTS as EngineEvent[]);
+  st.truckIndex = truckIndex;
+  st.engine = setup.start;
+  st.burn = setup.burnStart;
+  st.age = truck.engineHours;
+  st.serviceMark = serviceMarkAt(st.age, st.engine.serviceIntervalHours);
+  st.lifeIndex = 0;
+  st.hourOfYear = 0;
+  st.repowered = false;
+  st.tph = truck.tonnesPerHour;
+  st.extraTph = 0;
   st.failAt = drawFailureAge(st, st.age);
 
   // period 0: an engine at or past its planned life has its planned event now; a "now" repower too
-  if (policy !== 'keep' && st.age >= st.engine.lifeHours - ZERO) bookEvent(st, policy === 'rebuild' ? 'overhaul' : 'repower', 0, 0);
-  if (policy === 'repower' && !st.repowered && offer.timing === 'now') bookEvent(st, 'repower', 0, 0);
+  const keep = policy === 'keep';
+  const repower = policy === 'repower';
+  if (!keep && st.age >= st.engine.lifeHours - ZERO) bookEvent(st, repower ? REPOWER : OVERHAUL, 0);
+  if (repower && !st.repowered && offer.timing === 'now') bookEvent(st, REPOWER, 0);
 
+  // the run's state in locals while segments follow one another (reloaded after each event, which changes it),
+  // and the year's segment totals in locals too, added in segment order and stored once at the year's end
+  // (events add only to other fields of the period: capital, overhauls, failures, days down, lost margin)
+  const labourRate = as.labourRate;
+  let age = st.age;
+  let serviceMark = st.serviceMark;
+  let eventAge = nextEventAge(st, keep);
+  let engine = st.engine;
+  let interval = engine.serviceIntervalHours;
+  let burn = st.burn;
+  let tph = st.tph;
+  let extraTph = st.extraTph;
   for (let y = 1; y <= n; y++) {
-    const p = periods[y];
     const idx = generalIndex[y];
     const lubePrice = as.lubePrice * idx;
     const margin = as.marginPerTonne * idx;
+    let hoursRun = 0, fuelLitres = 0, tonnes = 0, extraTonnes = 0, oilServices = 0, topUpLitres = 0, lube = 0, extraMargin = 0;
     let left = hours[y];
-    let ran = 0;
     while (left > 0) {
-      const dist = nextEventAge(st) - st.age;
+      const dist = eventAge - age;
       let happens: boolean;
       if (dist < left - ZERO) happens = true;
       else if (dist <= left + ZERO) happens = y < n; // at the year's last hour: not at the very end of the horizon
       else happens = false;
       const h = happens && dist < left - ZERO ? dist : left;
-      const engine = st.engine;
-      const a1 = st.age;
-      const a2 = a1 + h;
-      const services = countOilServices(a1, a2, engine.serviceIntervalHours, happens);
-      const serviceCost =
-        engine.sumpLitres * lubePrice + engine.serviceKitCost * idx + engine.serviceLabourHours * as.labourRate * idx;
+      const a2 = age + h;
+      // countOilServices(a1, a2, …) with floor((a1 + 1e-6)/I) carried over from the previous segment of this life
+      const mark = serviceMarkAt(a2, interval);
+      let services = mark - serviceMark;
+      if (happens && services > 0 && Math.abs(a2 - Math.round(a2 / interval) * interval) < ZERO) services -= 1;
+      const serviceCost = engine.sumpLitres * lubePrice + engine.serviceKitCost * idx + engine.serviceLabourHours * labourRate * idx;
       const topUp = engine.topUpLitresPerHour * h;
-      const litres = st.burn * h;
-      p.hours += h;
-      p.fuelLitres += litres;
-      p.tonnes += h * st.tph;
-      p.extraTonnes += h * st.extraTph;
-      p.oilServices += services;
-      p.topUpLitres += topUp;
-      p.lube += services * serviceCost + topUp * lubePrice;
-      p.extraMargin += h * st.extraTph * margin;
-      const kind = happens ? nextEventKind(st) : null;
-      if (trace) {
-        st.segments.push({
-          period: y, engineId: engine.id, startAge: a1, endAge: a2, hours: h, litresPerHour: st.burn, litres,
-          tonnesPerHour: st.tph, extraTonnesPerHour: st.extraTph, oilServices: services, serviceCost,
-          topUpLitres: topUp, endsWith: kind,
-        });
+      const litres = burn * h;
+      hoursRun += h;
+      fuelLitres += litres;
+      tonnes += h * tph;
+      extraTonnes += h * extraTph;
+      oilServices += services;
+      topUpLitres += topUp;
+      lube += services * serviceCost + topUp * lubePrice;
+      extraMargin += h * extraTph * margin;
+      left -= h;
+      if (!happens) {
+        if (trace) pushSegment(st, y, engine, age, a2, h, burn, litres, tph, extraTph, services, serviceCost, topUp, NONE);
+        age = a2;
+        serviceMark = mark;
+        continue;
       }
       st.age = a2;
-      left -= h;
-      ran += h;
-      if (kind) bookEvent(st, kind, y, ran);
+      const code = nextEventKind(st, keep, repower);
+      if (trace) pushSegment(st, y, engine, age, a2, h, burn, litres, tph, extraTph, services, serviceCost, topUp, code);
+      st.hourOfYear = hoursRun; // a field, not an argument: a double argument is boxed on each call
+      bookEvent(st, code, y);
+      age = st.age;
+      serviceMark = st.serviceMark;
+      eventAge = nextEventAge(st, keep);
+      engine = st.engine;
+      interval = engine.serviceIntervalHours;
+      burn = st.burn;
+      tph = st.tph;
+      extraTph = st.extraTph;
     }
+    const p = periods[y];
+    p.hours = hoursRun;
+    p.fuelLitres = fuelLitres;
+    p.tonnes = tonnes;
+    p.extraTonnes = extraTonnes;
+    p.oilServices = oilServices;
+    p.topUpLitres = topUpLitres;
+    p.lube = lube;
+    p.extraMargin = extraMargin;
   }
+  st.age = age;
+  st.serviceMark = serviceMark;
   run.policy = policy;
+  run.log = st.log;
   run.segments = st.segments;
   run.events = st.events;
   run.endEngine = st.engine;

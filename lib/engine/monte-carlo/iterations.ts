@@ -9,11 +9,12 @@
 import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import type { CaseFileInput } from '@/lib/validation/case';
-import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto } from '../npv-only';
+import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto, type CaseNpvs, type NpvWorkspace } from '../npv-only';
 import type { Engine } from '@/lib/validation/case';
 import { sampleWeibullAge } from '../reliability';
 import { clampDriver, cloneCase, getDriver, parseDriverId, setDriver, type DriverRef } from '../sensitivity/drivers';
-import type { FailureAgeContext } from '../types';
+import type { FailureAgeSource } from '../simulate';
+import type { PolicyKey } from '../types';
 import { sampleDistribution, type Distribution } from './distributions';
 
 export interface MonteCarloSpec {
@@ -60,100 +61,156 @@ export function runIterations(
   to: number,
   control: RunControl = {},
 ): { npvs: Float64Array; done: number } {
-  const trucks = validCase.trucks.length;
-  const work = cloneCase(validCase);
-  const active: { ref: DriverRef; dist: Distribution; base: number }[] = spec.distributions
-    .filter((d) => d.distribution.kind !== 'fixed')
-    .map((d) => {
-      const ref = parseDriverId(d.driver);
-      return { ref, dist: d.distribution, base: getDriver(validCase, ref) };
-    });
-  const npvs = control.into ?? new Float64Array((to - from) * trucks * POLICY_SLOTS);
-  if (npvs.length < (to - from) * trucks * POLICY_SLOTS) throw new RangeError('runIterations: the output buffer is too short');
-  const every = control.every ?? 100;
-  // one uniform per (truck, engine life), shared by the three policies: the same
-  // engine life fails at the same quantile whatever the policy (common random numbers)
-  const lifeU: number[][] = Array.from({ length: trucks }, () => []);
-  // the failure age drawn for (truck, life), by engine and start age: the policies often
-  // ask for the same one (life 0 always; keep and rebuild after that), and it is the same number
-  const ages = Array.from({ length: trucks }, () => new AgeCache());
-  const result = createCaseNpvs(trucks);
-  const ws = createNpvWorkspace();
-  let rng = xoroshiro128plus(0);
-
-  const failureAge = (ctx: FailureAgeContext): number => {
-    const t = ctx.truckIndex;
-    const us = lifeU[t];
-    while (us.length <= ctx.lifeIndex) us.push(uniformFloat64(rng));
-    const cache = ages[t];
-    // ctx.engine is the working case's engine object: drivers change it in place, so it holds the sampled law
-    const e = ctx.engine;
-    const hit = cache.find(ctx.lifeIndex, e, ctx.startAge);
-    if (hit >= 0) return cache.age[hit];
-    const age = sampleWeibullAge(us[ctx.lifeIndex], e.weibullShape, e.weibullScaleHours, ctx.startAge);
-    cache.add(ctx.lifeIndex, e, ctx.startAge, age);
-    return age;
-  };
-
-  let done = 0;
-  for (let i = from; i < to; i++) {
-    rng = xoroshiro128plus(iterationSeed(spec.seed, i));
-    for (const a of active) setDriver(work, validCase, a.ref, clampDriver(a.ref, sampleDistribution(a.dist, uniformFloat64(rng), a.base)));
-    if (spec.sampleFailures) {
-      for (let t = 0; t < trucks; t++) {
-        lifeU[t].length = 0;
-        ages[t].clear();
-      }
-    }
-    evaluateNpvsInto(work, spec.sampleFailures ? failureAge : undefined, result, ws);
-    const off = (i - from) * trucks * POLICY_SLOTS;
-    for (let t = 0; t < trucks; t++) {
-      npvs[off + t * 3] = result.keep[t];
-      npvs[off + t * 3 + 1] = result.rebuild[t];
-      npvs[off + t * 3 + 2] = result.repower[t];
-    }
-    done++;
-    if (done % every === 0) {
-      control.onProgress?.(done);
-      if (control.shouldStop?.()) break;
-    }
-  }
-  const length = done * trucks * POLICY_SLOTS;
-  if (control.into) return { npvs: npvs.subarray(0, length), done };
-  return { npvs: done === to - from ? npvs : npvs.slice(0, length), done };
+  return new IterationRunner(validCase, spec).run(from, to, control);
 }
 
 /**
- * Failure ages of one truck in one iteration, keyed by (life, engine, start
- * age): two slots per life (a truck's lives after the first run on one of two
- * engines); a third combination is simply not cached. `clear` bumps an epoch.
+ * Runs any ranges of one spec's iterations on one working copy of the case:
+ * the clone, the drivers, the failure-age cache and the evaluation buffers
+ * are made once, then reused by every range it runs (a worker runs its share
+ * in many small ranges, taking the next one when it is free, so both workers
+ * finish together). A class, not a closure: every runner shares one compiled
+ * `run`, already optimised from the previous job in a warm worker.
  */
-class AgeCache {
-  epoch = 1;
-  stamp: number[] = [];
-  engine: Engine[] = [];
-  start: number[] = [];
-  age: number[] = [];
+export class IterationRunner {
+  private readonly trucks: number;
+  private readonly work: CaseFileInput;
+  private readonly active: { ref: DriverRef; dist: Distribution; base: number }[];
+  private readonly failures: SampledFailures;
+  private readonly result: CaseNpvs;
+  private readonly ws: NpvWorkspace;
 
-  clear(): void {
+  /** `validCase` must be valid (validateCase) and `spec` checked (driver ids exist). */
+  constructor(
+    private readonly validCase: CaseFileInput,
+    private readonly spec: MonteCarloSpec,
+  ) {
+    this.trucks = validCase.trucks.length;
+    this.work = cloneCase(validCase);
+    this.active = spec.distributions
+      .filter((d) => d.distribution.kind !== 'fixed')
+      .map((d) => {
+        const ref = parseDriverId(d.driver);
+        return { ref, dist: d.distribution, base: getDriver(validCase, ref) };
+      });
+    this.failures = new SampledFailures(this.trucks);
+    this.result = createCaseNpvs(this.trucks);
+    this.ws = createNpvWorkspace();
+  }
+
+  /** Iterations [from, to), as `runIterations`. */
+  run(from: number, to: number, control: RunControl = {}): { npvs: Float64Array; done: number } {
+    const { trucks, work, validCase, spec, active, failures, result, ws } = this;
+    const npvs = control.into ?? new Float64Array((to - from) * trucks * POLICY_SLOTS);
+    if (npvs.length < (to - from) * trucks * POLICY_SLOTS) throw new RangeError('runIterations: the output buffer is too short');
+    const every = control.every ?? 100;
+    let done = 0;
+    for (let i = from; i < to; i++) {
+      const rng = xoroshiro128plus(iterationSeed(spec.seed, i));
+      for (const a of active) setDriver(work, validCase, a.ref, clampDriver(a.ref, sampleDistribution(a.dist, uniformFloat64(rng), a.base)));
+      if (spec.sampleFailures) failures.start(rng);
+      evaluateNpvsInto(work, spec.sampleFailures ? failures : null, result, ws);
+      const off = (i - from) * trucks * POLICY_SLOTS;
+      for (let t = 0; t < trucks; t++) {
+        npvs[off + t * 3] = result.keep[t];
+        npvs[off + t * 3 + 1] = result.rebuild[t];
+        npvs[off + t * 3 + 2] = result.repower[t];
+      }
+      done++;
+      if (done % every === 0) {
+        control.onProgress?.(done);
+        if (control.shouldStop?.()) break;
+      }
+    }
+    const length = done * trucks * POLICY_SLOTS;
+    if (control.into) return { npvs: npvs.subarray(0, length), done };
+    return { npvs: done === to - from ? npvs : npvs.slice(0, length), done };
+  }
+}
+
+/**
+ * The failure ages of one iteration: one uniform per (truck, engine life),
+ * drawn from the iteration's generator when a policy first reaches that life
+ * and shared by the three policies (common random numbers: the same engine
+ * life fails at the same quantile whatever the policy). The age drawn for
+ * (truck, life, engine, start age) is kept too: the policies often ask for
+ * the same one (life 0 always; keep and rebuild after that), and it is the
+ * same number. Two slots per (truck, life): a truck's lives after the first
+ * run on one of two engines; a third combination is simply not cached.
+ * Typed arrays indexed by truck · LIVES + life, cleared by an epoch stamp.
+ */
+type RandomGenerator = ReturnType<typeof xoroshiro128plus>;
+
+class SampledFailures implements FailureAgeSource {
+  private lives = 8;
+  private rng: RandomGenerator = xoroshiro128plus(0);
+  private epoch = 0;
+  /** uniform of (truck, life), valid when uStamp equals the epoch */
+  private u: Float64Array;
+  private uStamp: Int32Array;
+  /** two cached ages per (truck, life) */
+  private ageStamp: Int32Array;
+  private ageEngine: (Engine | undefined)[];
+  private ageStart: Float64Array;
+  private age: Float64Array;
+
+  constructor(private readonly trucks: number) {
+    this.u = new Float64Array(trucks * this.lives);
+    this.uStamp = new Int32Array(trucks * this.lives);
+    this.ageStamp = new Int32Array(trucks * this.lives * 2);
+    this.ageEngine = new Array(trucks * this.lives * 2).fill(undefined);
+    this.ageStart = new Float64Array(trucks * this.lives * 2);
+    this.age = new Float64Array(trucks * this.lives * 2);
+  }
+
+  /** A new iteration drawing from `rng`: forget every uniform and age. */
+  start(rng: RandomGenerator): void {
+    this.rng = rng;
     this.epoch++;
   }
 
-  find(life: number, engine: Engine, start: number): number {
-    for (let k = life * 2; k < life * 2 + 2; k++) {
-      if (this.stamp[k] === this.epoch && this.start[k] === start && this.engine[k] === engine) return k;
+  ageAt(truckIndex: number, lifeIndex: number, engine: Engine, startAge: number, _policy: PolicyKey, _truckId: string): number {
+    if (lifeIndex >= this.lives) this.grow(lifeIndex + 1);
+    const slot = truckIndex * this.lives + lifeIndex;
+    const epoch = this.epoch;
+    if (this.uStamp[slot] !== epoch) {
+      // lives are reached in order, so the uniforms of a truck are drawn in life order
+      this.u[slot] = uniformFloat64(this.rng);
+      this.uStamp[slot] = epoch;
     }
-    return -1;
+    // the engine object is the working case's: drivers change it in place, so it holds the sampled law
+    const k = slot * 2;
+    if (this.ageStamp[k] === epoch && this.ageStart[k] === startAge && this.ageEngine[k] === engine) return this.age[k];
+    if (this.ageStamp[k + 1] === epoch && this.ageStart[k + 1] === startAge && this.ageEngine[k + 1] === engine) return this.age[k + 1];
+    const age = sampleWeibullAge(this.u[slot], engine.weibullShape, engine.weibullScaleHours, startAge);
+    const free = this.ageStamp[k] !== epoch ? k : this.ageStamp[k + 1] !== epoch ? k + 1 : -1;
+    if (free >= 0) {
+      this.ageStamp[free] = epoch;
+      this.ageEngine[free] = engine;
+      this.ageStart[free] = startAge;
+      this.age[free] = age;
+    }
+    return age;
   }
 
-  add(life: number, engine: Engine, start: number, age: number): void {
-    let k = life * 2;
-    while (this.stamp.length < k + 2) this.stamp.push(0);
-    if (this.stamp[k] === this.epoch) k++;
-    if (this.stamp[k] === this.epoch) return;
-    this.stamp[k] = this.epoch;
-    this.engine[k] = engine;
-    this.start[k] = start;
-    this.age[k] = age;
+  /** Room for more lives per truck (a long horizon on short lives): copy into wider rows. */
+  private grow(lives: number): void {
+    const next = Math.max(lives, this.lives * 2);
+    const widen = <T extends Float64Array | Int32Array>(a: T, per: number, make: (n: number) => T): T => {
+      const b = make(this.trucks * next * per);
+      for (let t = 0; t < this.trucks; t++) b.set(a.subarray(t * this.lives * per, (t + 1) * this.lives * per), t * next * per);
+      return b;
+    };
+    const engines = new Array<Engine | undefined>(this.trucks * next * 2).fill(undefined);
+    for (let t = 0; t < this.trucks; t++) {
+      for (let j = 0; j < this.lives * 2; j++) engines[t * next * 2 + j] = this.ageEngine[t * this.lives * 2 + j];
+    }
+    this.u = widen(this.u, 1, (n) => new Float64Array(n));
+    this.uStamp = widen(this.uStamp, 1, (n) => new Int32Array(n));
+    this.ageStamp = widen(this.ageStamp, 2, (n) => new Int32Array(n));
+    this.ageStart = widen(this.ageStart, 2, (n) => new Float64Array(n));
+    this.age = widen(this.age, 2, (n) => new Float64Array(n));
+    this.ageEngine = engines;
+    this.lives = next;
   }
 }

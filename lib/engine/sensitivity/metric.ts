@@ -3,7 +3,8 @@
  * with some drivers changed (on one working clone, reset after each run).
  */
 import type { CaseFileInput } from '@/lib/validation/case';
-import { evaluateNpvs, fleetBestNpv, type CaseNpvs } from '../npv-only';
+import { evaluateNpvs } from '../evaluate';
+import { fleetBestNpv, type CaseNpvs } from '../npv-only';
 import { cloneCase, getDriver, setDriver, type DriverRef } from './drivers';
 
 /**
