@@ -1,7 +1,8 @@
 /**
- * Runs a Monte Carlo spec's iterations across worker threads, each a
- * contiguous block written straight into one shared buffer (no copies, no
- * merge), then has the same workers summarise blocks of trucks side by side.
+ * Runs a Monte Carlo spec's iterations across worker threads, which take
+ * chunks of iterations from a shared counter and write each straight into its
+ * place in one shared buffer (no copies, no merge), then has the same workers
+ * summarise blocks of trucks side by side.
  * Shared by the job manager and the benchmark (no server-only imports here).
  *
  * Workers outlive a run: finished ones wait, unreferenced, for the next run
@@ -12,12 +13,24 @@
 import { Worker } from 'node:worker_threads';
 import type { MonteCarloResult, MonteCarloSpec, TruckRisk } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
-import type { WorkerMessage, WorkerRequest } from './worker-entry';
+import type { DoneRange, WorkerMessage, WorkerRequest } from './worker-entry';
 
 export interface PoolRun {
   workers: Worker[];
-  /** npvs of the iterations done, in iteration order; their summaries (null when none ran) */
-  finished: Promise<{ npvs: Float64Array; done: number; result: MonteCarloResult | null }>;
+  /**
+   * npvs of the iterations done, in iteration order; which ones they are
+   * (all of them unless the run was stopped); their summaries (null when none ran)
+   */
+  finished: Promise<{ npvs: Float64Array; done: number; ranges: DoneRange[]; result: MonteCarloResult | null }>;
+}
+
+/**
+ * Iterations a worker takes at a time: about fifty chunks per worker, so the
+ * last one to finish waits for at most a small share of the run, and at least
+ * one progress step each.
+ */
+export function chunkSize(total: number, workers: number, progressEvery: number): number {
+  return Math.max(progressEvery, Math.ceil(total / (workers * 50)));
 }
 
 /** Idle workers kept per bundle, at most this many (two runs at once of two workers each). */
@@ -100,17 +113,22 @@ export function runInWorkers(
   const count = Math.max(1, Math.min(o.workers, Math.ceil(total / 100)));
   const perIteration = trucks * 3;
   const out = new SharedArrayBuffer(total * perIteration * 8);
+  const next = new SharedArrayBuffer(4);
   const doneBy = new Array<number>(count).fill(0);
+  const rangesBy: DoneRange[][] = Array.from({ length: count }, () => []);
   const progressEvery = Math.max(10, Math.min(250, Math.floor(total / count / 40)));
+  const chunk = chunkSize(total, count, progressEvery);
   const workers = Array.from({ length: count }, () => takeWorker(bundle));
-  const blocks = workers.map((_, w) => ({ from: Math.floor((total * w) / count), to: Math.floor((total * (w + 1)) / count) }));
 
   const runs = workers.map((worker, w) =>
-    ask(worker, { type: 'run', validCase, spec, ...blocks[w], stop: o.stop, out, offset: blocks[w].from * perIteration, progressEvery }, (done) => {
+    ask(worker, { type: 'run', validCase, spec, next, chunk, stop: o.stop, out, progressEvery }, (done) => {
       doneBy[w] = done;
       o.onProgress?.(doneBy.reduce((a, b) => a + b, 0));
     }).then((m) => {
-      if (m.type === 'done') doneBy[w] = m.done;
+      if (m.type === 'done') {
+        doneBy[w] = m.done;
+        rangesBy[w] = m.ranges;
+      }
     }),
   );
 
@@ -118,13 +136,13 @@ export function runInWorkers(
     const done = doneBy.reduce((a, b) => a + b, 0);
     o.onProgress?.(done);
     const all = new Float64Array(out);
-    // a stopped run: move each block's finished iterations up behind the previous block's
+    // in iteration order; a stopped run leaves gaps: move each range's finished iterations up behind the previous one
+    const ranges = rangesBy.flat().filter(([, n]) => n > 0).sort((x, y) => x[0] - y[0]);
     let at = 0;
-    for (let w = 0; w < count; w++) {
-      const start = blocks[w].from * perIteration;
-      const length = doneBy[w] * perIteration;
-      if (start !== at) all.copyWithin(at, start, start + length);
-      at += length;
+    for (const [from, n] of ranges) {
+      const start = from * perIteration;
+      if (start !== at) all.copyWithin(at, start, start + n * perIteration);
+      at += n * perIteration;
     }
     const npvs = all.subarray(0, at);
     let result: MonteCarloResult | null = null;
@@ -147,7 +165,7 @@ export function runInWorkers(
       result = { iterations: done, trucks: truckRisk, fleet: fleet as MonteCarloResult['fleet'] };
     }
     giveBack(bundle, workers);
-    return { npvs, done, result };
+    return { npvs, done, ranges, result };
   });
   finished.catch(() => workers.forEach((w) => void w.terminate()));
   return { workers, finished };

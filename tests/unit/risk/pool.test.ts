@@ -1,9 +1,10 @@
 /**
  * The worker pool: iterations written by two workers into one shared buffer,
  * and the summaries they make side by side, are the numbers the same spec
- * gives in one thread (runIterations + summariseRun); a stopped run keeps, in
- * order, the iterations each worker finished; warm workers are reused and
- * give the same numbers again.
+ * gives in one thread (runIterations + summariseRun), however the workers
+ * shared the chunks out; a stopped run keeps, in iteration order, the
+ * iterations the workers finished; warm workers are reused and give the same
+ * numbers again.
  */
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
@@ -11,7 +12,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { validateCase } from '@/lib/engine';
 import { runIterations, summariseRun, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
-import { runInWorkers } from '@/lib/risk/pool';
+import { chunkSize, runInWorkers } from '@/lib/risk/pool';
 
 const raw = JSON.parse(readFileSync(path.resolve(__dirname, '../../../scenarios/aldervane-north-pit.json'), 'utf8'));
 const v = validateCase(raw);
@@ -49,17 +50,34 @@ describe('runInWorkers', () => {
     }
   });
 
-  it('keeps, in order, what each worker finished when the run is stopped', async () => {
+  it('keeps, in iteration order, what the workers finished when the run is stopped', async () => {
     const stop = new SharedArrayBuffer(4);
-    Atomics.store(new Int32Array(stop), 0, 1); // stop at the first check: each worker does one progress step
-    const { npvs, done, result } = await runInWorkers(bundle, demo, { ...spec, iterations: 4000 }, { workers: 2, stop }).finished;
+    const flag = new Int32Array(stop);
+    // raised at the first progress step: each worker stops at its next check, within its first chunk
+    const { npvs, done, ranges, result } = await runInWorkers(bundle, demo, { ...spec, iterations: 4000 }, {
+      workers: 2,
+      stop,
+      onProgress: () => Atomics.store(flag, 0, 1),
+    }).finished;
     expect(done).toBeGreaterThan(0);
     expect(done).toBeLessThan(4000);
-    const half = done / 2; // both workers stopped after the same number of iterations
-    const first = runIterations(demo, spec, 0, half).npvs;
-    const second = runIterations(demo, spec, 2000, 2000 + half).npvs;
-    expect(Array.from(npvs)).toEqual([...first, ...second]);
-    expect(result).toEqual(summariseRun(ids, Float64Array.from([...first, ...second])));
+    expect(ranges.reduce((sum, [, n]) => sum + n, 0)).toBe(done);
+    // the ranges are in order and do not overlap; their npvs are the single-thread ones for those iterations
+    const expected: number[] = [];
+    let end = 0;
+    for (const [from, n] of ranges) {
+      expect(from).toBeGreaterThanOrEqual(end);
+      end = from + n;
+      expected.push(...runIterations(demo, spec, from, from + n).npvs);
+    }
+    expect(Array.from(npvs)).toEqual(expected);
+    expect(result).toEqual(summariseRun(ids, Float64Array.from(expected)));
     expect(result!.iterations).toBe(done);
+  });
+
+  it('shares the iterations out in chunks of about a fiftieth of each worker\'s share, and never less than a progress step', () => {
+    expect(chunkSize(10_000, 2, 125)).toBe(125);
+    expect(chunkSize(100_000, 2, 250)).toBe(1000);
+    expect(chunkSize(300, 2, 10)).toBe(10);
   });
 });
