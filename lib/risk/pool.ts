@@ -101,11 +101,66 @@ function ask(worker: Worker, request: WorkerRequest, onProgress?: (done: number)
   });
 }
 
+/** The warm-up in progress, if any: a real run stops it and waits for its workers (on globalThis, like the idle list:
+ * the server's start-up hook and its route handlers may load separate copies of this module). */
+const warmHolder = globalThis as unknown as { __haulcaseMcWarming?: { stop: Int32Array; finished: Promise<unknown> } | null };
+
+/**
+ * Start `workers` threads before anyone asks for a run and run a short
+ * Monte Carlo of `validCase` on them (sampled failures and a few drivers of
+ * each kind), so the first real run finds them compiled and optimised: a fresh
+ * worker spends its first half second in the interpreter and the compiler.
+ * The numbers are thrown away. A run that starts meanwhile stops the warm-up
+ * at its next progress step and takes its workers. Resolves when done.
+ */
+export function prewarm(bundle: string, validCase: CaseFileInput, o: { workers: number; iterations?: number }): Promise<void> {
+  const offer = validCase.repowerOffers[0];
+  const spec: MonteCarloSpec = {
+    iterations: o.iterations ?? 600,
+    seed: 1,
+    sampleFailures: true,
+    distributions: [
+      { driver: 'fuelPrice', distribution: { kind: 'triangular', min: 0.8, mode: 1, max: 1.3 } },
+      { driver: 'discountRate', distribution: { kind: 'uniform', min: 0.05, max: 0.1 } },
+      { driver: 'annualHours@*', distribution: { kind: 'uniform', min: 5000, max: 6500 } },
+      ...(offer ? [{ driver: `modulePrice@${offer.id}`, distribution: { kind: 'normal' as const, mean: offer.modulePrice, sd: offer.modulePrice / 10, min: 0, max: 2 * offer.modulePrice } }] : []),
+    ],
+  };
+  const stop = new SharedArrayBuffer(4);
+  const run = runInWorkers(bundle, validCase, spec, { workers: o.workers, stop, warmUp: true });
+  const finished = run.finished.then(
+    () => undefined,
+    () => undefined, // a failed warm-up only means the first run starts cold
+  );
+  const entry = { stop: new Int32Array(stop), finished };
+  warmHolder.__haulcaseMcWarming = entry;
+  void finished.then(() => {
+    if (warmHolder.__haulcaseMcWarming === entry) warmHolder.__haulcaseMcWarming = null;
+  });
+  return finished;
+}
+
+/** Stop the warm-up, if one is running, and wait until its workers are back in the pool. */
+function stopWarmUp(): Promise<unknown> {
+  const warming = warmHolder.__haulcaseMcWarming;
+  if (!warming) return Promise.resolve();
+  Atomics.store(warming.stop, 0, 1);
+  return warming.finished;
+}
+
+/** End every idle worker of a bundle (the benchmark's cold start; tests). */
+export async function drainPool(bundle: string): Promise<void> {
+  await stopWarmUp();
+  const list = idle.get(bundle) ?? [];
+  idle.set(bundle, []);
+  await Promise.all(list.map((w) => w.terminate()));
+}
+
 export function runInWorkers(
   bundle: string,
   validCase: CaseFileInput,
   spec: MonteCarloSpec,
-  o: { workers: number; stop: SharedArrayBuffer; onProgress?: (done: number) => void },
+  o: { workers: number; stop: SharedArrayBuffer; onProgress?: (done: number) => void; warmUp?: boolean },
 ): PoolRun {
   const total = spec.iterations;
   const trucks = validCase.trucks.length;
@@ -118,21 +173,28 @@ export function runInWorkers(
   const rangesBy: DoneRange[][] = Array.from({ length: count }, () => []);
   const progressEvery = Math.max(10, Math.min(250, Math.floor(total / count / 40)));
   const chunk = chunkSize(total, count, progressEvery);
-  const workers = Array.from({ length: count }, () => takeWorker(bundle));
+  // filled once the workers are taken (after any warm-up has handed its workers back)
+  const workers: Worker[] = [];
+  const ready = o.warmUp ? Promise.resolve() : stopWarmUp();
 
-  const runs = workers.map((worker, w) =>
-    ask(worker, { type: 'run', validCase, spec, next, chunk, stop: o.stop, out, progressEvery }, (done) => {
-      doneBy[w] = done;
-      o.onProgress?.(doneBy.reduce((a, b) => a + b, 0));
-    }).then((m) => {
-      if (m.type === 'done') {
-        doneBy[w] = m.done;
-        rangesBy[w] = m.ranges;
-      }
-    }),
-  );
+  const runs = ready.then(() => {
+    for (let w = 0; w < count; w++) workers.push(takeWorker(bundle));
+    return Promise.all(
+      workers.map((worker, w) =>
+        ask(worker, { type: 'run', validCase, spec, next, chunk, stop: o.stop, out, progressEvery }, (done) => {
+          doneBy[w] = done;
+          o.onProgress?.(doneBy.reduce((a, b) => a + b, 0));
+        }).then((m) => {
+          if (m.type === 'done') {
+            doneBy[w] = m.done;
+            rangesBy[w] = m.ranges;
+          }
+        }),
+      ),
+    );
+  });
 
-  const finished = Promise.all(runs).then(async () => {
+  const finished = runs.then(async () => {
     const done = doneBy.reduce((a, b) => a + b, 0);
     o.onProgress?.(done);
     const all = new Float64Array(out);
