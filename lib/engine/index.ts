@@ -36,6 +36,9 @@ export {
   medianFailureAge,
   medianResidualLife,
   sampleWeibullAge,
+  cumulativeHazard,
+  unitExponential,
+  weibullAgeFromExponential,
 } from './reliability';
 export { horizonYears, priceIndex } from './setup';
 export { countOilServices } from './simulate';

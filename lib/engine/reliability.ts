@@ -42,7 +42,7 @@ export function conditionalReliability(t: number, age: number, shape: number, sc
  * @example medianFailureAge(0, 1, 1000) // = 1000·ln 2 ≈ 693.147
  */
 export function medianFailureAge(age: number, shape: number, scale: number): number {
-  return scale * power(ageTerm(age, shape, scale) + Math.LN2, 1 / shape);
+  return scale * power(cumulativeHazard(age, shape, scale) + Math.LN2, 1 / shape);
 }
 
 /**
@@ -57,11 +57,14 @@ function power(x: number, e: number): number {
 }
 
 /**
- * (a/η)^β; for a new engine (a = 0) that is exactly +0 for every β > 0, so the
- * power is skipped (most lives start new, and the powers are the costly part
- * of a Monte Carlo iteration).
+ * Cumulative hazard H(a) = (a/η)^β, so that R(a) = exp(−H(a)). For a new
+ * engine (a = 0) it is exactly +0 for every β > 0, and the power is skipped
+ * (most lives start new, and the powers are the costly part of a Monte Carlo
+ * iteration).
+ *
+ * @example cumulativeHazard(24000, 3.2, 24000) // = 1
  */
-function ageTerm(age: number, shape: number, scale: number): number {
+export function cumulativeHazard(age: number, shape: number, scale: number): number {
   return age === 0 ? 0 : power(age / scale, shape);
 }
 
@@ -80,11 +83,41 @@ export function medianResidualLife(age: number, shape: number, scale: number): n
  * P(failure by t | survived to a) = u. u comes from the caller's (seeded)
  * uniform generator; it is clamped to [2^−52, 1 − 2^−52] so that the age is
  * finite and greater than a. u = 0.5 gives the median (`medianFailureAge`).
+ * The same number as `weibullAgeFromExponential(unitExponential(u), …)`.
  *
  * @example sampleWeibullAge(0.5, 3.2, 24000, 16500) === medianFailureAge(16500, 3.2, 24000)
  */
 export function sampleWeibullAge(u: number, shape: number, scale: number, currentAge = 0): number {
+  return weibullAgeFromExponential(unitExponential(u), shape, scale, currentAge);
+}
+
+/**
+ * −ln(1 − u), a unit exponential variate from a uniform u (clamped to
+ * [2^−52, 1 − 2^−52]): the part of a Weibull draw that does not depend on the
+ * law, so one engine life's draw can serve two engines' laws.
+ *
+ * @example unitExponential(0.5) // = ln 2
+ */
+export function unitExponential(u: number): number {
   const p = Math.min(Math.max(u, Number.EPSILON), 1 - Number.EPSILON);
-  const age = scale * power(ageTerm(currentAge, shape, scale) - Math.log1p(-p), 1 / shape);
+  return -Math.log1p(-p);
+}
+
+/**
+ * Failure age from a unit exponential e, given survival to `currentAge`:
+ * t = η·(H(a) + e)^(1/β), H the cumulative hazard; `hazardAtAge` may pass
+ * H(a) when the caller already has it. Always above a: should rounding
+ * leave t at a, the next representable age above it is returned.
+ *
+ * @example weibullAgeFromExponential(1, 1, 1000) // = 1000
+ */
+export function weibullAgeFromExponential(
+  e: number,
+  shape: number,
+  scale: number,
+  currentAge = 0,
+  hazardAtAge = cumulativeHazard(currentAge, shape, scale),
+): number {
+  const age = scale * power(hazardAtAge + e, 1 / shape);
   return age > currentAge ? age : currentAge + Number.EPSILON * Math.max(1, currentAge);
 }

@@ -11,7 +11,7 @@ import { xoroshiro128plus } from 'pure-rand/generator/xoroshiro128plus';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto, type CaseNpvs, type NpvWorkspace } from '../npv-only';
 import type { Engine } from '@/lib/validation/case';
-import { sampleWeibullAge } from '../reliability';
+import { cumulativeHazard, unitExponential, weibullAgeFromExponential } from '../reliability';
 import { clampDriver, cloneCase, getDriver, parseDriverId, setDriver, type DriverRef } from '../sensitivity/drivers';
 import type { FailureAgeSource } from '../simulate';
 import type { PolicyKey } from '../types';
@@ -128,39 +128,61 @@ export class IterationRunner {
   }
 }
 
+type RandomGenerator = ReturnType<typeof xoroshiro128plus>;
+
 /**
  * The failure ages of one iteration: one uniform per (truck, engine life),
  * drawn from the iteration's generator when a policy first reaches that life
  * and shared by the three policies (common random numbers: the same engine
- * life fails at the same quantile whatever the policy). The age drawn for
- * (truck, life, engine, start age) is kept too: the policies often ask for
- * the same one (life 0 always; keep and rebuild after that), and it is the
- * same number. Two slots per (truck, life): a truck's lives after the first
- * run on one of two engines; a third combination is simply not cached.
- * Typed arrays indexed by truck · LIVES + life, cleared by an epoch stamp.
+ * life fails at the same quantile whatever the policy), kept as its unit
+ * exponential e = −ln(1 − u). Each age is `sampleWeibullAge` of that uniform,
+ * the same number, with three savings:
+ * - the age drawn for (truck, life, engine, start age) is kept: the policies
+ *   often ask for the same one (life 0 always; keep and rebuild after that).
+ *   Two slots per (truck, life): a truck's lives after the first run on one of
+ *   two engines; a third combination is simply not cached;
+ * - the hazard (a/η)^β a truck's first life starts with is kept from one
+ *   iteration to the next while its age and the law stay the same;
+ * - rebuild and repower only compare a new engine's failure age with its
+ *   planned life: when e exceeds the planned life's hazard (L/η)^β by a
+ *   margin (1e-9, relative) far above rounding, the age is certainly past L
+ *   and is not computed; 2·L stands in for it (never cached, so keep, which
+ *   reads ages themselves, always gets the real one).
+ * Typed arrays indexed by truck · lives + life, cleared by an epoch stamp.
  */
-type RandomGenerator = ReturnType<typeof xoroshiro128plus>;
-
 class SampledFailures implements FailureAgeSource {
   private lives = 8;
   private rng: RandomGenerator = xoroshiro128plus(0);
   private epoch = 0;
-  /** uniform of (truck, life), valid when uStamp equals the epoch */
-  private u: Float64Array;
-  private uStamp: Int32Array;
+  /** unit exponential of (truck, life), valid when eStamp equals the epoch */
+  private e: Float64Array;
+  private eStamp: Int32Array;
   /** two cached ages per (truck, life) */
   private ageStamp: Int32Array;
   private ageEngine: (Engine | undefined)[];
   private ageStart: Float64Array;
   private age: Float64Array;
+  /** per truck: the hazard its first life starts with, and the age, β and η it is for */
+  private hazard: Float64Array;
+  private hazardAge: Float64Array;
+  private hazardShape: Float64Array;
+  private hazardScale: Float64Array;
+  /** per engine seen this iteration: the hazard at its planned life */
+  private plannedEngine: Engine[] = [];
+  private plannedStamp: number[] = [];
+  private plannedHazard: number[] = [];
 
   constructor(private readonly trucks: number) {
-    this.u = new Float64Array(trucks * this.lives);
-    this.uStamp = new Int32Array(trucks * this.lives);
+    this.e = new Float64Array(trucks * this.lives);
+    this.eStamp = new Int32Array(trucks * this.lives);
     this.ageStamp = new Int32Array(trucks * this.lives * 2);
     this.ageEngine = new Array(trucks * this.lives * 2).fill(undefined);
     this.ageStart = new Float64Array(trucks * this.lives * 2);
     this.age = new Float64Array(trucks * this.lives * 2);
+    this.hazard = new Float64Array(trucks);
+    this.hazardAge = new Float64Array(trucks).fill(Number.NaN);
+    this.hazardShape = new Float64Array(trucks);
+    this.hazardScale = new Float64Array(trucks);
   }
 
   /** A new iteration drawing from `rng`: forget every uniform and age. */
@@ -169,20 +191,29 @@ class SampledFailures implements FailureAgeSource {
     this.epoch++;
   }
 
-  ageAt(truckIndex: number, lifeIndex: number, engine: Engine, startAge: number, _policy: PolicyKey, _truckId: string): number {
+  ageAt(truckIndex: number, lifeIndex: number, engine: Engine, startAge: number, policy: PolicyKey, _truckId: string): number {
     if (lifeIndex >= this.lives) this.grow(lifeIndex + 1);
     const slot = truckIndex * this.lives + lifeIndex;
     const epoch = this.epoch;
-    if (this.uStamp[slot] !== epoch) {
+    if (this.eStamp[slot] !== epoch) {
       // lives are reached in order, so the uniforms of a truck are drawn in life order
-      this.u[slot] = uniformFloat64(this.rng);
-      this.uStamp[slot] = epoch;
+      this.e[slot] = unitExponential(uniformFloat64(this.rng));
+      this.eStamp[slot] = epoch;
     }
     // the engine object is the working case's: drivers change it in place, so it holds the sampled law
     const k = slot * 2;
     if (this.ageStamp[k] === epoch && this.ageStart[k] === startAge && this.ageEngine[k] === engine) return this.age[k];
     if (this.ageStamp[k + 1] === epoch && this.ageStart[k + 1] === startAge && this.ageEngine[k + 1] === engine) return this.age[k + 1];
-    const age = sampleWeibullAge(this.u[slot], engine.weibullShape, engine.weibullScaleHours, startAge);
+    const e = this.e[slot];
+    const shape = engine.weibullShape;
+    const scale = engine.weibullScaleHours;
+    let age: number;
+    if (startAge === 0) {
+      if (policy !== 'keep' && e > this.plannedLifeHazard(engine) * (1 + 1e-9)) return 2 * engine.lifeHours;
+      age = weibullAgeFromExponential(e, shape, scale, 0, 0);
+    } else {
+      age = weibullAgeFromExponential(e, shape, scale, startAge, this.startHazard(truckIndex, startAge, shape, scale));
+    }
     const free = this.ageStamp[k] !== epoch ? k : this.ageStamp[k + 1] !== epoch ? k + 1 : -1;
     if (free >= 0) {
       this.ageStamp[free] = epoch;
@@ -191,6 +222,34 @@ class SampledFailures implements FailureAgeSource {
       this.age[free] = age;
     }
     return age;
+  }
+
+  /** (a/η)^β of a truck's first life, kept while a, β and η stay the same. */
+  private startHazard(truckIndex: number, startAge: number, shape: number, scale: number): number {
+    if (this.hazardAge[truckIndex] !== startAge || this.hazardShape[truckIndex] !== shape || this.hazardScale[truckIndex] !== scale) {
+      this.hazard[truckIndex] = cumulativeHazard(startAge, shape, scale);
+      this.hazardAge[truckIndex] = startAge;
+      this.hazardShape[truckIndex] = shape;
+      this.hazardScale[truckIndex] = scale;
+    }
+    return this.hazard[truckIndex];
+  }
+
+  /** (L/η)^β of an engine this iteration (its law and life may be drivers). */
+  private plannedLifeHazard(engine: Engine): number {
+    const list = this.plannedEngine;
+    let i = 0;
+    while (i < list.length && list[i] !== engine) i++;
+    if (i === list.length) {
+      list.push(engine);
+      this.plannedStamp.push(0);
+      this.plannedHazard.push(0);
+    }
+    if (this.plannedStamp[i] !== this.epoch) {
+      this.plannedHazard[i] = cumulativeHazard(engine.lifeHours, engine.weibullShape, engine.weibullScaleHours);
+      this.plannedStamp[i] = this.epoch;
+    }
+    return this.plannedHazard[i];
   }
 
   /** Room for more lives per truck (a long horizon on short lives): copy into wider rows. */
@@ -205,8 +264,8 @@ class SampledFailures implements FailureAgeSource {
     for (let t = 0; t < this.trucks; t++) {
       for (let j = 0; j < this.lives * 2; j++) engines[t * next * 2 + j] = this.ageEngine[t * this.lives * 2 + j];
     }
-    this.u = widen(this.u, 1, (n) => new Float64Array(n));
-    this.uStamp = widen(this.uStamp, 1, (n) => new Int32Array(n));
+    this.e = widen(this.e, 1, (n) => new Float64Array(n));
+    this.eStamp = widen(this.eStamp, 1, (n) => new Int32Array(n));
     this.ageStamp = widen(this.ageStamp, 2, (n) => new Int32Array(n));
     this.ageStart = widen(this.ageStart, 2, (n) => new Float64Array(n));
     this.age = widen(this.age, 2, (n) => new Float64Array(n));

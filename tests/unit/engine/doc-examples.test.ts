@@ -54,6 +54,9 @@ describe('doc-comment examples', () => {
     expect(engine.medianFailureAge(0, 1, 1000)).toBeCloseTo(693.147, 3);
     expect(engine.medianResidualLife(500, 1, 1000)).toBeCloseTo(1000 * Math.LN2, 9);
     expect(engine.sampleWeibullAge(0.5, 3.2, 24000, 16500)).toBeCloseTo(engine.medianFailureAge(16500, 3.2, 24000), 6);
+    expect(engine.cumulativeHazard(24000, 3.2, 24000)).toBeCloseTo(1, 12);
+    expect(engine.unitExponential(0.5)).toBeCloseTo(Math.LN2, 15);
+    expect(engine.weibullAgeFromExponential(1, 1, 1000)).toBeCloseTo(1000, 9);
     expect(engine.powerDemandKw(0.5, 2000)).toBe(1000);
     expect(engine.modelledBurnLitresPerHour(1000, 210, 0.835)).toBeCloseTo(251.497, 3);
     expect(engine.calibrationFactor(240, 250)).toBeCloseTo(0.96, 12);

@@ -7,6 +7,7 @@ import {
   co2Tonnes,
   calibrationFactor,
   conditionalReliability,
+  cumulativeHazard,
   gPerKwhToLbPerHpH,
   gallonsPerHourToLitresPerHour,
   hpToKw,
@@ -19,7 +20,9 @@ import {
   modelledBurnLitresPerHour,
   powerDemandKw,
   sampleWeibullAge,
+  unitExponential,
   usGallonsToLitres,
+  weibullAgeFromExponential,
   weibullCdf,
   weibullReliability,
 } from '@/lib/engine';
@@ -61,6 +64,20 @@ describe('Weibull reliability', () => {
     // extremes stay finite and beyond the current age
     expect(sampleWeibullAge(0, 3.2, 24000, 5000)).toBeGreaterThan(5000);
     expect(Number.isFinite(sampleWeibullAge(1, 3.2, 24000, 5000))).toBe(true);
+  });
+
+  it('a draw split into its unit exponential and the law is the same number (what Monte Carlo caches)', () => {
+    for (let k = 0; k < 2000; k++) {
+      const u = (k + 0.5) / 2000;
+      for (const [shape, scale, age] of [[3.2, 24000, 0], [3.2, 24000, 16500], [1.4, 31000, 9000], [8, 20000, 25000]]) {
+        const split = weibullAgeFromExponential(unitExponential(u), shape, scale, age, cumulativeHazard(age, shape, scale));
+        expect(split).toBe(sampleWeibullAge(u, shape, scale, age));
+      }
+    }
+    // a new engine's cumulative hazard is exactly 0; e = H(L) is the planned life L itself (within rounding)
+    expect(cumulativeHazard(0, 3.2, 24000)).toBe(0);
+    const l = 20000;
+    expect(weibullAgeFromExponential(cumulativeHazard(l, 3.2, 24000), 3.2, 24000)).toBeCloseTo(l, 6);
   });
 });
 
