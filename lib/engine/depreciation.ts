@@ -154,3 +154,12 @@ export function addScheduleInto(
   }
   return writeOff;
 }
+
+/**
+ * Whether a spend is depreciated for tax: a repower always, an overhaul or a
+ * repair only when rebuilds are capitalised; never a spend of 0 (MODEL.md section 6).
+ */
+export function isDepreciatedSpend(repower: boolean, cost: number, expense: boolean): boolean {
+  if (cost === 0) return false;
+  return repower || !expense;
+}

@@ -42,7 +42,7 @@ export {
 } from './reliability';
 export { horizonYears, priceIndex } from './setup';
 export { countOilServices } from './simulate';
-export { residualCredit } from './cash-flow';
+export { npvFromTotals, residualCredit } from './cash-flow';
 export { bestPolicy, comparePolicies } from './results';
 export { rollUpFleet, capitalSpent } from './fleet';
 export {

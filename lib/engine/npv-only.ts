@@ -7,7 +7,6 @@
  * free of the validation schemas, so the Monte Carlo worker bundle is small.
  */
 import type { CaseFileInput, Engine, RepowerOffer } from '@/lib/validation/case';
-import { createNpvScratch, policyNpv, type NpvScratch } from './cash-flow';
 import { bestPolicy } from './results';
 import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type TruckSetup } from './setup';
 import { emptyPolicyRun, simulatePolicyInto, type FailureAgeSource, type PolicyRun } from './simulate';
@@ -25,13 +24,12 @@ export interface CaseNpvs {
 /** Buffers reused from one evaluation to the next (Monte Carlo keeps one per worker). */
 export interface NpvWorkspace {
   run: PolicyRun;
-  scratch: NpvScratch;
   /** the last setup of each truck (by index), to lend its hours to the next */
   setups: (TruckSetup | undefined)[];
 }
 
 export function createNpvWorkspace(): NpvWorkspace {
-  return { run: emptyPolicyRun(), scratch: createNpvScratch(), setups: [] };
+  return { run: emptyPolicyRun(), setups: [] };
 }
 
 export function createCaseNpvs(count: number): CaseNpvs {
@@ -58,15 +56,15 @@ export function evaluateNpvsInto(
   const engines = new Map<string, Engine>(valid.engines.map((e) => [e.id, e]));
   const offers = new Map<string, RepowerOffer>(valid.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
   const tables = buildCaseYearTables(a, valid.trucks);
-  const { run, scratch } = ws;
+  const { run } = ws;
   const count = valid.trucks.length;
   for (let i = 0; i < count; i++) {
     const input = valid.trucks[i];
     const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables, ws.setups[i]);
     ws.setups[i] = setup;
-    const keep = policyNpv(setup, simulatePolicyInto(run, setup, 'keep', failures, false, i), scratch);
-    const rebuild = policyNpv(setup, simulatePolicyInto(run, setup, 'rebuild', failures, false, i), scratch);
-    const repower = policyNpv(setup, simulatePolicyInto(run, setup, 'repower', failures, false, i), scratch);
+    const keep = simulatePolicyInto(run, setup, 'keep', failures, false, i, false).npv;
+    const rebuild = simulatePolicyInto(run, setup, 'rebuild', failures, false, i, false).npv;
+    const repower = simulatePolicyInto(run, setup, 'repower', failures, false, i, false).npv;
     out.truckIds[i] = input.id;
     out.keep[i] = keep;
     out.rebuild[i] = rebuild;

@@ -16,14 +16,15 @@ import type { Comparison, PolicyKey, PolicyResult } from './types';
 
 /**
  * Results of one policy from its cash flows.
- * - npv = Σ CF_y·DF_y (negative: a cost)
+ * - npv = Σ CF_y·DF_y (negative: a cost), as the simulation summed it by kind
+ *   (`npvFromTotals`: the same sum regrouped; equal to the table's within rounding)
  * - eac = −npv·(A/P, r, N) (an end-of-year annuity whatever the timing; −npv/N at r = 0)
  * - costPerHour = −(npv − PV of the after-tax extra margin) / Σ H_y·DF_y; costPerTonne on Σ tonnes_y·DF_y
  */
 export function policyResult(cash: PolicyCash, discountFactors: ArrayLike<number>, discountRate: number, taxRate: number): PolicyResult {
   const n = cash.n;
   const periods = cash.run.periods;
-  let npv = 0;
+  const npv = cash.run.npv;
   let pvExtra = 0;
   let pvHours = 0;
   let pvTonnes = 0;
@@ -34,7 +35,6 @@ export function policyResult(cash: PolicyCash, discountFactors: ArrayLike<number
   for (let y = 0; y <= n; y++) {
     const p = periods[y];
     const df = discountFactors[y];
-    npv += cash.cashFlows[y] * df;
     pvExtra += (1 - taxRate) * cash.breakdown[y].extraMargin * df;
     pvHours += p.hours * df;
     pvTonnes += p.tonnes * df;

@@ -26,6 +26,8 @@ export interface TruckSetup {
   hoursFrom: Pick<Truck, 'annualHours' | 'remainingLifeHours'>;
   /** by period, read for y = 0..N only (shared tables may be longer) */
   discountFactor: Float64Array;
+  /** DF_y · (fuel + carbon price of a litre in year y): the present value of burning one litre then */
+  energyCost: Float64Array;
   fuelIndex: Float64Array;
   carbonIndex: Float64Array;
   generalIndex: Float64Array;
@@ -88,6 +90,8 @@ export function priceIndex(growth: number, period: number): number {
  */
 export interface YearTables {
   discountFactor: Float64Array;
+  /** DF_y · (fuelPrice·fuelIndex_y + co2KgPerLitre/1000 · carbonPrice·carbonIndex_y) */
+  energyCost: Float64Array;
   fuelIndex: Float64Array;
   carbonIndex: Float64Array;
   generalIndex: Float64Array;
@@ -96,6 +100,7 @@ export interface YearTables {
 export function buildYearTables(a: ResolvedAssumptions, n: number): YearTables {
   // typed arrays: one element kind for every table, so the hot loops' loads stay monomorphic
   const discountFactor = new Float64Array(n + 1);
+  const energyCost = new Float64Array(n + 1);
   const fuelIndex = new Float64Array(n + 1);
   const carbonIndex = new Float64Array(n + 1);
   const generalIndex = new Float64Array(n + 1);
@@ -105,8 +110,9 @@ export function buildYearTables(a: ResolvedAssumptions, n: number): YearTables {
     fuelIndex[y] = priceIndex(a.fuelEscalation, y);
     carbonIndex[y] = priceIndex(a.carbonEscalation, y);
     generalIndex[y] = priceIndex(a.inflation, y);
+    energyCost[y] = discountFactor[y] * (a.fuelPrice * fuelIndex[y] + (a.co2KgPerLitre / 1000) * a.carbonPrice * carbonIndex[y]);
   }
-  return { discountFactor, fuelIndex, carbonIndex, generalIndex };
+  return { discountFactor, energyCost, fuelIndex, carbonIndex, generalIndex };
 }
 
 /** N of a truck under the assumptions (see `horizonYears`). */
@@ -166,7 +172,7 @@ export function buildTruckSetup(
   if (previous === undefined) {
     return {
       truck, a, start, offer, next, n, hours, hoursFrom,
-      discountFactor: years.discountFactor, fuelIndex: years.fuelIndex, carbonIndex: years.carbonIndex, generalIndex: years.generalIndex,
+      discountFactor: years.discountFactor, energyCost: years.energyCost, fuelIndex: years.fuelIndex, carbonIndex: years.carbonIndex, generalIndex: years.generalIndex,
       powerKw, calibration, burnStart, burnNext,
     };
   }
@@ -180,6 +186,7 @@ export function buildTruckSetup(
   s.hours = hours;
   s.hoursFrom = hoursFrom;
   s.discountFactor = years.discountFactor;
+  s.energyCost = years.energyCost;
   s.fuelIndex = years.fuelIndex;
   s.carbonIndex = years.carbonIndex;
   s.generalIndex = years.generalIndex;

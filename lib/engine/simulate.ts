@@ -5,10 +5,12 @@
  * period's prices. Tax and cash flow are assembled in cash-flow.ts.
  */
 import type { Engine } from '@/lib/validation/case';
+import { npvFromTotals, residualCredit, type DiscountedTotals } from './cash-flow';
+import { isDepreciatedSpend, scheduleInto, scheduleLength } from './depreciation';
 import { medianFailureAge } from './reliability';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
-import type { EngineEvent, EventKind, FailureAgeProvider, PolicyKey, Segment } from './types';
+import { EVENT_CODE, EVENT_KINDS, type EngineEvent, type FailureAgeProvider, type PolicyKey, type Segment } from './types';
 
 /** Pre-tax physical and money totals of one period, before tax. */
 export interface PeriodRun {
@@ -39,19 +41,20 @@ export interface PolicyRun {
   /** engine fitted and its age at the end of year N */
   endEngine: Engine;
   endAge: number;
+  /** present values of what the run spends and earns, by kind, summed as it went */
+  discounted: DiscountedTotals;
+  /** Σ CF_y·DF_y from the discounted totals (`npvFromTotals`) */
+  npv: number;
   /** the run's working state, reused by the next run into this object */
   state: RunState;
 }
 
-/** Event kinds as numbers in an `EventLog` (and in the simulation loop: no string compares there). */
-export const EVENT_CODE = { overhaul: 0, failure: 1, repower: 2 } as const satisfies Record<EventKind, number>;
 const OVERHAUL = EVENT_CODE.overhaul;
 const FAILURE = EVENT_CODE.failure;
 const REPOWER = EVENT_CODE.repower;
 /** No event ends the segment. */
 const NONE = -1;
-/** The kind of each code, for the event records. */
-export const EVENT_KINDS: readonly EventKind[] = ['overhaul', 'failure', 'repower'];
+
 
 /** Events of a run in typed arrays (period, kind code, cost), grown on demand and reused. */
 export interface EventLog {
@@ -140,6 +143,8 @@ export interface RunState {
   policy: PolicyKey;
   failures: FailureAgeSource | null;
   trace: boolean;
+  /** keep the period records (the full path) */
+  records: boolean;
   periods: PeriodRun[];
   log: EventLog;
   segments: Segment[];
@@ -158,6 +163,10 @@ export interface RunState {
   repowered: boolean;
   tph: number;
   extraTph: number;
+  /** present values so far */
+  d: DiscountedTotals;
+  /** one spend's depreciation schedule D_1, D_2, … (reused) */
+  schedule: Float64Array;
 }
 
 /**
@@ -207,7 +216,6 @@ function serviceMarkAt(age: number, interval: number): number {
 function bookEvent(st: RunState, code: number, y: number): void {
   const { setup } = st;
   const { offer, truck } = setup;
-  const p = st.periods[y];
   const idx = setup.generalIndex[y];
   const engine = st.engine;
   let baseCost: number;
@@ -225,11 +233,21 @@ function bookEvent(st: RunState, code: number, y: number): void {
   const cost = baseCost * idx;
   // days down at the rate before the event: a repower's own days at the old rate
   const lost = ((days * truck.annualHours) / 365) * st.tph * setup.a.marginPerTonne * idx;
-  if (code === REPOWER) p.capital += cost;
-  else if (code === OVERHAUL) p.overhauls += cost;
-  else p.failures += cost;
-  p.lostMargin += lost;
-  p.downtimeDays += days;
+  const df = setup.discountFactor[y];
+  const d = st.d;
+  if (code === REPOWER) d.capital += cost * df;
+  else if (code === OVERHAUL) d.overhauls += cost * df;
+  else d.failures += cost * df;
+  d.lostMargin += lost * df;
+  if (st.records) {
+    const p = st.periods[y];
+    if (code === REPOWER) p.capital += cost;
+    else if (code === OVERHAUL) p.overhauls += cost;
+    else p.failures += cost;
+    p.lostMargin += lost;
+    p.downtimeDays += days;
+  }
+  if (isDepreciatedSpend(code === REPOWER, cost, setup.a.rebuildAccounting === 'expense')) depreciateSpend(st, cost, y);
   logEvent(st.log, y, code, cost);
   if (st.trace) {
     const kind = EVENT_KINDS[code];
@@ -278,6 +296,40 @@ function pushSegment(
   });
 }
 
+function emptyTotals(): DiscountedTotals {
+  return { energy: 0, lube: 0, lostMargin: 0, overhauls: 0, failures: 0, capital: 0, extraMargin: 0, depreciation: 0, writeOff: 0 };
+}
+
+function clearTotals(d: DiscountedTotals): void {
+  d.energy = 0; d.lube = 0; d.lostMargin = 0; d.overhauls = 0; d.failures = 0; d.capital = 0; d.extraMargin = 0;
+  d.depreciation = 0; d.writeOff = 0;
+}
+
+/**
+ * A depreciated spend booked in period s: the present value of its
+ * depreciation (D_j in year max(s, 1) + j − 1, MODEL.md section 6) and, for
+ * what falls after year N, the write-off.
+ */
+function depreciateSpend(st: RunState, cost: number, period: number): void {
+  const { setup } = st;
+  const method = setup.a.depreciation;
+  const length = scheduleLength(method);
+  if (st.schedule.length < length) st.schedule = new Float64Array(length);
+  scheduleInto(cost, method, st.schedule);
+  const df = setup.discountFactor;
+  const n = setup.n;
+  const first = Math.max(period, 1);
+  let pv = 0;
+  let writeOff = 0;
+  for (let j = 0; j < length; j++) {
+    const year = first + j; // placed as `placeSchedule` places it
+    if (year <= n) pv += st.schedule[j] * df[year];
+    else writeOff += st.schedule[j];
+  }
+  st.d.depreciation += pv;
+  st.d.writeOff += writeOff;
+}
+
 // what a run without trace shows as its segments and event records (never pushed to: pushes need `trace`)
 const NO_SEGMENTS: readonly Segment[] = Object.freeze([]);
 const NO_EVENTS: readonly EngineEvent[] = Object.freeze([]);
@@ -287,11 +339,14 @@ export function emptyPolicyRun(): PolicyRun {
   const periods: PeriodRun[] = [];
   const log = emptyEventLog();
   const state: RunState = {
-    setup: undefined as unknown as TruckSetup, policy: 'keep', failures: null, trace: false, periods, log,
+    setup: undefined as unknown as TruckSetup, policy: 'keep', failures: null, trace: false, records: true, periods, log,
     segments: [], events: [], truckIndex: -1, engine: undefined as unknown as Engine, burn: 0, age: 0, serviceMark: 0,
-    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0,
+    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0, d: emptyTotals(), schedule: new Float64Array(32),
   };
-  return { policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0, state };
+  return {
+    policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0,
+    discounted: state.d, npv: Number.NaN, state,
+  };
 }
 
 /**
@@ -314,7 +369,8 @@ export function simulatePolicy(
  * state are zeroed and reused (Monte Carlo refills one run per policy and
  * allocates nothing per truck and iteration). Periods past N may be left over
  * from a longer truck: readers stop at N. With `trace`, the segments and
- * event records are new arrays each time.
+ * event records are new arrays each time. Without `records` (the lean path,
+ * which reads only the npv) the period records are not kept at all.
  */
 export function simulatePolicyInto(
   run: PolicyRun,
@@ -323,14 +379,18 @@ export function simulatePolicyInto(
   failures: FailureAgeSource | null = null,
   trace = false,
   truckIndex = -1,
+  records = true,
 ): PolicyRun {
   const { truck, a: as, offer, n, hours, generalIndex } = setup;
   const periods = run.periods;
-  for (let y = 0; y <= n; y++) {
-    if (y < periods.length) clearPeriod(periods[y]);
-    else periods.push(emptyPeriod());
+  if (records) {
+    for (let y = 0; y <= n; y++) {
+      if (y < periods.length) clearPeriod(periods[y]);
+      else periods.push(emptyPeriod());
+    }
   }
   const st = run.state;
+  st.records = records;
   st.setup = setup;
   st.policy = policy;
   st.failures = failures;
@@ -339,6 +399,7 @@ export function simulatePolicyInto(
   st.segments = trace ? [] : (NO_SEGMENTS as Segment[]);
   st.events = trace ? [] : (NO_EVENTS as EngineEvent[]);
   st.truckIndex = truckIndex;
+  clearTotals(st.d);
   st.engine = setup.start;
   st.burn = setup.burnStart;
   st.age = truck.engineHours;
@@ -418,15 +479,22 @@ export function simulatePolicyInto(
       tph = st.tph;
       extraTph = st.extraTph;
     }
-    const p = periods[y];
-    p.hours = hoursRun;
-    p.fuelLitres = fuelLitres;
-    p.tonnes = tonnes;
-    p.extraTonnes = extraTonnes;
-    p.oilServices = oilServices;
-    p.topUpLitres = topUpLitres;
-    p.lube = lube;
-    p.extraMargin = extraMargin;
+    if (records) {
+      const p = periods[y];
+      p.hours = hoursRun;
+      p.fuelLitres = fuelLitres;
+      p.tonnes = tonnes;
+      p.extraTonnes = extraTonnes;
+      p.oilServices = oilServices;
+      p.topUpLitres = topUpLitres;
+      p.lube = lube;
+      p.extraMargin = extraMargin;
+    }
+    const d = st.d;
+    const df = setup.discountFactor[y];
+    d.energy += fuelLitres * setup.energyCost[y];
+    d.lube += lube * df;
+    d.extraMargin += extraMargin * df;
   }
   st.age = age;
   st.serviceMark = serviceMark;
@@ -436,5 +504,9 @@ export function simulatePolicyInto(
   run.events = st.events;
   run.endEngine = st.engine;
   run.endAge = st.age;
+  run.discounted = st.d;
+  const end = st.engine;
+  const credit = residualCredit(end.overhaulCost, st.age, end.lifeHours, generalIndex[n]);
+  run.npv = npvFromTotals(st.d, as.taxRate, as.rebuildAccounting === 'expense', setup.discountFactor[n], credit);
   return run;
 }

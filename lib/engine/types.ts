@@ -98,6 +98,11 @@ export interface CaseResult {
 
 export type EventKind = 'overhaul' | 'failure' | 'repower';
 
+/** Event kinds as numbers (the simulation loop and its event log use these: no string compares there). */
+export const EVENT_CODE = { overhaul: 0, failure: 1, repower: 2 } as const satisfies Record<EventKind, number>;
+/** The kind of each code. */
+export const EVENT_KINDS: readonly EventKind[] = ['overhaul', 'failure', 'repower'];
+
 export interface EngineEvent {
   kind: EventKind;
   period: number;

@@ -32,6 +32,8 @@ describe('doc-comment examples', () => {
     expect(engine.countOilServices(16500, 22500, 250, false)).toBe(24);
     expect(engine.countOilServices(16500, 20000, 250, true)).toBe(13);
     expect(engine.residualCredit(900000, 14500, 20000, 1)).toBeCloseTo(247500, 6);
+    const none = { energy: 0, lube: 0, lostMargin: 0, overhauls: 0, failures: 0, capital: 0, extraMargin: 0, depreciation: 0, writeOff: 0 };
+    expect(engine.npvFromTotals({ ...none, energy: 100 }, 0.3, true, 1, 0)).toBeCloseTo(-70, 12);
     expect(engine.bestPolicy({ keep: -10, rebuild: -10 + 5e-7, repower: -20 })).toBe('rebuild');
     const empty = engine.rollUpFleet([]);
     expect(empty.npv).toEqual({ keep: 0, rebuild: 0, repower: 0, best: 0 });

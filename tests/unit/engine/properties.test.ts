@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { BREAKDOWN_CATEGORIES, evaluateCase, findIrrRoots, irr, npv, scanIrrRoots } from '@/lib/engine';
+import { BREAKDOWN_CATEGORIES, evaluateCase, evaluateCaseDetailed, findIrrRoots, irr, npv, sampleWeibullAge, scanIrrRoots, type FailureAgeContext } from '@/lib/engine';
 import type { CaseFileInput } from '@/lib/validation/case';
 
 const base: CaseFileInput = JSON.parse(
@@ -126,6 +126,29 @@ describe('case properties', () => {
         }
       }),
       { numRuns: 150 },
+    );
+  });
+
+  it('each policy\'s npv (summed by kind as the simulation runs) is Σ CF_y·DF_y of its cash-flow table, within 1e-9', () => {
+    fc.assert(
+      fc.property(caseArb, fc.option(fc.array(fc.double({ min: 0.001, max: 0.999, noNaN: true }), { minLength: 12, maxLength: 12 }), { nil: null }), (c, us) => {
+        // with a list of uniforms, failures are sampled (more events, repairs, capitalised spends) instead of the median path
+        const failureAge = us
+          ? (ctx: FailureAgeContext) => sampleWeibullAge(us[ctx.lifeIndex % us.length], ctx.engine.weibullShape, ctx.engine.weibullScaleHours, ctx.startAge)
+          : undefined;
+        const { result, details } = evaluateCaseDetailed(c, { failureAge });
+        for (const p of ['keep', 'rebuild', 'repower'] as const) {
+          const periods = details[0].policies[p].periods;
+          let sum = 0;
+          let scale = 0;
+          for (const per of periods) {
+            sum += per.cashFlow * per.discountFactor;
+            scale += Math.abs(per.cashFlow * per.discountFactor);
+          }
+          expect(Math.abs(result.trucks[0].options[p].npv - sum)).toBeLessThanOrEqual(1e-9 * scale + 1e-9);
+        }
+      }),
+      { numRuns: 300 },
     );
   });
 
