@@ -2,7 +2,10 @@
  * The year-by-year run of one policy on one truck (MODEL.md sections 3–5):
  * hours in segments, events (overhaul, failure, repower), fuel, oil services,
  * tonnes and days down, all in physical quantities and pre-tax money at each
- * period's prices. Tax and cash flow are assembled in cash-flow.ts.
+ * period's prices, kept per period for the cash-flow table (cash-flow.ts
+ * assembles tax and cash flow from them). As it goes, the run also sums the
+ * present value of each kind of money, from which the npv follows without a
+ * second pass (`npvFromTotals`): all Monte Carlo and sensitivity re-runs read.
  */
 import type { Engine } from '@/lib/validation/case';
 import { npvFromTotals, residualCredit, type DiscountedTotals } from './cash-flow';
@@ -54,7 +57,6 @@ const FAILURE = EVENT_CODE.failure;
 const REPOWER = EVENT_CODE.repower;
 /** No event ends the segment. */
 const NONE = -1;
-
 
 /** Events of a run in typed arrays (period, kind code, cost), grown on demand and reused. */
 export interface EventLog {
