@@ -12,7 +12,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { validateCase } from '@/lib/engine';
 import { runIterations, summariseRun, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
-import { chunkSize, runInWorkers } from '@/lib/risk/pool';
+import { chunkSize, drainPool, prewarm, runInWorkers } from '@/lib/risk/pool';
 
 const raw = JSON.parse(readFileSync(path.resolve(__dirname, '../../../scenarios/aldervane-north-pit.json'), 'utf8'));
 const v = validateCase(raw);
@@ -73,6 +73,20 @@ describe('runInWorkers', () => {
     expect(Array.from(npvs)).toEqual(expected);
     expect(result).toEqual(summariseRun(ids, Float64Array.from(expected)));
     expect(result!.iterations).toBe(done);
+  });
+
+  it('a run started while the workers warm up stops the warm-up, takes its workers and gives the single-thread numbers', async () => {
+    await drainPool(bundle);
+    let warmed = false;
+    const warming = prewarm(bundle, demo, { workers: 2, iterations: 200_000 }).then(() => (warmed = true));
+    await new Promise((r) => setTimeout(r, 300)); // the warm-up is under way
+    expect(warmed).toBe(false);
+    const { npvs, done } = await runInWorkers(bundle, demo, spec, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
+    // the run waited for the warm-up to hand its workers back, so the warm-up has ended (far short of 200,000 iterations)
+    expect(warmed).toBe(true);
+    await warming;
+    expect(done).toBe(spec.iterations);
+    expect(Array.from(npvs)).toEqual(Array.from(runIterations(demo, spec, 0, spec.iterations).npvs));
   });
 
   it('shares the iterations out in chunks of about a fiftieth of each worker\'s share, and never less than a progress step', () => {
