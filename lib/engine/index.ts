@@ -43,7 +43,7 @@ export {
 export { horizonYears, priceIndex } from './setup';
 export { countOilServices } from './simulate';
 export { npvFromTotals, residualCredit } from './cash-flow';
-export { bestPolicy, comparePolicies } from './results';
+export { bestPolicy, bestPolicyIndex, comparePolicies } from './results';
 export { rollUpFleet, capitalSpent } from './fleet';
 export {
   kwToHp,

@@ -12,7 +12,7 @@ import {
   ZERO,
 } from './time-value';
 import type { PolicyCash } from './cash-flow';
-import type { Comparison, PolicyKey, PolicyResult } from './types';
+import { POLICIES, type Comparison, type PolicyKey, type PolicyResult } from './types';
 
 /**
  * Results of one policy from its cash flows.
@@ -100,11 +100,19 @@ export function comparePolicies(
  * @example bestPolicy({ keep: -10, rebuild: -10 + 5e-7, repower: -20 }) // = 'rebuild'
  */
 export function bestPolicy(npvs: Record<PolicyKey, number>): PolicyKey {
-  // written out rather than looped over the keys: Monte Carlo asks this per truck and iteration
-  const { keep, rebuild, repower } = npvs;
+  return POLICIES[bestPolicyIndex(npvs.keep, npvs.rebuild, npvs.repower)];
+}
+
+/**
+ * `bestPolicy` as an index into POLICIES (0 keep, 1 rebuild, 2 repower), from
+ * three numbers: what Monte Carlo's summaries ask per truck and iteration.
+ *
+ * @example bestPolicyIndex(-10, -10 + 5e-7, -20) // = 1 (rebuild)
+ */
+export function bestPolicyIndex(keep: number, rebuild: number, repower: number): 0 | 1 | 2 {
   const floor = Math.max(keep, rebuild, repower) - ZERO;
-  if (rebuild > floor) return 'rebuild';
-  if (keep > floor) return 'keep';
-  if (repower > floor) return 'repower';
-  return 'rebuild';
+  if (rebuild > floor) return 1;
+  if (keep > floor) return 0;
+  if (repower > floor) return 2;
+  return 1; // NaN somewhere: rebuild, as a tie would
 }

@@ -2,7 +2,7 @@
  * Summaries of Monte Carlo samples: moments, percentiles, the chance of a
  * loss, a histogram and the running mean (to show convergence).
  */
-import { bestPolicy } from '../results';
+import { bestPolicyIndex } from '../results';
 import { POLICY_SLOTS } from './iterations';
 
 export interface Summary {
@@ -184,11 +184,6 @@ export function runLength(trucks: number, npvs: ArrayLike<number>): number {
   return Math.floor(npvs.length / (trucks * POLICY_SLOTS));
 }
 
-/** Index 0, 1, 2 of the best of keep, rebuild, repower (`bestPolicy`). */
-function bestIndex(keep: number, rebuild: number, repower: number): number {
-  const b = bestPolicy({ keep, rebuild, repower });
-  return b === 'keep' ? 0 : b === 'rebuild' ? 1 : 2;
-}
 
 /**
  * The risk of trucks [from, to) of a run: each truck's figures depend on its
@@ -205,7 +200,7 @@ export function summariseTrucks(truckIds: readonly string[], npvs: Float64Array,
     for (let k = 0; k < count; k++) {
       const o = (i * trucks + from + k) * POLICY_SLOTS;
       deltas[k][i] = npvs[o + 2] - npvs[o + 1];
-      best[k * POLICY_SLOTS + bestIndex(npvs[o], npvs[o + 1], npvs[o + 2])]++;
+      best[k * POLICY_SLOTS + bestPolicyIndex(npvs[o], npvs[o + 1], npvs[o + 2])]++;
     }
   }
   return deltas.map((delta, k) => ({
@@ -233,7 +228,7 @@ export function summariseFleet(trucks: number, npvs: Float64Array): MonteCarloRe
       const rebuild = npvs[o + 1];
       const repower = npvs[o + 2];
       d += repower - rebuild;
-      const k = bestIndex(keep, rebuild, repower);
+      const k = bestPolicyIndex(keep, rebuild, repower);
       b += k === 0 ? keep : k === 1 ? rebuild : repower;
     }
     fleetDelta[i] = d;

@@ -35,6 +35,7 @@ describe('doc-comment examples', () => {
     const none = { energy: 0, lube: 0, lostMargin: 0, overhauls: 0, failures: 0, capital: 0, extraMargin: 0, depreciation: 0, writeOff: 0 };
     expect(engine.npvFromTotals({ ...none, energy: 100 }, 0.3, true, 1, 0)).toBeCloseTo(-70, 12);
     expect(engine.bestPolicy({ keep: -10, rebuild: -10 + 5e-7, repower: -20 })).toBe('rebuild');
+    expect(engine.bestPolicyIndex(-10, -10 + 5e-7, -20)).toBe(1);
     const empty = engine.rollUpFleet([]);
     expect(empty.npv).toEqual({ keep: 0, rebuild: 0, repower: 0, best: 0 });
     expect(empty.capital).toEqual({ keep: 0, rebuild: 0, repower: 0, best: 0 });
