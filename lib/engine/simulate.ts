@@ -58,31 +58,24 @@ const REPOWER = EVENT_CODE.repower;
 /** No event ends the segment. */
 const NONE = -1;
 
-/** Events of a run in typed arrays (period, kind code, cost), grown on demand and reused. */
+/**
+ * Events of a run as numbers (period, kind code, cost), in order; `count` of
+ * them are the run's (a reused log keeps longer arrays from earlier runs).
+ */
 export interface EventLog {
   count: number;
-  period: Int32Array;
-  kind: Uint8Array;
+  period: number[];
+  kind: number[];
   /** baseCost · priceIndex, as EngineEvent.cost */
-  cost: Float64Array;
+  cost: number[];
 }
 
 function emptyEventLog(): EventLog {
-  return { count: 0, period: new Int32Array(8), kind: new Uint8Array(8), cost: new Float64Array(8) };
+  return { count: 0, period: [], kind: [], cost: [] };
 }
 
 function logEvent(log: EventLog, period: number, kind: number, cost: number): void {
   const i = log.count;
-  if (i === log.cost.length) {
-    const grow = <T extends Int32Array | Uint8Array | Float64Array>(a: T): T => {
-      const b = new (a.constructor as { new (n: number): T })(2 * i);
-      b.set(a);
-      return b;
-    };
-    log.period = grow(log.period);
-    log.kind = grow(log.kind);
-    log.cost = grow(log.cost);
-  }
   log.period[i] = period;
   log.kind[i] = kind;
   log.cost[i] = cost;
@@ -167,8 +160,6 @@ export interface RunState {
   extraTph: number;
   /** present values so far */
   d: DiscountedTotals;
-  /** one spend's depreciation schedule D_1, D_2, … (reused) */
-  schedule: Float64Array;
 }
 
 /**
@@ -298,6 +289,8 @@ function pushSegment(
   });
 }
 
+let scheduleBuffer = new Float64Array(32);
+
 function emptyTotals(): DiscountedTotals {
   return { energy: 0, lube: 0, lostMargin: 0, overhauls: 0, failures: 0, capital: 0, extraMargin: 0, depreciation: 0, writeOff: 0 };
 }
@@ -316,8 +309,9 @@ function depreciateSpend(st: RunState, cost: number, period: number): void {
   const { setup } = st;
   const method = setup.a.depreciation;
   const length = scheduleLength(method);
-  if (st.schedule.length < length) st.schedule = new Float64Array(length);
-  scheduleInto(cost, method, st.schedule);
+  if (scheduleBuffer.length < length) scheduleBuffer = new Float64Array(length);
+  const schedule = scheduleBuffer; // used up before this returns: one buffer serves every run of the thread
+  scheduleInto(cost, method, schedule);
   const df = setup.discountFactor;
   const n = setup.n;
   const first = Math.max(period, 1);
@@ -325,8 +319,8 @@ function depreciateSpend(st: RunState, cost: number, period: number): void {
   let writeOff = 0;
   for (let j = 0; j < length; j++) {
     const year = first + j; // placed as `placeSchedule` places it
-    if (year <= n) pv += st.schedule[j] * df[year];
-    else writeOff += st.schedule[j];
+    if (year <= n) pv += schedule[j] * df[year];
+    else writeOff += schedule[j];
   }
   st.d.depreciation += pv;
   st.d.writeOff += writeOff;
@@ -343,7 +337,7 @@ export function emptyPolicyRun(): PolicyRun {
   const state: RunState = {
     setup: undefined as unknown as TruckSetup, policy: 'keep', failures: null, trace: false, records: true, periods, log,
     segments: [], events: [], truckIndex: -1, engine: undefined as unknown as Engine, burn: 0, age: 0, serviceMark: 0,
-    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0, d: emptyTotals(), schedule: new Float64Array(32),
+    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0, d: emptyTotals(),
   };
   return {
     policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0,
