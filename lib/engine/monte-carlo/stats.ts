@@ -41,8 +41,12 @@ export function percentileSorted(sorted: ArrayLike<number>, p: number): number {
 
 const PERCENTILES = [0.05, 0.1, 0.5, 0.9, 0.95] as const;
 
-/** Summary of samples in iteration order (the order matters for the running mean only). */
-export function summarise(samples: Float64Array, bins = 30): Summary {
+/**
+ * Summary of samples in iteration order (the order matters for the running
+ * mean only). `scratch`, at least as long as the samples, is used for the
+ * ordered copy instead of a new array (many summaries in a row).
+ */
+export function summarise(samples: Float64Array, bins = 30, scratch?: Float64Array): Summary {
   const n = samples.length;
   let sum = 0;
   let nan = false;
@@ -62,7 +66,8 @@ export function summarise(samples: Float64Array, bins = 30): Summary {
   }
   // only the order statistics the summary reads (min, max and each percentile's two ranks) are put
   // in place, in O(n) instead of a full sort; they are the numbers a sorted copy holds at those ranks
-  const ordered = Float64Array.from(samples);
+  const ordered = scratch && scratch.length >= n ? scratch.subarray(0, n) : new Float64Array(n);
+  ordered.set(samples);
   if (nan) ordered.sort();
   else {
     const ranks = [0, n - 1];
@@ -131,12 +136,13 @@ export function selectRanks(a: Float64Array, ranks: readonly number[]): void {
     let lt = lo;
     let gt = hi;
     let i = lo;
+    // `before` written out: this loop runs over every sample, often before the optimiser has reached it
     while (i <= gt) {
       const v = a[i];
-      if (before(v, pivot)) {
+      if (v < pivot || (v === 0 && pivot === 0 && 1 / v < 1 / pivot)) {
         a[i++] = a[lt];
         a[lt++] = v;
-      } else if (before(pivot, v)) {
+      } else if (pivot < v || (v === 0 && pivot === 0 && 1 / pivot < 1 / v)) {
         a[i] = a[gt];
         a[gt--] = v;
       } else i++;
@@ -194,7 +200,10 @@ export function summariseTrucks(truckIds: readonly string[], npvs: Float64Array,
   const iterations = runLength(trucks, npvs);
   const count = Math.max(0, to - from);
   // one pass in memory order over the run, then each truck's samples on their own
-  const deltas = Array.from({ length: count }, () => new Float64Array(iterations));
+  // one block for every truck's samples, and one buffer for their ordered copies
+  const block = new Float64Array(count * iterations);
+  const deltas = Array.from({ length: count }, (_, k) => block.subarray(k * iterations, (k + 1) * iterations));
+  const scratch = new Float64Array(iterations);
   const best = new Float64Array(count * POLICY_SLOTS);
   for (let i = 0; i < iterations; i++) {
     for (let k = 0; k < count; k++) {
@@ -205,7 +214,7 @@ export function summariseTrucks(truckIds: readonly string[], npvs: Float64Array,
   }
   return deltas.map((delta, k) => ({
     id: truckIds[from + k],
-    deltaNpv: summarise(delta, 20),
+    deltaNpv: summarise(delta, 20, scratch),
     bestShare: {
       keep: best[k * POLICY_SLOTS] / iterations,
       rebuild: best[k * POLICY_SLOTS + 1] / iterations,
