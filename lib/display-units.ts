@@ -3,7 +3,8 @@
  * that reads US customary sees them converted with the engine's helpers.
  */
 import {
-  gPerKwhToLbPerHpH, kwToHp, litresPerHourToGallonsPerHour, litresToUsGallons,
+  gallonsPerHourToLitresPerHour, gPerKwhToLbPerHpH, hpToKw, kwToHp, lbPerHpHToGPerKwh, litresPerHourToGallonsPerHour,
+  litresToUsGallons, usGallonsToLitres,
 } from '@/lib/engine/units';
 
 export type UnitSystem = 'metric' | 'us';
@@ -21,6 +22,13 @@ const TO_US: Record<Quantity, (x: number) => number> = {
   volume: litresToUsGallons,
 };
 
+const FROM_US: Record<Quantity, (x: number) => number> = {
+  power: hpToKw,
+  bsfc: lbPerHpHToGPerKwh,
+  burn: gallonsPerHourToLitresPerHour,
+  volume: usGallonsToLitres,
+};
+
 /** Digits that keep each quantity readable in its unit (lb/hp-h is a small number). */
 export const DISPLAY_DIGITS: Record<UnitSystem, Record<Quantity, number>> = {
   metric: { power: 0, bsfc: 0, burn: 1, volume: 0 },
@@ -30,4 +38,22 @@ export const DISPLAY_DIGITS: Record<UnitSystem, Record<Quantity, number>> = {
 export function toDisplay(q: Quantity, value: number | null | undefined, units: UnitSystem): number | null {
   if (value === null || value === undefined || !Number.isFinite(value)) return null;
   return units === 'us' ? TO_US[q](value) : value;
+}
+
+/** A value typed in the workspace's units → the stored (metric) value. */
+export function fromDisplay(q: Quantity, value: number, units: UnitSystem): number {
+  return units === 'us' ? FROM_US[q](value) : value;
+}
+
+/**
+ * A stored value as it goes into a form field in the workspace's units: as
+ * stored in metric; converted and kept to 6 significant digits in US
+ * customary (3,486.66 hp), so the field reads as a person would type it.
+ *
+ * @example inputText('power', 2600, 'us') // = '3486.66'
+ */
+export function inputText(q: Quantity, value: number | null | undefined, units: UnitSystem): string {
+  const shown = toDisplay(q, value, units);
+  if (shown === null) return '';
+  return units === 'us' ? String(Number(shown.toPrecision(6))) : String(shown);
 }

@@ -4,6 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState, type ReactNode } from 'react';
 import { useForm, type FieldErrors, type FieldValues, type Path } from 'react-hook-form';
 import type { z } from 'zod';
+import { fromDisplay, inputText, UNIT_LABEL, type Quantity, type UnitSystem } from '@/lib/display-units';
 import { ApiError } from '@/lib/fetcher';
 
 export type FieldSpec = {
@@ -17,6 +18,12 @@ export type FieldSpec = {
   nullable?: boolean;
   hint?: ReactNode;
   wide?: boolean;
+  /**
+   * A number stored in metric units that the workspace may read in US
+   * customary: the label gets the unit, the field shows and takes the value
+   * in the workspace's units, and it is stored in metric.
+   */
+  quantity?: Quantity;
 };
 
 function errorAt(errors: FieldErrors, path: string): string | undefined {
@@ -40,22 +47,47 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
   onCancel?: () => void;
   extraActions?: ReactNode;
   testId?: string;
+  /** the workspace's display units (default metric) */
+  units?: UnitSystem;
 }) {
+  const units = props.units ?? 'metric';
+  const quantities = props.fields.filter((f) => f.quantity && f.kind === 'number');
+  const stored = props.defaultValues as FieldValues;
+  // what each unit-bearing field shows at first, as a number in the workspace's units
+  const shownAtFirst: Record<string, number | null> = {};
+  for (const f of quantities) {
+    const text = inputText(f.quantity as Quantity, stored[f.name] as number | null | undefined, units);
+    shownAtFirst[f.name] = text === '' ? null : Number(text);
+  }
   const { register, handleSubmit, setError, formState } = useForm<FieldValues>({
     // zod 4 schemas are typed loosely here; the schema itself is the contract.
+    // The signs the schemas check do not depend on units, so unit-bearing fields are checked as shown.
     resolver: zodResolver(props.schema as never),
     // Only the form's own fields: the schemas are strict, so a row's id or version must not ride along.
     defaultValues: Object.fromEntries(
-      Object.entries(props.defaultValues as FieldValues).filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k)),
+      Object.entries(stored)
+        .filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k))
+        .map(([k, v]) => [k, k in shownAtFirst ? shownAtFirst[k] ?? v : v]),
     ),
   });
+
+  /** Unit-bearing fields back to metric; a field left as it was shown keeps its stored number exactly. */
+  const toStored = (values: FieldValues): FieldValues => {
+    const out = { ...values };
+    for (const f of quantities) {
+      const shown = out[f.name];
+      if (typeof shown !== 'number') continue;
+      out[f.name] = shown === shownAtFirst[f.name] ? stored[f.name] : fromDisplay(f.quantity as Quantity, shown, units);
+    }
+    return out;
+  };
   const [formError, setFormError] = useState<string | null>(null);
   const names = new Set(props.fields.map((f) => f.name));
 
   const submit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      await props.onSubmit(values as z.output<S>);
+      await props.onSubmit(toStored(values) as z.output<S>);
     } catch (e) {
       if (!(e instanceof ApiError)) throw e;
       const elsewhere: string[] = [];
@@ -77,7 +109,7 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
           const asNumber = (v: unknown) => (v === '' || v === null || v === undefined ? (f.nullable ? null : undefined) : Number(v));
           return (
             <div key={f.name} className={f.wide ? 'col-span-2' : undefined}>
-              <label htmlFor={id} className="label">{f.label}</label>
+              <label htmlFor={id} className="label">{f.quantity ? `${f.label} (${UNIT_LABEL[units][f.quantity]})` : f.label}</label>
               {f.kind === 'select' ? (
                 <select {...common} {...register(f.name, f.numericOptions ? { setValueAs: asNumber } : {})}>
                   {f.nullable ? <option value="">(none)</option> : null}

@@ -23,7 +23,7 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
     { name: 'annualHours', label: 'Annual hours (h/yr)', kind: 'number' },
     { name: 'loadFactor', label: 'Load factor (0–1)', kind: 'number' },
     { name: 'tonnesPerHour', label: 'Productivity (t/h)', kind: 'number' },
-    { name: 'fuelBurnLitresPerHour', label: 'Measured fuel burn (L/h)', kind: 'number', nullable: true, hint: 'Leave empty if not measured' },
+    { name: 'fuelBurnLitresPerHour', label: 'Measured fuel burn', kind: 'number', nullable: true, hint: 'Leave empty if not measured', quantity: 'burn' },
     { name: 'notes', label: 'Notes', kind: 'textarea', wide: true },
   ];
   if (!engines.data || !offers.data) return <p className="text-sm text-muted">Loading engine types and offers…</p>;
@@ -57,6 +57,7 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
         key={truck ? `${truck.id}:${truck.version}` : 'new'}
         schema={truck ? truckUpdateSchema.omit({ version: true }) : truckInputSchema}
         fields={fields}
+        units={ws.units}
         defaultValues={defaults}
         submitLabel={truck ? 'Save truck' : 'Add truck'}
         onSubmit={save}

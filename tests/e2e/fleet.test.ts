@@ -181,7 +181,7 @@ describe('engine library, assumption sets and display units in the browser', () 
     await signOut(page);
   });
 
-  it('admin switches display units to US customary: the engine library shows hp and lb/hp-h', async () => {
+  it('admin switches display units to US customary: the engine library shows and takes hp, lb/hp-h, US gal', async () => {
     await signIn(page, baseURL, 'admin@aldervane.test');
     await page.goto(`${baseURL}/${WS}/settings`);
     await page.getByLabel(/US customary/).check();
@@ -195,6 +195,40 @@ describe('engine library, assumption sets and display units in the browser', () 
     expect(await legacy.locator('td').nth(2).textContent()).toBe('3,487');
     expect(await legacy.locator('td').nth(3).textContent()).toBe('0.349');
     await screenshot(page, 'engine-library-us-units');
+
+    // the form reads and takes US customary too: a field left alone keeps its stored number exactly
+    const stored = async () => {
+      const k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+      const ws = await k('workspaces').where({ slug: WS }).first('id');
+      const row = await k('engine_types').where({ workspaceId: ws.id, key: 'ac-2600-legacy' }).first('ratedKw', 'bsfcGPerKwh', 'notes');
+      await k.destroy();
+      return row as { ratedKw: number; bsfcGPerKwh: number; notes: string };
+    };
+    const before = await stored();
+    await page.getByRole('button', { name: 'Edit ac-2600-legacy' }).click();
+    const form = page.getByTestId('engine-form');
+    expect(await form.getByLabel('Rated power (hp)').inputValue()).toBe('3486.66');
+    expect(await form.getByLabel('BSFC (lb/hp-h)').inputValue()).toBe('0.348525');
+    await screenshot(page, 'engine-form-us-units');
+    await form.getByLabel('Notes').fill('Checked in US customary');
+    await form.getByRole('button', { name: 'Save engine type' }).click();
+    await form.waitFor({ state: 'detached' });
+    const untouched = await stored();
+    expect(untouched.notes).toBe('Checked in US customary');
+    expect(untouched.ratedKw).toBe(before.ratedKw);
+    expect(untouched.bsfcGPerKwh).toBe(before.bsfcGPerKwh);
+    // a value typed in hp is stored in kW: 3,500 hp × 0.745 699 872 kW/hp = 2,609.949 552 kW (NIST SP 811)
+    await page.getByRole('button', { name: 'Edit ac-2600-legacy' }).click();
+    await form.getByLabel('Rated power (hp)').fill('3500');
+    await form.getByRole('button', { name: 'Save engine type' }).click();
+    await form.waitFor({ state: 'detached' });
+    expect(await legacy.locator('td').nth(2).textContent()).toBe('3,500');
+    expect((await stored()).ratedKw).toBeCloseTo(2609.949552, 5);
+    // put the demo engine back exactly as seeded (other browser files read it)
+    const k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+    const ws = await k('workspaces').where({ slug: WS }).first('id');
+    await k('engine_types').where({ workspaceId: ws.id, key: 'ac-2600-legacy' }).update({ ratedKw: before.ratedKw, notes: before.notes });
+    await k.destroy();
     await page.goto(`${baseURL}/${WS}/settings`);
     await page.getByLabel(/Metric/).check();
     await page.getByRole('button', { name: 'Save display settings' }).click();
