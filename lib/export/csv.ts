@@ -1,29 +1,12 @@
 /**
- * The Summary table as CSV (RFC 4180: comma-separated, CRLF, quotes doubled).
- * Text that begins with = + - @ (or a tab or carriage return) is prefixed with
- * an apostrophe so a spreadsheet opening the file shows it as text instead of
- * running it; numbers are written as plain numbers (a negative NPV stays a number).
+ * The Summary table as CSV, through the one CSV writer (lib/csv.ts: RFC 4180,
+ * formula-looking text made inert, numbers left as numbers).
  */
+import { toCsv } from '@/lib/csv';
 import type { CaseResult } from '@/lib/engine/types';
 import { summaryHeaders } from './sheet-summary';
 
 export type CsvCell = string | number | null;
-
-/** A text cell made inert and quoted when it needs to be. */
-export function csvText(text: string): string {
-  const inert = /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
-  return /[",\r\n']/.test(inert) ? `"${inert.replace(/"/g, '""')}"` : inert;
-}
-
-export function csvCell(v: CsvCell): string {
-  if (v === null) return '';
-  if (typeof v === 'number') return Number.isFinite(v) ? String(v) : '';
-  return csvText(v);
-}
-
-export function toCsv(rows: CsvCell[][]): string {
-  return rows.map((r) => r.map(csvCell).join(',')).join('\r\n') + '\r\n';
-}
 
 const na = (v: number | null): CsvCell => (v === null ? 'n/a' : v);
 
@@ -48,5 +31,6 @@ export function summaryRows(result: CaseResult, currency: string): CsvCell[][] {
 }
 
 export function summaryCsv(result: CaseResult, currency: string): string {
-  return toCsv(summaryRows(result, currency));
+  const [header, ...rows] = summaryRows(result, currency);
+  return toCsv(header, rows);
 }

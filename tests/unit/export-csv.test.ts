@@ -3,21 +3,11 @@ import path from 'node:path';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { evaluateCase } from '@/lib/engine';
-import { csvCell, summaryCsv, toCsv } from '@/lib/export/csv';
+import { summaryCsv } from '@/lib/export/csv';
 import type { CaseFileInput } from '@/lib/validation/case';
 
 describe('CSV of the Summary table', () => {
-  it('makes text beginning with = + - @ inert and leaves numbers, negatives included, as numbers', () => {
-    expect(csvCell('=HYPERLINK("http://x","y")')).toBe(`"'=HYPERLINK(""http://x"",""y"")"`);
-    expect(csvCell('+1+1')).toBe(`"'+1+1"`);
-    expect(csvCell('-2+3')).toBe(`"'-2+3"`);
-    expect(csvCell('@SUM(A1)')).toBe(`"'@SUM(A1)"`);
-    expect(csvCell('HT-101')).toBe('HT-101');
-    expect(csvCell(-1234.5)).toBe('-1234.5');
-    expect(csvCell(null)).toBe('');
-    expect(toCsv([['a,b', 'say "hi"']])).toBe('"a,b","say ""hi"""\r\n');
-  });
-
+  // the cells themselves: tests/unit/mail/parse-csv-diff.test.ts (the one CSV writer)
   it('has one row per truck with the engine figures and a fleet line', () => {
     const demo = JSON.parse(readFileSync(path.resolve(__dirname, '../../scenarios/aldervane-north-pit.json'), 'utf8')) as CaseFileInput;
     demo.trucks[0] = { ...demo.trucks[0], id: '=1+2' };

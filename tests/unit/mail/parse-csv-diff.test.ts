@@ -48,8 +48,12 @@ describe('CSV cells', () => {
     expect(csvCell('@SUM(A1)')).toBe("'@SUM(A1)");
     expect(csvCell('\tx')).toBe("'\tx");
     expect(csvCell('plain')).toBe('plain');
+    expect(csvCell('HT-101')).toBe('HT-101');
     expect(csvCell(null)).toBe('');
+    expect(csvCell(undefined)).toBe('');
     expect(csvCell(42)).toBe('42');
+    expect(csvCell(-1234.5)).toBe('-1234.5'); // a negative number stays a number
+    expect(csvCell(Number.NaN)).toBe('');
   });
 
   it('quotes commas, quotes and line breaks (RFC 4180) with CRLF line ends', () => {
