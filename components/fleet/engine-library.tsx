@@ -11,14 +11,15 @@ import { api, type EngineRow, type WorkspaceView } from './types';
 
 const n = (name: string, label: string, hint?: string, quantity?: Quantity): FieldSpec => ({ name, label, kind: 'number', hint, quantity });
 
-const FIELDS: FieldSpec[] = [
+/** The form's fields; money in the workspace's currency. */
+const fieldsFor = (currency: string): FieldSpec[] => [
   { name: 'key', label: 'Key (id in case files)', kind: 'text' },
   { name: 'name', label: 'Name', kind: 'text', wide: true },
   n('ratedKw', 'Rated power', undefined, 'power'), n('bsfcGPerKwh', 'BSFC', undefined, 'bsfc'), n('lifeHours', 'Planned life (h)', 'Hours between overhauls'),
   n('weibullShape', 'Weibull shape β'), n('weibullScaleHours', 'Weibull scale η (h)'),
-  n('overhaulCost', 'Overhaul cost'), n('overhaulDowntimeDays', 'Overhaul days down (d)'),
-  n('failureCost', 'Failure repair cost'), n('failureDowntimeDays', 'Failure days down (d)'),
-  n('serviceIntervalHours', 'Oil-service interval (h)'), n('sumpLitres', 'Sump', undefined, 'volume'), n('serviceKitCost', 'Service kit cost'),
+  n('overhaulCost', `Overhaul cost (${currency})`), n('overhaulDowntimeDays', 'Overhaul days down (d)'),
+  n('failureCost', `Failure repair cost (${currency})`), n('failureDowntimeDays', 'Failure days down (d)'),
+  n('serviceIntervalHours', 'Oil-service interval (h)'), n('sumpLitres', 'Sump', undefined, 'volume'), n('serviceKitCost', `Service kit cost (${currency})`),
   n('serviceLabourHours', 'Service labour (h)'), n('topUpLitresPerHour', 'Oil top-up', undefined, 'burn'),
   { name: 'notes', label: 'Notes', kind: 'textarea', wide: true },
 ];
@@ -60,7 +61,7 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
           <EntityForm
             key={editing === 'new' ? 'new' : `${editing.id}:${editing.version}`}
             schema={engineInputSchema}
-            fields={FIELDS}
+            fields={fieldsFor(ws.currency)}
             units={ws.units}
             defaultValues={editing === 'new' ? { key: '', name: '', notes: '' } : editing}
             submitLabel={editing === 'new' ? 'Add engine type' : 'Save engine type'}
