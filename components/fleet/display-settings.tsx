@@ -6,7 +6,7 @@ import { ApiError, sendJson } from '@/lib/fetcher';
 
 type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus' };
 
-/** Display units and negative style (admins). Stored values stay metric; tables and the engine and truck forms read and take the chosen units. */
+/** Display units and negative style (admins). Stored values stay metric; the register, the engine library and the truck and engine forms read and take the chosen units. */
 export function DisplaySettings({ slug, initial, canEdit }: { slug: string; initial: Settings; canEdit: boolean }) {
   const router = useRouter();
   const [values, setValues] = useState(initial);
@@ -32,7 +32,7 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
             {u === 'metric' ? 'Metric (kW, L, g/kWh, L/h)' : 'US customary (hp, US gal, lb/hp-h, gal/h)'}
           </label>
         ))}
-        <p className="mt-1 text-xs text-muted">Tables and the engine and truck forms use these units; the engine stores and computes in metric, and fleet files and case files stay in metric (their column names say so).</p>
+        <p className="mt-1 text-xs text-muted">The fleet register, the engine library and the truck and engine forms use these units. Everything is stored and computed in metric; case results (litres), assumption prices (per litre), risk drivers, fleet files and case files stay metric, and their labels say so.</p>
         <p className="label mt-3">Negative amounts</p>
         {(['parentheses', 'minus'] as const).map((s) => (
           <label key={s} className="mr-4 text-sm">
