@@ -59,7 +59,7 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
         <div className="mb-4">
           <h2 className="mb-2 text-base font-semibold">{editing === 'new' ? 'Add an engine type' : `Edit ${editing.key}`}</h2>
           <EntityForm
-            key={editing === 'new' ? 'new' : `${editing.id}:${editing.version}`}
+            key={editing === 'new' ? `new:${ws.units}` : `${editing.id}:${editing.version}:${ws.units}`}
             schema={engineInputSchema}
             fields={fieldsFor(ws.currency)}
             units={ws.units}

@@ -54,7 +54,7 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
       <h2 className="mb-2 text-base font-semibold">{truck ? `Edit truck ${truck.unitNumber}` : 'Add a truck'}</h2>
       {deleteError ? <p role="alert" className="mb-2 text-sm text-loss" data-testid="truck-delete-error">{deleteError}</p> : null}
       <EntityForm
-        key={truck ? `${truck.id}:${truck.version}` : 'new'}
+        key={truck ? `${truck.id}:${truck.version}:${ws.units}` : `new:${ws.units}`}
         schema={truck ? truckUpdateSchema.omit({ version: true }) : truckInputSchema}
         fields={fields}
         units={ws.units}

@@ -7,7 +7,7 @@ import 'server-only';
  * HAULCASE_MC_PREWARM=0; a missing worker bundle or scenario only means the
  * first run starts cold.
  */
-import { readFile } from 'node:fs/promises';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { validateCase } from '@/lib/validation/case';
 import { workerBundlePath } from './jobs';
@@ -16,7 +16,9 @@ import { prewarm } from './pool';
 export async function warmMonteCarloWorkers(): Promise<void> {
   if (process.env.HAULCASE_MC_PREWARM === '0') return;
   try {
-    const raw = JSON.parse(await readFile(path.join(process.cwd(), 'scenarios', 'aldervane-north-pit.json'), 'utf8'));
+    // read and checked synchronously, so the warm-up is registered before this returns to the event loop:
+    // a run that starts right after start-up then finds it, stops it and takes its workers
+    const raw = JSON.parse(readFileSync(path.join(process.cwd(), 'scenarios', 'aldervane-north-pit.json'), 'utf8'));
     const v = validateCase(raw);
     if (!v.ok) throw new Error('the warm-up scenario is not a valid case');
     const t0 = performance.now();
