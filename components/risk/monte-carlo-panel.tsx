@@ -29,6 +29,8 @@ export function MonteCarloPanel(props: { base: string; drivers: DriverView[]; tr
   const shownId = runId ?? list?.runs[0]?.id ?? null;
   const { data: runData, mutate } = useSWR<{ run: RunView }>(shownId ? `${base}/monte-carlo/${shownId}` : null, fetcher, {
     refreshInterval: (d) => (d?.run.status === 'running' ? 400 : 0),
+    // SWR's default skips a fetch of the same key within 2 s, which would hold the poll to one every 2 s
+    dedupingInterval: 0,
   });
   const run = runData?.run;
   const problems = useMemo(() => {
