@@ -7,23 +7,12 @@
  */
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
-import { build } from 'esbuild';
-import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
+import { buildMonteCarloWorker, bundleForNode } from '@/lib/risk/build-worker';
 
 export async function run(): Promise<void> {
   const root = path.resolve(__dirname, '..');
   const worker = await buildMonteCarloWorker(root);
-  const outfile = path.join(root, '.haulcase', 'bench-monte-carlo.cjs');
-  await build({
-    entryPoints: [path.join(__dirname, 'support', 'monte-carlo-main.ts')],
-    outfile,
-    bundle: true,
-    platform: 'node',
-    target: 'node20',
-    format: 'cjs',
-    alias: { '@': root },
-    logLevel: 'warning',
-  });
+  const outfile = await bundleForNode(path.join(__dirname, 'support', 'monte-carlo-main.ts'), path.join(root, '.haulcase', 'bench-monte-carlo.cjs'), root);
   const r = spawnSync(process.execPath, [outfile, root, worker], { stdio: 'inherit' });
   if (r.status !== 0) throw new Error(`the Monte Carlo benchmark exited with ${r.status ?? r.signal}`);
 }

@@ -8,10 +8,10 @@ import { build } from 'esbuild';
 
 export const WORKER_BUNDLE = path.join('.haulcase', 'mc-worker.cjs');
 
-export async function buildMonteCarloWorker(root = path.resolve(__dirname, '..', '..')): Promise<string> {
-  const outfile = path.join(root, WORKER_BUNDLE);
+/** One TypeScript entry bundled into a CommonJS file plain Node can start ('@/…' resolved from `root`). */
+export async function bundleForNode(entry: string, outfile: string, root: string): Promise<string> {
   await build({
-    entryPoints: [path.join(root, 'lib/risk/worker-entry.ts')],
+    entryPoints: [entry],
     outfile,
     bundle: true,
     platform: 'node',
@@ -21,4 +21,8 @@ export async function buildMonteCarloWorker(root = path.resolve(__dirname, '..',
     logLevel: 'warning',
   });
   return outfile;
+}
+
+export async function buildMonteCarloWorker(root = path.resolve(__dirname, '..', '..')): Promise<string> {
+  return bundleForNode(path.join(root, 'lib/risk/worker-entry.ts'), path.join(root, WORKER_BUNDLE), root);
 }
