@@ -7,7 +7,7 @@ import { DEMO_PASSWORD } from '@/db/seeds/demo';
 import { GET as getMembers } from '@/app/api/workspaces/[workspace]/members/route';
 import { GET as getWorkspace } from '@/app/api/workspaces/[workspace]/route';
 import { GET as getMyWorkspaces } from '@/app/api/me/workspaces/route';
-import { createTestDb } from '../support/test-db';
+import { createTestDb, userIds } from '../support/test-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
 
@@ -21,14 +21,14 @@ const backends = [
 describe.each(backends)('access checks and migrations on $name', ({ pg }) => {
   let k: Knex;
   let destroy: () => Promise<void>;
-  const ids: Record<string, number> = {};
+  let ids: Record<string, number> = {};
 
   beforeAll(async () => {
     const t = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined });
     k = t.k;
     destroy = t.destroy;
     useDbForTests(k);
-    for (const u of await k('users').select('id', 'email')) ids[u.email] = u.id;
+    ids = await userIds(k);
   });
   afterAll(async () => destroy());
 

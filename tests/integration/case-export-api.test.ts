@@ -6,7 +6,7 @@ import { useDbForTests } from '@/lib/db';
 import { evaluateCase } from '@/lib/engine';
 import { buildCaseFile } from '@/lib/db/queries/case-file';
 import { GET as exportCase } from '@/app/api/workspaces/[workspace]/cases/[id]/export/route';
-import { createTestDb } from '../support/test-db';
+import { createTestDb, userIds } from '../support/test-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
 
@@ -27,7 +27,7 @@ describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])
   beforeAll(async () => {
     ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
     useDbForTests(k);
-    users = Object.fromEntries((await k('users').select('id', 'email')).map((u) => [u.email, u.id]));
+    users = await userIds(k);
     wsId = (await k('workspaces').where({ slug: WS }).first('id')).id;
     setId = (await k('assumption_sets').where({ workspaceId: wsId, name: 'Base' }).first('id')).id;
     const trucks = await k('trucks').where({ workspaceId: wsId }).orderBy('unitNumber').select('id');

@@ -10,7 +10,7 @@ import { POST as copyCase } from '@/app/api/workspaces/[workspace]/cases/[id]/co
 import { GET as getResult } from '@/app/api/workspaces/[workspace]/cases/[id]/result/route';
 import { GET as getTruck } from '@/app/api/workspaces/[workspace]/cases/[id]/trucks/[truckId]/route';
 import { GET as getOptions } from '@/app/api/workspaces/[workspace]/cases/options/route';
-import { createTestDb } from '../support/test-db';
+import { createTestDb, userIds } from '../support/test-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
 
@@ -25,7 +25,7 @@ const backends = [
 describe.each(backends)('business cases API on $name', ({ pg }) => {
   let k: Knex;
   let destroy: () => Promise<void>;
-  const users: Record<string, number> = {};
+  let users: Record<string, number> = {};
   let wsId: number;
   let baseSetId: number;
   let truckRows: Array<{ id: number; unitNumber: string }>;
@@ -34,14 +34,14 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
   beforeAll(async () => {
     ({ k, destroy } = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined }));
     useDbForTests(k);
-    for (const u of await k('users').select('id', 'email')) users[u.email.split('@')[0] + '@' + u.email.split('@')[1].split('.')[0]] = u.id;
+    users = await userIds(k);
     wsId = (await k('workspaces').where({ slug: WS }).first('id')).id;
     baseSetId = (await k('assumption_sets').where({ workspaceId: wsId, name: 'Base' }).first('id')).id;
     truckRows = await k('trucks').where({ workspaceId: wsId }).orderBy('unitNumber').select('id', 'unitNumber');
   });
   afterAll(async () => destroy());
 
-  const as = (who: string) => signInAs(users[`${who}@aldervane`]);
+  const as = (who: string) => signInAs(users[`${who}@aldervane.test`]);
   const allTrucks = () => truckRows.map((t) => ({ truckId: t.id, repowerOfferId: null }));
 
   it('answers 401 signed out and 403 to a viewer who tries to create', async () => {

@@ -18,7 +18,7 @@ import { POST as postBreakEven } from '@/app/api/workspaces/[workspace]/cases/[i
 import { POST as postTwoWay } from '@/app/api/workspaces/[workspace]/cases/[id]/two-way/route';
 import { GET as listRuns, POST as startRun } from '@/app/api/workspaces/[workspace]/cases/[id]/monte-carlo/route';
 import { DELETE as cancelRun, GET as getRun } from '@/app/api/workspaces/[workspace]/cases/[id]/monte-carlo/[job]/route';
-import { createTestDb } from '../support/test-db';
+import { createTestDb, userIds } from '../support/test-db';
 import { insertDemoCase } from '../support/demo-case';
 import { call } from './support/call';
 import { signInAs } from './support/session';
@@ -38,7 +38,7 @@ beforeAll(async () => {
 describe.each(backends)('risk endpoints on $name', ({ pg }) => {
   let k: Knex;
   let destroy: () => Promise<void>;
-  const ids: Record<string, number> = {};
+  let ids: Record<string, number> = {};
   let caseId: number;
   let params: { workspace: string; id: string };
 
@@ -47,7 +47,7 @@ describe.each(backends)('risk endpoints on $name', ({ pg }) => {
     k = t.k;
     destroy = t.destroy;
     useDbForTests(k);
-    for (const u of await k('users').select('id', 'email')) ids[u.email] = u.id;
+    ids = await userIds(k);
     caseId = await insertDemoCase(k, WS);
     params = { workspace: WS, id: String(caseId) };
   });
