@@ -37,7 +37,6 @@ export interface PolicyCash {
   depreciation: number[];
   /** basis written off in year N */
   writeOff: number;
-  spends: DepreciatedSpend[];
   residual: ResidualDetail;
 }
 
@@ -51,15 +50,14 @@ function isDepreciated(code: number, cost: number, expense: boolean): boolean {
   return isDepreciatedSpend(code === EVENT_CODE.repower, cost, expense);
 }
 
-/** Depreciation of a run's capital spends: the repower always, overhauls and repairs when capitalised. */
-export function depreciateSpends(
-  setup: TruckSetup,
-  run: PolicyRun,
-): { depreciation: number[]; writeOff: number; spends: DepreciatedSpend[] } {
+/**
+ * The record of each depreciated spend of a run (the repower always, overhauls
+ * and repairs when capitalised): its schedule and where it falls. The detailed
+ * output only; the totals by year are the run's own (`run.depreciation`).
+ */
+export function depreciatedSpends(setup: TruckSetup, run: PolicyRun): DepreciatedSpend[] {
   const { a, n } = setup;
   const expense = a.rebuildAccounting === 'expense';
-  const depreciation = new Array<number>(n + 1).fill(0);
-  let writeOff = 0;
   const spends: DepreciatedSpend[] = [];
   const log = run.log;
   for (let i = 0; i < log.count; i++) {
@@ -68,11 +66,9 @@ export function depreciateSpends(
     if (!isDepreciated(log.kind[i], cost, expense)) continue;
     const schedule = depreciationSchedule(cost, a.depreciation); // empty under "none": no relief, no write-off
     const placed = placeSchedule(schedule, period, n);
-    for (let y = 1; y <= n; y++) depreciation[y] += placed.byPeriod[y];
-    writeOff += placed.writeOff;
     spends.push({ period, category: CATEGORY_BY_CODE[log.kind[i]], amount: cost, schedule, byPeriod: placed.byPeriod, writeOff: placed.writeOff });
   }
-  return { depreciation, writeOff, spends };
+  return spends;
 }
 
 /** Residual credit of the engine fitted at the end of a run (MODEL.md section 7). */
@@ -164,7 +160,8 @@ export function periodCash(setup: TruckSetup, run: PolicyRun, y: number, depreci
 /** Tax, depreciation, residual and cash flow for a policy run. */
 export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash {
   const n = setup.n;
-  const { depreciation, writeOff, spends } = depreciateSpends(setup, run);
+  const depreciation = run.depreciated ? run.depreciation.slice(0, n + 1) : new Array<number>(n + 1).fill(0);
+  const writeOff = run.discounted.writeOff;
   const residual = residualOf(setup, run);
   const cashFlows = new Array<number>(n + 1);
   const breakdown = new Array<BreakdownEntry>(n + 1);
@@ -177,7 +174,7 @@ export function assembleCashFlows(setup: TruckSetup, run: PolicyRun): PolicyCash
     breakdown[y] = pc.breakdown;
     cashFlows[y] = pc.cashFlow;
   }
-  return { run, n, cashFlows, breakdown, co2Tonnes: co2, deductibleCosts: deductible, depreciation, writeOff, spends, residual };
+  return { run, n, cashFlows, breakdown, co2Tonnes: co2, deductibleCosts: deductible, depreciation, writeOff, residual };
 }
 
 /** Present values, at the case's discount rate, of what a policy run spends and earns, by kind (all positive). */
@@ -265,7 +262,7 @@ export function buildPolicyDetail(setup: TruckSetup, cash: PolicyCash): PolicyDe
     periods,
     segments: cash.run.segments,
     events: cash.run.events,
-    spends: cash.spends,
+    spends: depreciatedSpends(setup, cash.run),
     residual: cash.residual,
   };
 }

@@ -9,7 +9,7 @@
  */
 import type { Engine } from '@/lib/validation/case';
 import { npvFromTotals, residualCredit, type DiscountedTotals } from './cash-flow';
-import { isDepreciatedSpend, scheduleInto, scheduleLength } from './depreciation';
+import { addScheduleInto, isDepreciatedSpend, scheduleInto, scheduleLength } from './depreciation';
 import { medianFailureAge } from './reliability';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
@@ -46,6 +46,12 @@ export interface PolicyRun {
   endAge: number;
   /** present values of what the run spends and earns, by kind, summed as it went */
   discounted: DiscountedTotals;
+  /**
+   * tax depreciation of the run's depreciated spends by period, read for
+   * y = 0..N when `depreciated` (else there is none); write-off in `discounted.writeOff`
+   */
+  depreciation: number[];
+  depreciated: boolean;
   /** Σ CF_y·DF_y from the discounted totals (`npvFromTotals`) */
   npv: number;
   /** the run's working state, reused by the next run into this object */
@@ -160,6 +166,9 @@ export interface RunState {
   extraTph: number;
   /** present values so far */
   d: DiscountedTotals;
+  /** depreciation by period so far (0..N), kept once a spend is depreciated (most runs have none) */
+  depreciation: number[];
+  depreciated: boolean;
 }
 
 /**
@@ -301,29 +310,22 @@ function clearTotals(d: DiscountedTotals): void {
 }
 
 /**
- * A depreciated spend booked in period s: the present value of its
- * depreciation (D_j in year max(s, 1) + j − 1, MODEL.md section 6) and, for
- * what falls after year N, the write-off.
+ * A depreciated spend booked in period s: its schedule added to the run's
+ * depreciation by year (D_j in year max(s, 1) + j − 1, MODEL.md section 6,
+ * placed by `addScheduleInto`) and what falls after year N to the write-off.
  */
 function depreciateSpend(st: RunState, cost: number, period: number): void {
   const { setup } = st;
+  if (!st.depreciated) {
+    for (let y = 0; y <= setup.n; y++) st.depreciation[y] = 0;
+    st.depreciated = true;
+  }
   const method = setup.a.depreciation;
   const length = scheduleLength(method);
   if (scheduleBuffer.length < length) scheduleBuffer = new Float64Array(length);
   const schedule = scheduleBuffer; // used up before this returns: one buffer serves every run of the thread
   scheduleInto(cost, method, schedule);
-  const df = setup.discountFactor;
-  const n = setup.n;
-  const first = Math.max(period, 1);
-  let pv = 0;
-  let writeOff = 0;
-  for (let j = 0; j < length; j++) {
-    const year = first + j; // placed as `placeSchedule` places it
-    if (year <= n) pv += schedule[j] * df[year];
-    else writeOff += schedule[j];
-  }
-  st.d.depreciation += pv;
-  st.d.writeOff += writeOff;
+  st.d.writeOff += addScheduleInto(schedule, period, setup.n, st.depreciation, length);
 }
 
 // what a run without trace shows as its segments and event records (never pushed to: pushes need `trace`)
@@ -337,11 +339,11 @@ export function emptyPolicyRun(): PolicyRun {
   const state: RunState = {
     setup: undefined as unknown as TruckSetup, policy: 'keep', failures: null, trace: false, records: true, periods, log,
     segments: [], events: [], truckIndex: -1, engine: undefined as unknown as Engine, burn: 0, age: 0, serviceMark: 0,
-    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0, d: emptyTotals(),
+    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0, d: emptyTotals(), depreciation: [], depreciated: false,
   };
   return {
     policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0,
-    discounted: state.d, npv: Number.NaN, state,
+    discounted: state.d, depreciation: state.depreciation, depreciated: false, npv: Number.NaN, state,
   };
 }
 
@@ -396,6 +398,7 @@ export function simulatePolicyInto(
   st.events = trace ? [] : (NO_EVENTS as EngineEvent[]);
   st.truckIndex = truckIndex;
   clearTotals(st.d);
+  st.depreciated = false;
   st.engine = setup.start;
   st.burn = setup.burnStart;
   st.age = truck.engineHours;
@@ -501,6 +504,13 @@ export function simulatePolicyInto(
   run.endEngine = st.engine;
   run.endAge = st.age;
   run.discounted = st.d;
+  if (st.depreciated) {
+    let pv = 0;
+    for (let y = 1; y <= n; y++) pv += st.depreciation[y] * setup.discountFactor[y];
+    st.d.depreciation = pv;
+  }
+  run.depreciation = st.depreciation;
+  run.depreciated = st.depreciated;
   const end = st.engine;
   const credit = residualCredit(end.overhaulCost, st.age, end.lifeHours, generalIndex[n]);
   run.npv = npvFromTotals(st.d, as.taxRate, as.rebuildAccounting === 'expense', setup.discountFactor[n], credit);
