@@ -127,11 +127,16 @@ function clearPeriod(p: PeriodRun): void {
  * @example countOilServices(16500, 22500, 250, false) // = 24
  */
 export function countOilServices(a1: number, a2: number, interval: number, endsInEvent: boolean): number {
-  let count = Math.floor((a2 + ZERO) / interval) - Math.floor((a1 + ZERO) / interval);
-  if (endsInEvent && count > 0) {
-    const m = Math.round(a2 / interval);
-    if (Math.abs(a2 - m * interval) < ZERO) count -= 1;
-  }
+  return servicesBetween(serviceMarkAt(a1, interval), serviceMarkAt(a2, interval), a2, interval, endsInEvent);
+}
+
+/**
+ * `countOilServices` from the service marks of the segment's two ends (the
+ * simulation carries the end mark of one segment over as the start of the next).
+ */
+function servicesBetween(markBefore: number, markAfter: number, a2: number, interval: number, endsInEvent: boolean): number {
+  let count = markAfter - markBefore;
+  if (endsInEvent && count > 0 && Math.abs(a2 - Math.round(a2 / interval) * interval) < ZERO) count -= 1;
   return count;
 }
 
@@ -442,10 +447,9 @@ export function simulatePolicyInto(
       else happens = false;
       const h = happens && dist < left - ZERO ? dist : left;
       const a2 = age + h;
-      // countOilServices(a1, a2, …) with floor((a1 + 1e-6)/I) carried over from the previous segment of this life
+      // the services of `countOilServices`, the start mark carried over from the previous segment of this life
       const mark = serviceMarkAt(a2, interval);
-      let services = mark - serviceMark;
-      if (happens && services > 0 && Math.abs(a2 - Math.round(a2 / interval) * interval) < ZERO) services -= 1;
+      const services = servicesBetween(serviceMark, mark, a2, interval, happens);
       const serviceCost = engine.sumpLitres * lubePrice + engine.serviceKitCost * idx + engine.serviceLabourHours * labourRate * idx;
       const topUp = engine.topUpLitresPerHour * h;
       const litres = burn * h;
