@@ -11,6 +11,9 @@
  * - first run after start-up: the threads the server warms when it starts (instrumentation.ts);
  * - warm: the same threads again (every later run).
  * Target: 1.5 s or less.
+ *
+ * Then memory over 50 warm runs of the same size (`memoryOverRuns`): each
+ * run's 24 MB result buffer used to stay alive in the workers for good.
  */
 import { readFileSync } from 'node:fs';
 import os from 'node:os';
@@ -26,6 +29,7 @@ const TRUCKS = 100;
 
 /** `root`: the project folder; `bundle`: the worker bundle, already built. */
 async function main(root: string, bundle: string): Promise<void> {
+  const restingRss = process.memoryUsage().rss;
   const base = JSON.parse(readFileSync(path.join(root, 'scenarios', 'aldervane-north-pit.json'), 'utf8'));
   const v = validateCase(syntheticFleet(base, TRUCKS));
   if (!v.ok) throw new Error('synthetic fleet is not a valid case');
@@ -66,6 +70,41 @@ async function main(root: string, bundle: string): Promise<void> {
   const d0 = performance.now();
   await runInWorkers(bundle, demo.value, { ...spec, iterations: 2000 }, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
   console.log(`demo mine, 2,000 iterations × ${demo.value.trucks.length} trucks in 2 warm workers: ${((performance.now() - d0) / 1000).toFixed(2)} s`);
+
+  await memoryOverRuns(bundle, v.value, spec, restingRss, 50);
+}
+
+const MIB = 2 ** 20;
+
+/**
+ * Resident memory of the process (workers included) over `runs` warm runs,
+ * run as the server's jobs run them. Before the result buffers were pooled,
+ * each run's buffer (24 MB at 10,000 × 100) stayed alive in the workers for
+ * good: 50 runs held 1.2 GB more than one. Now what is left is the workers'
+ * own heaps, which V8 collects now and then, so memory wanders a few tens of
+ * MB. Target: the peak over the runs no more than 4 buffers above memory
+ * after the first run.
+ */
+async function memoryOverRuns(bundle: string, c: CaseFileInput, spec: MonteCarloSpec, restingRss: number, runs: number): Promise<void> {
+  let afterFirst = 0;
+  let peak = 0;
+  for (let i = 1; i <= runs; i++) {
+    await runInWorkers(bundle, c, spec, { workers: 2, stop: new SharedArrayBuffer(4), keepNpvs: false }).finished;
+    const rss = process.memoryUsage().rss;
+    if (i === 1) afterFirst = rss;
+    peak = Math.max(peak, rss);
+  }
+  const after = process.memoryUsage().rss;
+  const buffer = c.trucks.length * 3 * 8 * spec.iterations;
+  const mib = (b: number) => `${(b / MIB).toFixed(0)} MiB`;
+  console.log(
+    `memory over ${runs} runs of ${spec.iterations.toLocaleString('en-US')} × ${c.trucks.length}: at rest ${mib(restingRss)}, after run 1 ${mib(afterFirst)}, ` +
+      `peak ${mib(peak)}, after run ${runs} ${mib(after)}; load average ${os.loadavg()[0].toFixed(2)}`,
+  );
+  console.log(
+    `target: peak within 4 result buffers (${mib(4 * buffer)}) of after run 1 → ${peak - afterFirst <= 4 * buffer ? 'met' : 'NOT met'} ` +
+      `(${mib(peak - afterFirst)}; without pooling it would be ${mib((runs - 1) * buffer)})`,
+  );
 }
 
 /** One run in 2 workers, start to summaries; prints wall and CPU time and returns the wall ms. */

@@ -109,6 +109,7 @@ export function startJob(o: StartOptions): JobView {
   const pool = runInWorkers(bundle, o.validCase, o.spec, {
     workers: count,
     stop: stopBuffer,
+    keepNpvs: false, // the job keeps only the summaries
     onProgress: (done) => (job.done = done),
   });
   job.workers = pool.workers;

@@ -9,6 +9,12 @@
  * (a fresh worker spends its first iterations in the interpreter while the
  * optimiser catches up, which is most of a short run's time). A worker that
  * fails is terminated, never reused.
+ *
+ * The shared result buffers outlive a run too, and are reused (`leaseBuffer`):
+ * an idle worker's heap keeps every SharedArrayBuffer it was ever sent until
+ * that thread next collects garbage, which an allocation-free worker hardly
+ * ever does, so a new buffer per run kept every run's 24 MB (10,000 × 100
+ * trucks) alive for good. A run copies the npvs it reports out of its buffer.
  */
 import { Worker } from 'node:worker_threads';
 import type { MonteCarloResult, MonteCarloSpec, TruckRisk } from '@/lib/engine/monte-carlo';
@@ -18,7 +24,7 @@ import type { DoneRange, WorkerMessage, WorkerRequest } from './worker-entry';
 export interface PoolRun {
   workers: Worker[];
   /**
-   * npvs of the iterations done, in iteration order; which ones they are
+   * npvs of the iterations done, in iteration order (empty with `keepNpvs: false`); which ones they are
    * (all of them unless the run was stopped); their summaries (null when none ran)
    */
   finished: Promise<{ npvs: Float64Array; done: number; ranges: DoneRange[]; result: MonteCarloResult | null }>;
@@ -127,7 +133,7 @@ export function prewarm(bundle: string, validCase: CaseFileInput, o: { workers: 
     ],
   };
   const stop = new SharedArrayBuffer(4);
-  const run = runInWorkers(bundle, validCase, spec, { workers: o.workers, stop, warmUp: true });
+  const run = runInWorkers(bundle, validCase, spec, { workers: o.workers, stop, warmUp: true, keepNpvs: false });
   const finished = run.finished.then(
     () => undefined,
     () => undefined, // a failed warm-up only means the first run starts cold
@@ -148,26 +154,69 @@ function stopWarmUp(): Promise<unknown> {
   return warming.finished;
 }
 
-/** End every idle worker of a bundle (the benchmark's cold start; tests). */
+/** End every idle worker of a bundle and drop the free result buffers (the benchmark's cold start; tests). */
 export async function drainPool(bundle: string): Promise<void> {
   await stopWarmUp();
+  freeBuffers.length = 0;
   const list = idle.get(bundle) ?? [];
   idle.set(bundle, []);
   await Promise.all(list.map((w) => w.terminate()));
+}
+
+/** Free result buffers, reused largest-first by later runs; at most this many are kept. */
+const MAX_FREE_BUFFERS = 2;
+const bufferHolder = globalThis as unknown as { __haulcaseMcBuffers?: SharedArrayBuffer[] };
+const freeBuffers = (bufferHolder.__haulcaseMcBuffers ??= []);
+
+/**
+ * A shared buffer of at least `bytes` for one run: the smallest free one that
+ * is large enough, else a new one (rounded up to a power of two, at least
+ * 1 MiB, so a fleet that grows a little does not need another), dropping the
+ * smallest free one when the pool is full. Give it back with `releaseBuffer`
+ * once no worker writes or reads it any more.
+ */
+export function leaseBuffer(bytes: number): SharedArrayBuffer {
+  let best = -1;
+  for (let i = 0; i < freeBuffers.length; i++) {
+    const size = freeBuffers[i].byteLength;
+    if (size >= bytes && (best < 0 || size < freeBuffers[best].byteLength)) best = i;
+  }
+  if (best >= 0) return freeBuffers.splice(best, 1)[0];
+  if (freeBuffers.length >= MAX_FREE_BUFFERS) {
+    freeBuffers.sort((a, b) => a.byteLength - b.byteLength);
+    freeBuffers.shift();
+  }
+  return new SharedArrayBuffer(Math.max(2 ** 20, 2 ** Math.ceil(Math.log2(Math.max(1, bytes)))));
+}
+
+export function releaseBuffer(buffer: SharedArrayBuffer): void {
+  if (!freeBuffers.includes(buffer)) freeBuffers.push(buffer);
+}
+
+/** Bytes held by free result buffers (the memory benchmark and tests). */
+export function pooledBufferBytes(): number {
+  return freeBuffers.reduce((n, b) => n + b.byteLength, 0);
 }
 
 export function runInWorkers(
   bundle: string,
   validCase: CaseFileInput,
   spec: MonteCarloSpec,
-  o: { workers: number; stop: SharedArrayBuffer; onProgress?: (done: number) => void; warmUp?: boolean },
+  o: {
+    workers: number;
+    stop: SharedArrayBuffer;
+    onProgress?: (done: number) => void;
+    warmUp?: boolean;
+    /** false: report no npvs (an empty array), only the summaries — the server's runs, which need no copy of 24 MB */
+    keepNpvs?: boolean;
+  },
 ): PoolRun {
   const total = spec.iterations;
   const trucks = validCase.trucks.length;
   const truckIds = validCase.trucks.map((t) => t.id);
   const count = Math.max(1, Math.min(o.workers, Math.ceil(total / 100)));
   const perIteration = trucks * 3;
-  const out = new SharedArrayBuffer(total * perIteration * 8);
+  const out = leaseBuffer(total * perIteration * 8);
   const next = new SharedArrayBuffer(4);
   const doneBy = new Array<number>(count).fill(0);
   const rangesBy: DoneRange[][] = Array.from({ length: count }, () => []);
@@ -197,7 +246,7 @@ export function runInWorkers(
   const finished = runs.then(async () => {
     const done = doneBy.reduce((a, b) => a + b, 0);
     o.onProgress?.(done);
-    const all = new Float64Array(out);
+    const all = new Float64Array(out, 0, total * perIteration);
     // in iteration order; a stopped run leaves gaps: move each range's finished iterations up behind the previous one
     const ranges = rangesBy.flat().filter(([, n]) => n > 0).sort((x, y) => x[0] - y[0]);
     let at = 0;
@@ -206,7 +255,8 @@ export function runInWorkers(
       if (start !== at) all.copyWithin(at, start, start + n * perIteration);
       at += n * perIteration;
     }
-    const npvs = all.subarray(0, at);
+    // a copy: the buffer goes back to the pool for the next run
+    const npvs = o.keepNpvs === false ? new Float64Array(0) : all.slice(0, at);
     let result: MonteCarloResult | null = null;
     if (done > 0) {
       const parts = await Promise.all(
@@ -227,8 +277,12 @@ export function runInWorkers(
       result = { iterations: done, trucks: truckRisk, fleet: fleet as MonteCarloResult['fleet'] };
     }
     giveBack(bundle, workers);
+    releaseBuffer(out);
     return { npvs, done, ranges, result };
   });
-  finished.catch(() => workers.forEach((w) => void w.terminate()));
+  finished.catch(() => {
+    // terminated workers write nothing more: the buffer can serve another run
+    void Promise.all(workers.map((w) => w.terminate())).then(() => releaseBuffer(out));
+  });
   return { workers, finished };
 }

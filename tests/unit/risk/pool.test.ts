@@ -12,7 +12,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { validateCase } from '@/lib/engine';
 import { runIterations, summariseRun, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
-import { chunkSize, drainPool, prewarm, runInWorkers } from '@/lib/risk/pool';
+import { chunkSize, drainPool, leaseBuffer, pooledBufferBytes, prewarm, releaseBuffer, runInWorkers } from '@/lib/risk/pool';
 
 const raw = JSON.parse(readFileSync(path.resolve(__dirname, '../../../scenarios/aldervane-north-pit.json'), 'utf8'));
 const v = validateCase(raw);
@@ -87,6 +87,39 @@ describe('runInWorkers', () => {
     await warming;
     expect(done).toBe(spec.iterations);
     expect(Array.from(npvs)).toEqual(Array.from(runIterations(demo, spec, 0, spec.iterations).npvs));
+  });
+
+  it('reuses one result buffer run after run (the workers kept every run\'s buffer alive when each had its own), and stale numbers in it never reach a result', async () => {
+    // a large run first, so the smaller ones after it reuse a buffer holding its numbers
+    const big = { ...spec, iterations: 3000, seed: 7 };
+    await runInWorkers(bundle, demo, big, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
+    const held = pooledBufferBytes();
+    expect(held).toBeGreaterThanOrEqual(3000 * demo.trucks.length * 3 * 8);
+    for (let round = 0; round < 3; round++) {
+      const { npvs } = await runInWorkers(bundle, demo, spec, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
+      expect(Array.from(npvs)).toEqual(Array.from(runIterations(demo, spec, 0, spec.iterations).npvs));
+      expect(pooledBufferBytes()).toBe(held);
+    }
+  });
+
+  it('leases the smallest free buffer that is large enough, grows by powers of two and keeps at most two free', async () => {
+    await drainPool(bundle);
+    expect(pooledBufferBytes()).toBe(0);
+    const a = leaseBuffer(3 * 2 ** 20);
+    expect(a.byteLength).toBe(4 * 2 ** 20);
+    releaseBuffer(a);
+    expect(leaseBuffer(2 ** 20 + 1)).toBe(a); // reused, not a new one
+    const b = leaseBuffer(10);
+    expect(b.byteLength).toBe(2 ** 20); // at least 1 MiB
+    const c = leaseBuffer(9 * 2 ** 20);
+    for (const x of [a, b, c]) releaseBuffer(x);
+    // three given back, but the pool keeps every one until a new buffer is needed; then the smallest goes
+    expect(pooledBufferBytes()).toBe((4 + 1 + 16) * 2 ** 20);
+    const d = leaseBuffer(20 * 2 ** 20);
+    expect(d.byteLength).toBe(32 * 2 ** 20);
+    expect(pooledBufferBytes()).toBe((4 + 16) * 2 ** 20); // b (1 MiB) dropped
+    releaseBuffer(d);
+    expect(leaseBuffer(2 ** 20)).toBe(a);
   });
 
   it('shares the iterations out in chunks of about a fiftieth of each worker\'s share, and never less than a progress step', () => {
