@@ -201,6 +201,11 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
     expect(locked.status).toBe(409);
     expect(locked.body.error).toMatch(/only a draft/);
     await k('business_cases').where({ id: Number(id) }).update({ status: 'draft' });
+    for (const url of ['http://x/a', 'http://x/a?version=abc', 'http://x/a?version=2.5']) {
+      const r = await call(deleteCase, { workspace: WS, id }, { method: 'DELETE', url });
+      expect(r.status, url).toBe(422);
+      expect(r.body.problems.map((p: { path: string }) => p.path)).toEqual(['version']);
+    }
     expect((await call(deleteCase, { workspace: WS, id }, { method: 'DELETE', url: 'http://x/a?version=1' })).status).toBe(409);
     expect((await call(deleteCase, { workspace: WS, id }, { method: 'DELETE', url: 'http://x/a?version=2' })).status).toBe(204);
     expect((await call(getCase, { workspace: WS, id })).status).toBe(404);
