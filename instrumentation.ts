@@ -1,10 +1,13 @@
 /**
  * Starts the local SMTP sink with the server when no SMTP_HOST is configured
  * (development, demo, tests), so mail has somewhere real to go on a fresh clone;
- * and warms the Monte Carlo worker threads in the background.
+ * marks Monte Carlo runs that the previous process left running as failed; and
+ * warms the Monte Carlo worker threads in the background.
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  const { markInterruptedRuns } = await import('./lib/risk/startup');
+  void markInterruptedRuns();
   const { warmMonteCarloWorkers } = await import('./lib/risk/warm');
   void warmMonteCarloWorkers();
   const { readMailConfig } = await import('./lib/mail/config');
