@@ -11,6 +11,7 @@ import type { Knex } from 'knex';
 import { POST as submit } from '@/app/api/workspaces/[workspace]/cases/[id]/submit/route';
 import { POST as decide } from '@/app/api/workspaces/[workspace]/cases/[id]/decisions/route';
 import { POST as forgot } from '@/app/api/password/forgot/route';
+import { GET as outbox } from '@/app/api/workspaces/[workspace]/outbox/route';
 import { deliverDueMail, enqueueMail, flushOutbox, OUTBOX, retryDelayMs, setOutboxKicksForTests, startOutboxSender } from '@/lib/mail/queue';
 import { useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
 import { openMailDb } from './support/mail-db';
@@ -180,6 +181,25 @@ describe.each(backends)('the mail outbox on $name', ({ pg }) => {
     expect(await k('password_resets').where({ userId: ids['viewer@aldervane.test'] }).whereNull('usedAt')).toHaveLength(1);
     await flushOutbox();
     expect((await k('mail_sink').first()).subject).toBe('Reset your Haulcase password');
+  });
+
+  it('lists on the Outbox this workspace\'s mail not sent yet or given up, and no other workspace\'s or account mail', async () => {
+    setOutboxKicksForTests('off');
+    await enqueueMail(k, { ...mail, subject: 'Waiting here' });
+    await enqueueMail(k, { ...mail, subject: 'Theirs', workspace: 'corrin-flats' });
+    await enqueueMail(k, { ...mail, subject: 'Account mail', workspace: undefined });
+    await enqueueMail(k, { ...mail, subject: 'Given up here' });
+    await k('mail_outbox').where({ subject: 'Given up here' }).update({ status: 'failed', attempts: OUTBOX.maxAttempts, lastError: 'connect ECONNREFUSED' });
+    await enqueueMail(k, { ...mail, subject: 'Sent here' });
+    await k('mail_outbox').where({ subject: 'Sent here' }).update({ status: 'sent', attempts: 1, sentAt: new Date().toISOString() });
+    signInAs(ids['admin@aldervane.test']);
+    const r = await call(outbox, { workspace: WS });
+    expect(r.status).toBe(200);
+    expect(r.body.queued.map((m: { subject: string; status: string; attempts: number; lastError: string | null }) => [m.subject, m.status, m.attempts, m.lastError])).toEqual([
+      ['Given up here', 'failed', OUTBOX.maxAttempts, 'connect ECONNREFUSED'],
+      ['Waiting here', 'pending', 0, null],
+    ]);
+    expect(r.body.queued[0].to).toEqual(['someone@aldervane.test']);
   });
 });
 
