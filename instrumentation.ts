@@ -1,19 +1,27 @@
 /**
  * Starts the local SMTP sink with the server when no SMTP_HOST is configured
  * (development, demo, tests), so mail has somewhere real to go on a fresh clone;
- * and warms the Monte Carlo worker threads in the background.
+ * starts the mail outbox sender (lib/mail/queue.ts: what is due now, then on an
+ * unreferenced timer); marks Monte Carlo runs that the previous process left
+ * running as failed; and warms the Monte Carlo worker threads in the background.
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  const { markInterruptedRuns } = await import('./lib/risk/startup');
+  void markInterruptedRuns();
   const { warmMonteCarloWorkers } = await import('./lib/risk/warm');
   void warmMonteCarloWorkers();
   const { readMailConfig } = await import('./lib/mail/config');
-  if (!readMailConfig().sink) return;
-  const { ensureMailSink } = await import('./lib/mail/sink');
-  try {
-    const sink = await ensureMailSink();
-    console.log(`[haulcase] local mail sink listening on 127.0.0.1:${sink.port}; messages appear on the Outbox page`);
-  } catch (err) {
-    console.error('[haulcase] local mail sink did not start:', err);
+  if (readMailConfig().sink) {
+    const { ensureMailSink } = await import('./lib/mail/sink');
+    try {
+      const sink = await ensureMailSink();
+      console.log(`[haulcase] local mail sink listening on 127.0.0.1:${sink.port}; messages appear on the Outbox page`);
+    } catch (err) {
+      console.error('[haulcase] local mail sink did not start:', err);
+    }
   }
+  // sends what the outbox holds now (mail a previous process committed but did not send), then on a timer
+  const { startOutboxSender } = await import('./lib/mail/queue');
+  startOutboxSender();
 }

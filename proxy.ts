@@ -1,6 +1,7 @@
 import { NextResponse, type NextRequest } from 'next/server';
 import { getToken } from 'next-auth/jwt';
 import { authSecret } from '@/lib/auth/secret';
+import { hasBrokenPercentEncoding } from '@/lib/url-path';
 
 // Pages anyone may open; everything else needs a session. The proxy only redirects:
 // every route handler and page still checks the session and role on the server.
@@ -8,6 +9,11 @@ const PUBLIC = [/^\/sign-in/, /^\/invite\//, /^\/reset-password/, /^\/forgot-pas
 
 export async function proxy(request: NextRequest) {
   const { pathname, search } = request.nextUrl;
+  if (hasBrokenPercentEncoding(pathname)) {
+    return pathname.startsWith('/api/') ? NextResponse.json({ error: 'Not found.' }, { status: 404 }) : new NextResponse('Not found', { status: 404 });
+  }
+  // the API route passes the proxy only for the check above; it checks the session itself
+  if (pathname.startsWith('/api/')) return NextResponse.next();
   const headers = new Headers(request.headers);
   headers.set('x-haulcase-path', pathname + search);
   if (!PUBLIC.some((re) => re.test(pathname))) {
@@ -23,5 +29,7 @@ export async function proxy(request: NextRequest) {
 }
 
 export const config = {
-  matcher: ['/((?!api/|_next/|favicon.ico|fonts/).*)'],
+  // every page; of the API only the truck route (GET only), whose segment is a unit number anyone may type:
+  // a proxy on a route with a body would buffer it (uploads, imports)
+  matcher: ['/((?!api/|_next/|favicon.ico|fonts/).*)', '/api/workspaces/:workspace/cases/:id/trucks/:truckId'],
 };

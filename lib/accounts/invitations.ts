@@ -7,7 +7,7 @@ import { db } from '@/lib/db';
 import { HttpError, invalid } from '@/lib/http';
 import { readMailConfig } from '@/lib/mail/config';
 import { invitationMail } from '@/lib/mail/messages';
-import { sendMail } from '@/lib/mail/send';
+import { enqueueMail, mailCommitted } from '@/lib/mail/queue';
 import { nowIso } from '@/lib/time';
 import { addMinutes, assertUsable, hashToken, INVITATION_DAYS, newToken } from './tokens';
 
@@ -26,12 +26,14 @@ export async function createInvitation(access: Access, input: { email: string; r
       .returning('id');
     const newId = insertedId(row);
     await writeAudit(trx, { workspaceId: access.workspace.id, userId: access.userId, action: 'invite', entity: 'invitation', entityId: newId, after: { email: input.email, role: input.role, expiresAt } });
+    // the link's mail is written with the invitation: both are saved, or neither
+    const inviter = await trx('users').where({ id: access.userId }).first('name', 'email');
+    const body = invitationMail({ workspaceName: access.workspace.name, inviter: inviter?.name || inviter?.email || 'An admin', role: input.role, link: `${readMailConfig().appUrl}/invite/${token}`, expiresAt });
+    await enqueueMail(trx, { ...body, to: [input.email], workspace: access.workspace.slug });
     return newId;
   });
-  const inviter = await k('users').where({ id: access.userId }).first('name', 'email');
-  const body = invitationMail({ workspaceName: access.workspace.name, inviter: inviter?.name || inviter?.email || 'An admin', role: input.role, link: `${readMailConfig().appUrl}/invite/${token}`, expiresAt });
-  const sent = await sendMail({ ...body, to: [input.email], workspace: access.workspace.slug });
-  return { id, email: input.email, role: input.role, expiresAt, mailed: sent.ok };
+  await mailCommitted();
+  return { id, email: input.email, role: input.role, expiresAt, mailQueued: true };
 }
 
 export async function fetchPendingInvitations(workspaceId: number) {

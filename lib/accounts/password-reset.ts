@@ -5,7 +5,7 @@ import { db } from '@/lib/db';
 import { HttpError } from '@/lib/http';
 import { readMailConfig } from '@/lib/mail/config';
 import { passwordResetMail } from '@/lib/mail/messages';
-import { sendMail } from '@/lib/mail/send';
+import { enqueueMail, mailCommitted } from '@/lib/mail/queue';
 import { nowIso } from '@/lib/time';
 import { addMinutes, assertUsable, hashToken, newToken, RESET_MINUTES } from './tokens';
 
@@ -21,8 +21,9 @@ export async function requestPasswordReset(email: string): Promise<void> {
   await k.transaction(async (trx) => {
     await trx('password_resets').insert({ userId: user.id, tokenHash: hashToken(token), expiresAt: addMinutes(new Date(), RESET_MINUTES), createdAt: nowIso() });
     await writeAudit(trx, { workspaceId: null, userId: user.id, action: 'request-reset', entity: 'user', entityId: user.id });
+    await enqueueMail(trx, { ...passwordResetMail({ link: `${readMailConfig().appUrl}/reset-password/${token}`, minutes: RESET_MINUTES }), to: [user.email] });
   });
-  await sendMail({ ...passwordResetMail({ link: `${readMailConfig().appUrl}/reset-password/${token}`, minutes: RESET_MINUTES }), to: [user.email] });
+  await mailCommitted();
 }
 
 /** Sets the new password and spends the token (and any other open token of the account). */

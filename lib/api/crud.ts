@@ -42,6 +42,18 @@ export function parseId(id: string): number {
   return Number(id);
 }
 
+/**
+ * The `?version=N` a DELETE must carry: the version the caller loaded, so a
+ * delete of a row someone changed meanwhile answers 409 like a stale update.
+ * Missing or not a whole number: 422 with the path `version`.
+ */
+export function versionFromQuery(req: Request): number {
+  const raw = new URL(req.url).searchParams.get('version');
+  if (raw === null) throw invalid([{ path: 'version', message: 'is required: send the version you loaded (?version=N)' }]);
+  if (!/^\d{1,12}$/.test(raw) || Number(raw) < 1) throw invalid([{ path: 'version', message: 'must be the version you loaded, a whole number' }]);
+  return Number(raw);
+}
+
 export async function insertReturningId(k: Knex, table: string, values: Row): Promise<number> {
   const [row] = await k(table).insert(values).returning('id');
   return typeof row === 'object' ? row.id : row;
@@ -129,14 +141,15 @@ export function itemHandlers(cfg: EntityConfig) {
     const access = await requireMember(p.workspace, CAN.edit);
     const id = parseId(p.id);
     const wsId = access.workspace.id;
-    const v = new URL(req.url).searchParams.get('version');
+    const version = versionFromQuery(req);
     const files = await db().transaction(async (trx) => {
       const before = await trx(cfg.table).where({ id, workspaceId: wsId }).first();
       if (!before) throw notFound(`No such ${cfg.label} in this workspace.`);
-      if (v !== null && Number(v) !== before.version) throw conflict();
+      if (before.version !== version) throw conflict();
       if (cfg.beforeDelete) await cfg.beforeDelete(trx, wsId, id);
       const keys = cfg.storedFiles ? await cfg.storedFiles(trx, wsId, id) : [];
-      await trx(cfg.table).where({ id, workspaceId: wsId }).delete();
+      // the version in the WHERE makes a concurrent update win over this delete cleanly
+      if ((await trx(cfg.table).where({ id, workspaceId: wsId, version }).delete()) !== 1) throw conflict();
       await writeAudit(trx, { workspaceId: wsId, userId: access.userId, action: 'delete', entity: cfg.entity, entityId: id, before });
       return keys;
     });

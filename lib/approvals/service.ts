@@ -4,6 +4,7 @@ import type { Access } from '@/lib/auth/access';
 import { writeAudit } from '@/lib/audit';
 import { db } from '@/lib/db';
 import { conflict, HttpError, notFound } from '@/lib/http';
+import { mailCommitted } from '@/lib/mail/queue';
 import { nowIso } from '@/lib/time';
 import { freezeCase, snapshotForSubmission, type CaseRow } from './freeze';
 import { notifyDecision, notifySubmitted } from './notify';
@@ -49,9 +50,12 @@ export async function submitCase(access: Access, id: number, input: { comment: s
     if (n !== 1) throw conflict();
     await trx('case_events').insert({ workspaceId: access.workspace.id, caseId: id, userId: access.userId, action: 'submit', comment: input.comment, at });
     await writeAudit(trx, { workspaceId: access.workspace.id, userId: access.userId, action: 'submit', entity: 'business_case', entityId: id, before: snapshot(row), after: { ...snapshot({ ...row, ...patch }), comment: input.comment } });
-    return { row: { ...row, ...patch } };
+    // the mail is written with the change: both are saved, or neither
+    const mail = await notifySubmitted(trx, access, { ...row, ...patch }, input.comment);
+    return { row: { ...row, ...patch }, mail };
   });
-  const mail = await notifySubmitted(access, result.row, input.comment);
+  await mailCommitted();
+  const mail = result.mail;
   return { status: result.row.status, version: result.row.version, mail };
 }
 
@@ -81,9 +85,11 @@ export async function decideCase(access: Access, id: number, input: { decision: 
       workspaceId: access.workspace.id, userId: access.userId, action: input.decision, entity: 'business_case', entityId: id,
       before: snapshot(row), after: { ...snapshot({ ...row, ...patch }), comment: input.comment, approvals: step.approvals },
     });
-    return { row: { ...row, ...patch }, final: step.final, approvals: step.approvals };
+    const mail = await notifyDecision(trx, access, { ...row, ...patch }, input.decision, step.final, input.comment);
+    return { row: { ...row, ...patch }, final: step.final, approvals: step.approvals, mail };
   });
-  const mail = await notifyDecision(access, result.row, input.decision, result.final, input.comment);
+  await mailCommitted();
+  const mail = result.mail;
   return { status: result.row.status, version: result.row.version, approvals: result.approvals, frozenHash: result.row.frozenHash ?? null, mail };
 }
 

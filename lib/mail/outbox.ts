@@ -30,3 +30,20 @@ export async function fetchOutbox(workspaceId: number, slug: string, limit = 100
     .slice(0, limit)
     .map(({ ws, ...m }) => (ws === slug ? m : { ...m, text: ACCOUNT_MAIL_WITHHELD, html: '' }));
 }
+
+export type QueuedMessage = { id: number; to: string[]; subject: string; status: 'pending' | 'sending' | 'failed'; attempts: number; nextAttemptAt: string; lastError: string | null; createdAt: string };
+
+/**
+ * This workspace's mail still in `mail_outbox` and not sent: waiting (or being
+ * retried) and given up. Account mail carries no workspace and is not listed.
+ * Shown whether mail goes to the local sink or to a real SMTP server.
+ */
+export async function fetchOutboxQueue(slug: string, limit = 50): Promise<QueuedMessage[]> {
+  const rows = await db()('mail_outbox')
+    .where({ workspaceSlug: slug })
+    .whereIn('status', ['pending', 'sending', 'failed'])
+    .orderBy('id', 'desc')
+    .limit(limit)
+    .select('id', 'toAddresses', 'subject', 'status', 'attempts', 'nextAttemptAt', 'lastError', 'createdAt');
+  return rows.map(({ toAddresses, ...r }) => ({ ...r, to: JSON.parse(toAddresses) as string[] }));
+}

@@ -14,10 +14,12 @@ export type OutgoingMail = {
 
 /**
  * Sends one message over SMTP with nodemailer: to SMTP_HOST when configured,
- * otherwise to the local sink on loopback. Sent after the change is committed;
- * a failure is logged and reported but never undoes the change.
+ * otherwise to the local sink on loopback. Only the outbox sender
+ * (lib/mail/queue.ts) calls this; the product writes mail with `enqueueMail`
+ * in the transaction of its change. The timeouts keep one attempt well inside
+ * the sender's claim on the row (OUTBOX.claimMs).
  */
-export async function sendMail(m: OutgoingMail): Promise<{ ok: boolean; messageId?: string }> {
+export async function sendMail(m: OutgoingMail): Promise<{ ok: boolean; messageId?: string; error?: string }> {
   if (m.to.length === 0) return { ok: true };
   const cfg = readMailConfig();
   const port = cfg.sink ? (await ensureMailSink()).port : cfg.port;
@@ -27,6 +29,9 @@ export async function sendMail(m: OutgoingMail): Promise<{ ok: boolean; messageI
     secure: !cfg.sink && port === 465,
     ignoreTLS: cfg.sink,
     auth: !cfg.sink && cfg.user ? { user: cfg.user, pass: cfg.pass ?? '' } : undefined,
+    connectionTimeout: 30_000,
+    greetingTimeout: 30_000,
+    socketTimeout: 60_000,
   });
   try {
     const info = await transport.sendMail({
@@ -39,8 +44,7 @@ export async function sendMail(m: OutgoingMail): Promise<{ ok: boolean; messageI
     });
     return { ok: true, messageId: info.messageId };
   } catch (err) {
-    console.error('[haulcase] could not send mail:', err);
-    return { ok: false };
+    return { ok: false, error: err instanceof Error ? err.message : String(err) };
   } finally {
     transport.close();
   }

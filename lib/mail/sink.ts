@@ -6,6 +6,7 @@ import { db } from '@/lib/db';
 import { nowIso } from '@/lib/time';
 import { readMailConfig, WORKSPACE_HEADER } from './config';
 import { parseMail } from './parse';
+import { setOutboxKicksForTests } from './queue';
 
 export type MailSink = { port: number; stop: () => Promise<void> };
 
@@ -71,7 +72,12 @@ export function ensureMailSink(): Promise<MailSink> {
   return holder.__haulcaseMailSink;
 }
 
-/** Tests use their own sink; this makes lib/mail send to it. */
+/**
+ * Tests use their own sink; this makes lib/mail send to it, and makes the
+ * send after each commit finish before the request answers
+ * (`setOutboxKicksForTests('await')`), so a test reads the mail right after.
+ */
 export function useMailSinkForTests(sink: MailSink | undefined): void {
   holder.__haulcaseMailSink = sink ? Promise.resolve(sink) : undefined;
+  setOutboxKicksForTests(sink ? 'await' : 'background');
 }

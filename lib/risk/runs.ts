@@ -12,7 +12,13 @@ import { nowIso } from '@/lib/time';
 import type { MonteCarloResult } from '@/lib/engine/monte-carlo';
 import type { CaseFile } from '@/lib/validation/case';
 import type { MonteCarloRequest } from '@/lib/validation/risk';
+import type { Knex } from 'knex';
 import { cancelJob, getJob, MAX_RUNNING, runningCount, startJob, TooManyRunsError, type JobView } from './jobs';
+
+/** Why a run left `running` by an earlier server process is failed when a server starts. */
+export const INTERRUPTED_BY_RESTART = 'Interrupted by a server restart; start the run again.';
+/** What a cancel of a run that no server holds any more records. */
+export const CANCELLED_NOT_RUNNING = 'Cancelled: the run was no longer in progress on this server (interrupted by a restart).';
 
 export interface RunView {
   id: string;
@@ -60,8 +66,10 @@ export async function startRun(o: { workspaceId: number; caseId: number; userId:
     });
   });
   const finish = async (j: Pick<JobView, 'status' | 'done' | 'result' | 'error' | 'finishedAt'>): Promise<void> => {
+    // the first recorded end wins (a run marked cancelled or interrupted keeps that)
     await db()('monte_carlo_runs')
       .where({ id })
+      .whereNull('finishedAt')
       .update({ status: j.status, done: j.done, result: j.result ? JSON.stringify(j.result) : null, error: j.error, finishedAt: j.finishedAt });
   };
   try {
@@ -94,10 +102,39 @@ export async function listRuns(workspaceId: number, caseId: number, limit = 10):
   });
 }
 
+/**
+ * A run lives in the worker threads of the server process that started it, so
+ * a row still `running` when a server starts was interrupted by a restart: it
+ * is marked failed (instrumentation.ts → lib/risk/startup.ts) rather than shown
+ * running, and uncancellable, for ever. Runs this process holds are left alone.
+ * Returns how many rows were marked.
+ */
+export async function failInterruptedRuns(k: Knex = db(), at = nowIso()): Promise<number> {
+  const rows: Array<{ id: string }> = await k('monte_carlo_runs').where({ status: 'running' }).whereNull('finishedAt').select('id');
+  const ids = rows.map((r) => r.id).filter((id) => getJob(id) === null);
+  if (ids.length === 0) return 0;
+  return k('monte_carlo_runs').whereIn('id', ids).where({ status: 'running' }).whereNull('finishedAt').update({ status: 'failed', error: INTERRUPTED_BY_RESTART, finishedAt: at });
+}
+
+/**
+ * Cancel: the workers of a run this server holds stop at their next progress
+ * tick. A run stored as running that no worker here holds (its server was
+ * restarted) is marked cancelled at once, with the reason, instead of answering
+ * 409 for ever.
+ */
 export async function cancelRun(o: { workspaceId: number; caseId: number; runId: string; userId: number }): Promise<RunView> {
   const run = await readRun(o.workspaceId, o.caseId, o.runId);
   if (run.status !== 'running') throw new HttpError(409, `The run has already finished (${run.status}).`);
-  if (!cancelJob(o.runId)) throw new HttpError(409, 'The run is not in progress on this server.');
-  await writeAudit(db(), { workspaceId: o.workspaceId, userId: o.userId, action: 'cancel', entity: 'monte_carlo_run', entityId: o.runId });
-  return { ...run, status: 'cancelled' };
+  if (cancelJob(o.runId)) {
+    await writeAudit(db(), { workspaceId: o.workspaceId, userId: o.userId, action: 'cancel', entity: 'monte_carlo_run', entityId: o.runId });
+    return { ...run, status: 'cancelled' };
+  }
+  const finishedAt = nowIso();
+  const marked = await db().transaction(async (trx) => {
+    const n = await trx('monte_carlo_runs').where({ id: o.runId, status: 'running' }).whereNull('finishedAt').update({ status: 'cancelled', error: CANCELLED_NOT_RUNNING, finishedAt });
+    if (n === 1) await writeAudit(trx, { workspaceId: o.workspaceId, userId: o.userId, action: 'cancel', entity: 'monte_carlo_run', entityId: o.runId, after: { reason: CANCELLED_NOT_RUNNING } });
+    return n === 1;
+  });
+  if (!marked) return readRun(o.workspaceId, o.caseId, o.runId); // it finished meanwhile: show how
+  return { ...run, status: 'cancelled', error: CANCELLED_NOT_RUNNING, finishedAt };
 }

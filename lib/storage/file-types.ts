@@ -1,3 +1,5 @@
+import { stripControlCharacters } from '@/lib/validation/control-characters';
+
 /** Limits for quote documents. */
 export const DOCUMENT_MAX_BYTES = 10 * 1024 * 1024;
 
@@ -18,10 +20,13 @@ export function sniffDocumentType(b: Uint8Array): DocumentType | null {
   return null;
 }
 
-/** A file name safe to store and to send back in Content-Disposition. */
+/**
+ * A file name safe to store, show and send back in Content-Disposition: no
+ * folder, no quotes, no control or bidirectional characters (which would show
+ * "quote\u202Efdp.exe" as "quoteexe.pdf").
+ */
 export function cleanFileName(name: string): string {
   const base = name.split(/[\\/]/).pop() ?? '';
-  // eslint-disable-next-line no-control-regex
-  const cleaned = base.replace(/[\u0000-\u001f\u007f"]/g, '').trim().slice(0, 200);
+  const cleaned = stripControlCharacters(base).replace(/"/g, '').trim().slice(0, 200);
   return cleaned || 'document';
 }

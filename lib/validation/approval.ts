@@ -1,8 +1,9 @@
 import { z } from 'zod';
+import { stripControlCharacters, stripControlKeepingLines } from './control-characters';
 import { DECISIONS } from '@/lib/approvals/workflow';
 import { roleSchema } from '@/lib/auth/roles';
 
-const comment = z.string().trim().max(4000, 'Keep the comment under 4,000 characters.').default('');
+const comment = z.string().overwrite(stripControlKeepingLines).trim().max(4000, 'Keep the comment under 4,000 characters.').default('');
 const version = z.number().int().positive().optional();
 
 /** Body of POST …/cases/[id]/submit. */
@@ -30,7 +31,7 @@ const token = z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, 'This link is not vali
 /** Body of POST /api/invitations/accept: a name and password for a new account, nothing for a signed-in one. */
 export const acceptInvitationSchema = z.strictObject({
   token,
-  name: z.string().trim().min(1, 'Enter your name.').max(200).optional(),
+  name: z.string().overwrite(stripControlCharacters).trim().min(1, 'Enter your name.').max(200).optional(),
   password: password.optional(),
 });
 

@@ -4,10 +4,11 @@
  * the capital-plan settings. One schema per shape, shared by forms and handlers.
  */
 import { z } from 'zod';
+import { stripControlCharacters } from './control-characters';
 
 const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
 
-export const caseNameSchema = z.string().trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
+export const caseNameSchema = z.string().overwrite(stripControlCharacters).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
 
 export const selectionSchema = z
   .array(z.strictObject({ truckId: id, repowerOfferId: id.nullable() }))

@@ -6,6 +6,7 @@
  */
 import { z } from 'zod';
 import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema } from './case';
+import { stripControlKeepingLines } from './control-characters';
 
 /**
  * A text cell that starts with one of these is read as a formula by
@@ -17,6 +18,7 @@ const FORMULA_MESSAGE = 'must not start with =, +, - or @ (a spreadsheet would r
 export const plainText = (max: number) =>
   z
     .string('must be text')
+    .overwrite(stripControlKeepingLines)
     .trim()
     .max(max, `must be at most ${max} characters`)
     .refine((s) => !FORMULA_START.test(s), FORMULA_MESSAGE);

@@ -109,6 +109,30 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
     expect((await call(getTruck, { workspace: WS, id: String(caseId), truckId: 'NOPE' })).status).toBe(404);
   });
 
+  it('opens the truck whose unit number the route names, "%" and all, and answers 404 (not 500) for a unit no truck has', async () => {
+    as('viewer');
+    // Next passes the segment decoded once: the link /trucks/T%2541 arrives as "T%41"
+    const [a, b, c] = truckRows.slice(1, 4);
+    await k('trucks').where({ id: a.id }).update({ unitNumber: 'T%41' });
+    await k('trucks').where({ id: b.id }).update({ unitNumber: 'TA' });
+    await k('trucks').where({ id: c.id }).update({ unitNumber: '50%' });
+    try {
+      const truck = (truckId: string) => call(getTruck, { workspace: WS, id: String(caseId), truckId });
+      const pct = await truck('T%41');
+      expect(pct.status).toBe(200);
+      expect(pct.body.result.id).toBe('T%41');
+      expect((await truck('TA')).body.result.id).toBe('TA');
+      const fifty = await truck('50%');
+      expect(fifty.status).toBe(200);
+      expect(fifty.body.result.id).toBe('50%');
+      expect((await truck('%E0%A4%A')).status).toBe(404);
+      expect((await truck('T%')).status).toBe(404);
+      expect((await truck('x'.repeat(200))).status).toBe(404);
+    } finally {
+      for (const t of [a, b, c]) await k('trucks').where({ id: t.id }).update({ unitNumber: t.unitNumber });
+    }
+  });
+
   it('saves budgets with the version, answers 409 to a stale one, and plans within the budget', async () => {
     as('analyst');
     // one module costs about 2.5 M: a 1 M budget in year 0 leaves the truck due now out
@@ -177,6 +201,11 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
     expect(locked.status).toBe(409);
     expect(locked.body.error).toMatch(/only a draft/);
     await k('business_cases').where({ id: Number(id) }).update({ status: 'draft' });
+    for (const url of ['http://x/a', 'http://x/a?version=abc', 'http://x/a?version=2.5']) {
+      const r = await call(deleteCase, { workspace: WS, id }, { method: 'DELETE', url });
+      expect(r.status, url).toBe(422);
+      expect(r.body.problems.map((p: { path: string }) => p.path)).toEqual(['version']);
+    }
     expect((await call(deleteCase, { workspace: WS, id }, { method: 'DELETE', url: 'http://x/a?version=1' })).status).toBe(409);
     expect((await call(deleteCase, { workspace: WS, id }, { method: 'DELETE', url: 'http://x/a?version=2' })).status).toBe(204);
     expect((await call(getCase, { workspace: WS, id })).status).toBe(404);

@@ -178,6 +178,20 @@ describe.each([
       expect(await snapshotWorkspace(k, WS)).toEqual(before);
     });
 
+    it('refuses a delete without the version it was loaded at (422 with the path version), deleting nothing', async () => {
+      as('analyst');
+      const created = await call(e.list.POST, { workspace: WS }, { body: e.body(c, 6) });
+      const id = String(created.body.id);
+      const before = await snapshotWorkspace(k, WS);
+      for (const url of ['http://x/', 'http://x/?version=', 'http://x/?version=abc', 'http://x/?version=1.5', 'http://x/?version=-1', 'http://x/?version=0']) {
+        const r = await call(e.item.DELETE, { workspace: WS, id }, { method: 'DELETE', url });
+        expect(r.status, url).toBe(422);
+        expect(r.body.problems.map((p: { path: string }) => p.path)).toEqual(['version']);
+      }
+      expect(await snapshotWorkspace(k, WS)).toEqual(before);
+      expect((await call(e.item.DELETE, { workspace: WS, id }, { method: 'DELETE', url: 'http://x/?version=1' })).status).toBe(204);
+    });
+
     it("answers 404 for another workspace's id and for a malformed id, changing nothing there", async () => {
       const foreignId = String(await e.foreign(k, otherWsId));
       const theirs = await snapshotWorkspace(k, OTHER);
@@ -185,7 +199,7 @@ describe.each([
       as('analyst'); // a member of both sites: the id still does not belong to the one in the URL
       expect((await call(e.item.GET, { workspace: WS, id: foreignId })).status).toBe(404);
       expect((await call(e.item.PUT, { workspace: WS, id: foreignId }, { method: 'PUT', body: { ...e.body(c, 5), version: 1 } })).status).toBe(404);
-      expect((await call(e.item.DELETE, { workspace: WS, id: foreignId }, { method: 'DELETE' })).status).toBe(404);
+      expect((await call(e.item.DELETE, { workspace: WS, id: foreignId }, { method: 'DELETE', url: 'http://x/?version=1' })).status).toBe(404);
       expect((await call(e.item.GET, { workspace: WS, id: 'abc' })).status).toBe(404);
       expect((await call(e.item.GET, { workspace: OTHER, id: foreignId })).status).toBe(200);
       as('viewer'); // not a member of the other site at all
@@ -205,7 +219,8 @@ describe.each([
 
   it('refuses to delete an engine type that trucks use (409), and keeps it', async () => {
     as('admin');
-    const r = await call(engineRoute.DELETE, { workspace: WS, id: String(c.engineId) }, { method: 'DELETE' });
+    const version = (await k('engine_types').where({ id: c.engineId }).first('version')).version;
+    const r = await call(engineRoute.DELETE, { workspace: WS, id: String(c.engineId) }, { method: 'DELETE', url: `http://x/?version=${version}` });
     expect(r.status).toBe(409);
     expect(r.body.error).toMatch(/used by \d+ truck/);
     expect(await k('engine_types').where({ id: c.engineId }).first('id')).toBeTruthy();

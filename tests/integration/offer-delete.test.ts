@@ -102,7 +102,7 @@ describe.each([
     as('viewer');
     expect((await del(offer.id, offer.version)).status).toBe(403);
     signInAs(ids['admin@corrin.test']);
-    expect((await call(offerRoute.DELETE, { workspace: OTHER, id: String(offer.id) }, { method: 'DELETE' })).status).toBe(404);
+    expect((await call(offerRoute.DELETE, { workspace: OTHER, id: String(offer.id) }, { method: 'DELETE', url: `http://x/?version=${offer.version}` })).status).toBe(404);
     as('analyst');
     expect((await del(offer.id, offer.version + 1)).status).toBe(409);
     for (const key of keys) expect(fs.existsSync(stored(key)), 'a refused delete keeps the files').toBe(true);

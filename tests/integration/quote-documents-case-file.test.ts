@@ -51,6 +51,21 @@ describe.each([
     await destroy();
   });
 
+  it('stores a quote document name without its bidirectional and control characters', async () => {
+    as('analyst');
+    // shown as "quoteexe.pdf" if the override were kept
+    const r = await call(docs.POST, { workspace: WS, id: offerId }, { body: upload('quote\u202Efdp.exe', PDF) });
+    expect(r.status).toBe(201);
+    expect(r.body.fileName).toBe('quotefdp.exe');
+    expect((await k('quote_documents').where({ id: r.body.id }).first('fileName')).fileName).toBe('quotefdp.exe');
+    const dl = await call(doc.GET, { workspace: WS, id: offerId, docId: String(r.body.id) });
+    expect(dl.response.headers.get('content-disposition')).toBe(`attachment; filename="quotefdp.exe"; filename*=UTF-8''quotefdp.exe`);
+    const isolated = await call(docs.POST, { workspace: WS, id: offerId }, { body: upload('\u2067Kestrel\u2069 \u200Fquote\u0007.pdf', PDF) });
+    expect(isolated.body.fileName).toBe('Kestrel quote.pdf');
+    as('admin');
+    for (const id of [r.body.id, isolated.body.id]) expect((await call(doc.DELETE, { workspace: WS, id: offerId, docId: String(id) }, { method: 'DELETE' })).status).toBe(204);
+  });
+
   it('stores a PDF quote through the storage folder, lists it and lets members download it', async () => {
     as('analyst');
     const r = await call(docs.POST, { workspace: WS, id: offerId }, { body: upload('Kestrel quote 2026.pdf', PDF) });

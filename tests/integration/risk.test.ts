@@ -11,6 +11,7 @@ import { buildCaseFile } from '@/lib/db/queries/case-file';
 import { evaluateCase } from '@/lib/engine';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
 import { whenFinished } from '@/lib/risk/jobs';
+import { CANCELLED_NOT_RUNNING, failInterruptedRuns, INTERRUPTED_BY_RESTART } from '@/lib/risk/runs';
 import { GET as getDrivers } from '@/app/api/workspaces/[workspace]/cases/[id]/drivers/route';
 import { POST as postTornado } from '@/app/api/workspaces/[workspace]/cases/[id]/tornado/route';
 import { POST as postSpider } from '@/app/api/workspaces/[workspace]/cases/[id]/spider/route';
@@ -194,5 +195,40 @@ describe.each(backends)('risk endpoints on $name', ({ pg }) => {
     signInAs(ids['viewer@aldervane.test']);
     expect((await call(cancelRun, { ...params, job: runId }, { method: 'DELETE' })).status).toBe(403);
     expect((await call(getRun, { ...params, job: 'no-such-run' })).status).toBe(404);
+  });
+
+  describe('runs a restart interrupted', () => {
+    // what a server killed mid-run leaves behind: a row still running that no worker holds
+    const leftRunning = async (id: string) => {
+      const wsId = (await k('workspaces').where({ slug: WS }).first('id')).id;
+      await k('monte_carlo_runs').insert({ id, workspaceId: wsId, caseId, spec: JSON.stringify({ iterations: 1000, seed: 1 }), status: 'running', iterations: 1000, done: 120, createdBy: ids['analyst@aldervane.test'], createdAt: '2026-01-01T00:00:00.000Z' });
+    };
+
+    it('are marked failed, with the reason, when a server starts; finished runs are left as they were', async () => {
+      signInAs(ids['viewer@aldervane.test']);
+      await leftRunning('00000000-0000-4000-8000-000000000001');
+      const finishedBefore = await k('monte_carlo_runs').whereNot({ status: 'running' }).orderBy('id').select('id', 'status', 'finishedAt');
+      expect((await call(getRun, { ...params, job: '00000000-0000-4000-8000-000000000001' })).body.run.status).toBe('running');
+      expect(await failInterruptedRuns(k, '2026-01-02T00:00:00.000Z')).toBe(1);
+      const r = await call(getRun, { ...params, job: '00000000-0000-4000-8000-000000000001' });
+      expect(r.body.run).toMatchObject({ status: 'failed', error: INTERRUPTED_BY_RESTART, finishedAt: '2026-01-02T00:00:00.000Z', done: 120 });
+      expect(await k('monte_carlo_runs').whereNot({ status: 'running' }).whereNot({ id: '00000000-0000-4000-8000-000000000001' }).orderBy('id').select('id', 'status', 'finishedAt')).toEqual(finishedBefore);
+      expect(await failInterruptedRuns(k)).toBe(0);
+    });
+
+    it('can be cancelled on a server that does not hold them: marked cancelled with the reason, and audited', async () => {
+      signInAs(ids['analyst@aldervane.test']);
+      const id = '00000000-0000-4000-8000-000000000002';
+      await leftRunning(id);
+      const r = await call(cancelRun, { ...params, job: id }, { method: 'DELETE' });
+      expect(r.status).toBe(200);
+      expect(r.body.run).toMatchObject({ status: 'cancelled', error: CANCELLED_NOT_RUNNING });
+      const row = await k('monte_carlo_runs').where({ id }).first();
+      expect(row).toMatchObject({ status: 'cancelled', error: CANCELLED_NOT_RUNNING });
+      expect(row.finishedAt).toBeTruthy();
+      expect(await k('audit_log').where({ entity: 'monte_carlo_run', entityId: id, action: 'cancel' })).toHaveLength(1);
+      expect((await call(getRun, { ...params, job: id })).body.run.status).toBe('cancelled');
+      expect((await call(cancelRun, { ...params, job: id }, { method: 'DELETE' })).status).toBe(409);
+    });
   });
 });

@@ -23,8 +23,9 @@ export function InviteForm({ workspace }: { workspace: string }) {
   async function onSubmit(values: Values) {
     setMessage(null);
     try {
-      const r = await sendJson<{ email: string; mailed: boolean }>(`/api/workspaces/${workspace}/invitations`, 'POST', values);
-      setMessage({ kind: 'ok', text: r.mailed ? `Invitation sent to ${r.email}.` : `Invitation saved, but the mail to ${r.email} could not be sent.` });
+      // the mail is in the outbox with the invitation; the sender delivers (and retries) it after the commit
+      const r = await sendJson<{ email: string; mailQueued: boolean }>(`/api/workspaces/${workspace}/invitations`, 'POST', values);
+      setMessage({ kind: 'ok', text: `Invitation sent to ${r.email}.` });
       reset({ email: '', role: values.role });
       router.refresh();
     } catch (e) {

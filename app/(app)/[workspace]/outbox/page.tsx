@@ -5,7 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { hasRole } from '@/lib/auth/access';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
-import { fetchOutbox, outboxEnabled } from '@/lib/mail/outbox';
+import { fetchOutbox, fetchOutboxQueue, outboxEnabled, type QueuedMessage } from '@/lib/mail/outbox';
 
 export const metadata: Metadata = { title: 'Outbox' };
 
@@ -14,10 +14,12 @@ export default async function OutboxPage({ params }: { params: Promise<{ workspa
   const { workspace } = await params;
   const access = await getPageAccess(workspace);
   if (!hasRole(access, CAN.administer)) return <AccessDenied need={CAN.administer} have={access.role} />;
+  const queued = await fetchOutboxQueue(access.workspace.slug);
   if (!outboxEnabled()) {
     return (
       <>
         <PageHeader title="Outbox" />
+        <QueuedMail messages={queued} />
         <EmptyState title="Mail goes to a real SMTP server">SMTP_HOST is configured, so messages are delivered to real mailboxes and there is no local outbox to show.</EmptyState>
       </>
     );
@@ -26,6 +28,7 @@ export default async function OutboxPage({ params }: { params: Promise<{ workspa
   return (
     <>
       <PageHeader title="Outbox" subtitle="Mail received by the local SMTP sink (no SMTP_HOST is configured, so nothing leaves this machine)." />
+      <QueuedMail messages={queued} />
       {messages.length === 0 ? (
         <EmptyState title="No mail yet">Submitting a case, deciding on one, inviting someone or asking for a password reset sends mail; it lands here.</EmptyState>
       ) : (
@@ -50,6 +53,35 @@ export default async function OutboxPage({ params }: { params: Promise<{ workspa
         </ul>
       )}
     </>
+  );
+}
+
+const QUEUE_STATUS: Record<QueuedMessage['status'], string> = { pending: 'Waiting', sending: 'Sending', failed: 'Not sent' };
+
+/** This workspace's mail not sent yet (waiting for its next attempt) or given up after the last one. */
+function QueuedMail({ messages }: { messages: QueuedMessage[] }) {
+  if (messages.length === 0) return null;
+  return (
+    <section className="card mb-4" data-testid="outbox-queue">
+      <h2 className="border-b border-rule px-3 py-2 text-sm font-semibold">Not sent yet</h2>
+      <table className="data-table">
+        <thead>
+          <tr><th>Subject</th><th>To</th><th>Status</th><th className="text-right">Attempts</th><th>Next attempt (UTC)</th><th>Last error</th></tr>
+        </thead>
+        <tbody>
+          {messages.map((m) => (
+            <tr key={m.id}>
+              <td>{m.subject}</td>
+              <td className="font-mono text-xs">{m.to.join(', ')}</td>
+              <td>{QUEUE_STATUS[m.status]}</td>
+              <td className="text-right tabular-nums">{m.attempts}</td>
+              <td className="tabular-nums">{m.status === 'failed' ? '—' : m.nextAttemptAt.slice(0, 19).replace('T', ' ')}</td>
+              <td className="text-xs text-muted">{m.lastError ?? ''}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </section>
   );
 }
 

@@ -1,5 +1,5 @@
 import { NextResponse } from 'next/server';
-import { z } from 'zod';
+import { versionFromQuery } from '@/lib/api/crud';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { toSummaryDto } from '@/lib/cases/evaluate';
@@ -28,14 +28,11 @@ export const PATCH = route<P>(async (req, { params }) => {
   return NextResponse.json({ case: toSummaryDto(await updateCase(access, caseId, input)) });
 });
 
-const versionQuery = z.object({ version: z.coerce.number({ error: 'must be a number' }).int().positive('must be the version you loaded') });
-
 /** DELETE ?version=N: removes a draft case. */
 export const DELETE = route<P>(async (req, { params }) => {
   const { workspace, id } = await params;
   const access = await requireMember(workspace, CAN.edit);
   const caseId = parseCaseId(id);
-  const { version } = parseOr422(versionQuery, { version: new URL(req.url).searchParams.get('version') ?? undefined });
-  await deleteCase(access, caseId, version);
+  await deleteCase(access, caseId, versionFromQuery(req));
   return new NextResponse(null, { status: 204 });
 });

@@ -5,6 +5,7 @@ import { TruckView } from '@/components/cases/truck-view';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
+import { truckIdFromPageSegment } from '@/lib/cases/params';
 import { fetchCase } from '@/lib/db/queries/cases';
 
 export const metadata: Metadata = { title: 'Truck in case' };
@@ -13,8 +14,9 @@ export default async function TruckPage({ params }: { params: Promise<{ workspac
   const { workspace, id, truckId } = await params;
   const access = await getPageAccess(workspace);
   const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
-  if (!c) notFound();
-  const unit = decodeURIComponent(truckId);
+  // the segment as the link encoded it, decoded once here (a malformed one is a 404)
+  const unit = truckIdFromPageSegment(truckId);
+  if (!c || unit === null) notFound();
   return (
     <>
       <PageHeader title={`Truck ${unit}`} subtitle={`In “${c.name}”: cash flows by year and category, engine events, and the case for repowering.`} />
