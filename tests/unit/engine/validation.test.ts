@@ -149,7 +149,7 @@ describe('CLI: npm run evaluate', () => {
     const lines = out.stderr.trim().split('\n');
     expect(lines.length).toBeGreaterThanOrEqual(12);
     for (const line of lines) expect(line).toMatch(/^[A-Za-z()[\].\d]+: .+/);
-    expect(lines).toContain('trucks[1].annualHours: must be greater than 0');
+    expect(lines).toContain('trucks[1].annualHours: must be at least 1 hour');
   });
 
   it('exits 2 for a file that is not JSON or cannot be read', () => {
