@@ -5,6 +5,9 @@
  */
 import { z } from 'zod';
 
+/** Largest budget for one year of the capital plan. */
+export const MAX_BUDGET = 1e12;
+
 const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
 
 export const caseNameSchema = z.string().trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
@@ -18,7 +21,8 @@ export const planSettingsSchema = z.strictObject({
   /** budget per year (the period of the spend, "0" = now); absent or null = no limit */
   budgets: z.record(
     z.string().regex(/^\d{1,3}$/, 'year must be a whole number 0–999'),
-    z.number({ error: 'must be a number' }).min(0, 'must not be negative').nullable(),
+    // a year's budget for the whole fleet: up to 100 × the largest single amount a case accepts (1e10)
+    z.number({ error: 'must be a number' }).min(0, 'must not be negative').max(MAX_BUDGET, 'must be at most 1,000,000,000,000').nullable(),
   ),
   swapsPerMonth: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(100, 'must be at most 100'),
   /** the plan's month 0, "YYYY-MM" */
