@@ -4,13 +4,15 @@
  * the capital-plan settings. One schema per shape, shared by forms and handlers.
  */
 import { z } from 'zod';
+import { plainText } from './fleet';
 
 /** Largest budget for one year of the capital plan. */
 export const MAX_BUDGET = 1e12;
 
 const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
 
-export const caseNameSchema = z.string().trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
+/** The register's text rule (no leading =, +, - or @: a spreadsheet would read a formula), as every stored name. */
+export const caseNameSchema = plainText(200).pipe(z.string().min(1, 'must not be empty'));
 
 export const selectionSchema = z
   .array(z.strictObject({ truckId: id, repowerOfferId: id.nullable() }))
