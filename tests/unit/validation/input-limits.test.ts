@@ -10,7 +10,7 @@
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { validateCase } from '@/lib/validation/case';
+import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema, validateCase } from '@/lib/validation/case';
 import { assumptionSetInputSchema, engineInputSchema, offerInputSchema, truckInputSchema } from '@/lib/validation/fleet';
 import { planSettingsSchema } from '@/lib/validation/business-case';
 import { monteCarloRequestSchema } from '@/lib/validation/risk';
@@ -128,5 +128,14 @@ describe('issue 12: the values that killed the server are refused with their pat
       }
     }
     expect(monteCarloRequestSchema.safeParse({ iterations: 10, seed: 2 ** 31 }).success).toBe(false);
+  });
+
+  it('docs/methodology.md lists the range of every number of the case file under "Input limits"', () => {
+    const doc = readFileSync(path.join(root, 'docs/methodology.md'), 'utf8');
+    const section = doc.slice(doc.indexOf('## Input limits'), doc.indexOf('\n## ', doc.indexOf('## Input limits') + 3));
+    const numeric = (shape: Record<string, unknown>) => Object.keys(shape).filter((k) => !['id', 'engineId', 'repowerOfferId', 'timing', 'depreciation', 'rebuildAccounting'].includes(k));
+    const fields = [engineSchema, repowerOfferSchema, truckSchema, assumptionsSchema].flatMap((s) => numeric(s.shape));
+    expect(fields.length).toBeGreaterThan(35);
+    for (const f of fields) expect(section, f).toContain(`\`${f}\``);
   });
 });
