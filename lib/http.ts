@@ -1,5 +1,7 @@
 import { NextResponse } from 'next/server';
 import { z } from 'zod';
+import { EventLimitError } from '@/lib/engine/limits';
+import { CaseValidationError } from '@/lib/validation/case';
 
 export type Problem = { path: string; message: string };
 
@@ -48,6 +50,13 @@ export async function readJson(request: Request): Promise<unknown> {
 export function errorResponse(err: unknown): NextResponse {
   if (err instanceof HttpError) {
     return NextResponse.json({ error: err.message, ...(err.problems ? { problems: err.problems } : {}) }, { status: err.status });
+  }
+  // the engine refusing a case (a run that would not end, or a case that does not validate) is the caller's input
+  if (err instanceof EventLimitError) {
+    return NextResponse.json({ error: 'This case cannot be evaluated.', problems: [{ path: `truck ${err.truckId}`, message: err.message }] }, { status: 422 });
+  }
+  if (err instanceof CaseValidationError) {
+    return NextResponse.json({ error: 'This case cannot be evaluated.', problems: err.problems }, { status: 422 });
   }
   if (err instanceof z.ZodError) {
     return NextResponse.json({ error: 'Some values are not valid.', problems: zodProblems(err) }, { status: 422 });

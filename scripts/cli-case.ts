@@ -3,6 +3,7 @@
  * one with one `path: reason` line per problem on stderr and exit code 2.
  */
 import { readFileSync } from 'node:fs';
+import { EventLimitError } from '../lib/engine/limits';
 import { validateCase, type CaseFile } from '../lib/validation/case';
 
 export function fail(lines: string[]): never {
@@ -11,6 +12,15 @@ export function fail(lines: string[]): never {
 }
 
 const reason = (err: unknown) => (err as NodeJS.ErrnoException).code ?? (err as Error).message;
+
+/**
+ * The text of a JSON file without a leading UTF-8 byte-order mark (U+FEFF),
+ * which some editors write and JSON.parse refuses; the upload route accepts
+ * one too (a request body's JSON is decoded without it).
+ */
+export function stripUtf8Bom(text: string): string {
+  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+}
 
 /** The validated case in `file`, or exit 2 saying what is wrong and where. */
 export function readCaseFileOrExit(file: string): CaseFile {
@@ -22,7 +32,7 @@ export function readCaseFileOrExit(file: string): CaseFile {
   }
   let input: unknown;
   try {
-    input = JSON.parse(text);
+    input = JSON.parse(stripUtf8Bom(text));
   } catch (err) {
     fail([`${file}: not valid JSON (${(err as Error).message})`]);
   }
@@ -36,5 +46,18 @@ export function writeFileOrExit(out: string, write: () => void): void {
     write();
   } catch (err) {
     fail([`${out}: cannot write the file (${reason(err)})`]);
+  }
+}
+
+/**
+ * The engine's answer, or exit 2 with its message when it refuses the case
+ * (a run that would book more events than the engine's cap, see lib/engine/limits.ts).
+ */
+export async function evaluateOrExit<T>(evaluate: () => T | Promise<T>): Promise<T> {
+  try {
+    return await evaluate();
+  } catch (err) {
+    if (err instanceof EventLimitError) fail([`trucks (truck ${err.truckId}): ${err.message}`]);
+    throw err;
   }
 }

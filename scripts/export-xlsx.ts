@@ -6,12 +6,13 @@
  */
 import { writeFileSync } from 'node:fs';
 import { writeCaseWorkbook } from '../lib/export/workbook';
-import { fail, readCaseFileOrExit, writeFileOrExit } from './cli-case';
+import { evaluateOrExit, fail, readCaseFileOrExit, writeFileOrExit } from './cli-case';
 
 async function main(): Promise<void> {
   const [file, out] = process.argv.slice(2);
   if (!file || !out) fail(['(arguments): usage: npm run --silent export:xlsx -- <path/to/case.json> <out.xlsx>']);
-  const buffer = await writeCaseWorkbook(readCaseFileOrExit(file));
+  const checked = readCaseFileOrExit(file);
+  const buffer = await evaluateOrExit(() => writeCaseWorkbook(checked));
   writeFileOrExit(out, () => writeFileSync(out, buffer));
 }
 

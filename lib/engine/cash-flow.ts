@@ -4,7 +4,7 @@
  * per-period breakdown by category that adds up to each CF_y.
  */
 import { co2Tonnes } from './fuel';
-import { depreciationSchedule, isDepreciatedSpend, placeSchedule } from './depreciation';
+import { addSpendInto, depreciationSchedule, isDepreciatedSpend } from './depreciation';
 import type { PolicyRun } from './simulate';
 import type { TruckSetup } from './setup';
 import { EVENT_CODE, type BreakdownEntry, type DepreciatedSpend, type PeriodDetail, type PolicyDetail, type ResidualDetail } from './types';
@@ -64,9 +64,11 @@ export function depreciatedSpends(setup: TruckSetup, run: PolicyRun): Depreciate
     const cost = log.cost[i];
     const period = log.period[i];
     if (!isDepreciated(log.kind[i], cost, expense)) continue;
-    const schedule = depreciationSchedule(cost, a.depreciation); // empty under "none": no relief, no write-off
-    const placed = placeSchedule(schedule, period, n);
-    spends.push({ period, category: CATEGORY_BY_CODE[log.kind[i]], amount: cost, schedule, byPeriod: placed.byPeriod, writeOff: placed.writeOff });
+    // only the entries within the horizon (empty under "none": no relief, no write-off); the rest is the write-off
+    const schedule = depreciationSchedule(cost, a.depreciation, n - Math.max(period, 1) + 1);
+    const byPeriod = new Array<number>(n + 1).fill(0);
+    const writeOff = addSpendInto(cost, a.depreciation, period, n, byPeriod);
+    spends.push({ period, category: CATEGORY_BY_CODE[log.kind[i]], amount: cost, schedule, byPeriod, writeOff });
   }
   return spends;
 }

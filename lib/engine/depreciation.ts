@@ -68,13 +68,13 @@ export function scheduleLength(method: Depreciation): number {
 }
 
 /**
- * The schedule D_1, D_2, … of `amount` written into `out` (at least
- * `scheduleLength(method)` long); returns its length. The one place the
- * methods' formulas live: `depreciationSchedule` copies from it, and the
- * lean NPV path calls it with a reused buffer.
+ * The schedule D_1, D_2, … of `amount` written into `out`: its first `limit`
+ * entries at most (all of them by default); returns how many were written.
+ * The one place the methods' formulas live: `depreciationSchedule` copies
+ * from it and `addSpendInto` places its entries within the horizon.
  */
-export function scheduleInto(amount: number, method: Depreciation, out: { [j: number]: number }): number {
-  const length = scheduleLength(method);
+export function scheduleInto(amount: number, method: Depreciation, out: { [j: number]: number }, limit = Number.POSITIVE_INFINITY): number {
+  const length = Math.max(0, Math.min(scheduleLength(method), limit));
   switch (method.method) {
     case 'none':
       break;
@@ -85,7 +85,7 @@ export function scheduleInto(amount: number, method: Depreciation, out: { [j: nu
       const years = method.years;
       const factor = method.factor ?? 2;
       let basis = amount;
-      for (let j = 1; j <= years; j++) {
+      for (let j = 1; j <= length; j++) {
         const d = Math.max((basis * factor) / years, basis / (years - j + 1));
         out[j - 1] = d;
         basis -= d;
@@ -102,14 +102,68 @@ export function scheduleInto(amount: number, method: Depreciation, out: { [j: nu
 }
 
 /**
- * Schedule of `amount` under a case's depreciation method. `none` gives an
- * empty schedule: no depreciation and no write-off.
+ * A spend of `amount` in period s depreciated onto a horizon of N years:
+ * D_j is added to `byPeriod[max(s,1) + j − 1]` for the years up to N, and the
+ * basis not yet depreciated by the end of year N is returned as the write-off
+ * (MODEL.md section 6). Only the entries that fall within the horizon are
+ * computed: the work and memory are O(N) whatever the tax life, so a
+ * schedule longer than the horizon is never built. The write-off is
+ * (n − k)·amount/n under straight line, the basis B_k left after the k
+ * entries placed under declining balance (what the later entries add up to),
+ * and the sum of the later table entries under MACRS (at most 21).
+ *
+ * @example addSpendInto(1000, { method: 'straight-line', years: 4 }, 0, 2, [0, 0, 0]) // = 500 (250 in years 1 and 2)
+ */
+export function addSpendInto(
+  amount: number,
+  method: Depreciation,
+  spendPeriod: number,
+  horizonYears: number,
+  byPeriod: { [y: number]: number },
+): number {
+  if (method.method === 'none') return 0;
+  const first = Math.max(spendPeriod, 1);
+  const length = scheduleLength(method);
+  const placed = Math.max(0, Math.min(length, horizonYears - first + 1));
+  switch (method.method) {
+    case 'straight-line': {
+      const d = amount / method.years;
+      for (let j = 0; j < placed; j++) byPeriod[first + j] += d;
+      return (length - placed) * d;
+    }
+    case 'declining-balance': {
+      const years = method.years;
+      const factor = method.factor ?? 2;
+      let basis = amount;
+      for (let j = 1; j <= placed; j++) {
+        const d = Math.max((basis * factor) / years, basis / (years - j + 1));
+        byPeriod[first + j - 1] += d;
+        basis -= d;
+      }
+      return placed === length ? 0 : basis;
+    }
+    case 'macrs': {
+      const table = MACRS_HALF_YEAR_PERCENT[method.years as 3 | 5 | 7 | 10 | 15 | 20];
+      let writeOff = 0;
+      for (let j = 0; j < length; j++) {
+        const d = (amount * table[j]) / 100;
+        if (j < placed) byPeriod[first + j] += d;
+        else writeOff += d;
+      }
+      return writeOff;
+    }
+  }
+}
+
+/**
+ * Schedule of `amount` under a case's depreciation method (its first `limit`
+ * entries when given). `none` gives an empty schedule: no depreciation and no write-off.
  *
  * @example depreciationSchedule(1000, { method: 'straight-line', years: 2 }) // = [500, 500]
  */
-export function depreciationSchedule(amount: number, method: Depreciation): number[] {
-  const out = new Array<number>(scheduleLength(method));
-  scheduleInto(amount, method, out);
+export function depreciationSchedule(amount: number, method: Depreciation, limit = Number.POSITIVE_INFINITY): number[] {
+  const out = new Array<number>(Math.max(0, Math.min(scheduleLength(method), limit)));
+  scheduleInto(amount, method, out, limit);
   return out;
 }
 

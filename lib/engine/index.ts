@@ -27,6 +27,7 @@ export {
   decliningBalanceSchedule,
   depreciationSchedule,
   placeSchedule,
+  addSpendInto,
 } from './depreciation';
 export { powerDemandKw, modelledBurnLitresPerHour, calibrationFactor, co2Tonnes } from './fuel';
 export {
@@ -41,6 +42,7 @@ export {
   weibullAgeFromExponential,
 } from './reliability';
 export { horizonYears, priceIndex } from './setup';
+export { EventLimitError, MAX_EVENTS_PER_RUN } from './limits';
 export { countOilServices } from './simulate';
 export { npvFromTotals, residualCredit } from './cash-flow';
 export { bestPolicy, bestPolicyIndex, comparePolicies } from './results';

@@ -9,7 +9,8 @@
  */
 import type { Engine } from '@/lib/validation/case';
 import { npvFromTotals, residualCredit, type DiscountedTotals } from './cash-flow';
-import { addScheduleInto, isDepreciatedSpend, scheduleInto, scheduleLength } from './depreciation';
+import { addSpendInto, isDepreciatedSpend } from './depreciation';
+import { EventLimitError, MAX_EVENTS_PER_RUN } from './limits';
 import { medianFailureAge } from './reliability';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
@@ -254,6 +255,8 @@ function bookEvent(st: RunState, code: number, y: number): void {
     p.lostMargin += lost;
     p.downtimeDays += days;
   }
+  // the guard against a run that would not end (a life of a few hours): see limits.ts
+  if (st.log.count >= MAX_EVENTS_PER_RUN) throw new EventLimitError(truck.id, st.policy);
   if (isDepreciatedSpend(code === REPOWER, cost, setup.a.rebuildAccounting === 'expense')) depreciateSpend(st, cost, y);
   logEvent(st.log, y, code, cost);
   if (st.trace) {
@@ -303,8 +306,6 @@ function pushSegment(
   });
 }
 
-let scheduleBuffer = new Float64Array(32);
-
 function emptyTotals(): DiscountedTotals {
   return { energy: 0, lube: 0, lostMargin: 0, overhauls: 0, failures: 0, capital: 0, extraMargin: 0, depreciation: 0, writeOff: 0 };
 }
@@ -317,7 +318,7 @@ function clearTotals(d: DiscountedTotals): void {
 /**
  * A depreciated spend booked in period s: its schedule added to the run's
  * depreciation by year (D_j in year max(s, 1) + j − 1, MODEL.md section 6,
- * placed by `addScheduleInto`) and what falls after year N to the write-off.
+ * placed by `addSpendInto`) and what falls after year N to the write-off.
  */
 function depreciateSpend(st: RunState, cost: number, period: number): void {
   const { setup } = st;
@@ -325,12 +326,7 @@ function depreciateSpend(st: RunState, cost: number, period: number): void {
     for (let y = 0; y <= setup.n; y++) st.depreciation[y] = 0;
     st.depreciated = true;
   }
-  const method = setup.a.depreciation;
-  const length = scheduleLength(method);
-  if (scheduleBuffer.length < length) scheduleBuffer = new Float64Array(length);
-  const schedule = scheduleBuffer; // used up before this returns: one buffer serves every run of the thread
-  scheduleInto(cost, method, schedule);
-  st.d.writeOff += addScheduleInto(schedule, period, setup.n, st.depreciation, length);
+  st.d.writeOff += addSpendInto(cost, setup.a.depreciation, period, setup.n, st.depreciation);
 }
 
 // what a run without trace shows as its segments and event records (never pushed to: pushes need `trace`)

@@ -182,7 +182,7 @@ export interface DepreciatedSpend {
   period: number;
   category: 'capital' | 'overhauls' | 'failures';
   amount: number;
-  /** D_1, D_2, … of the method */
+  /** D_1, D_2, … of the method that fall within the horizon (years up to N; the rest is `writeOff`) */
   schedule: number[];
   /** depreciation by period 0..N (write-off excluded) */
   byPeriod: number[];

@@ -4,11 +4,15 @@
  * the capital-plan settings. One schema per shape, shared by forms and handlers.
  */
 import { z } from 'zod';
-import { stripControlCharacters } from './control-characters';
+import { plainText } from './fleet';
+
+/** Largest budget for one year of the capital plan. */
+export const MAX_BUDGET = 1e12;
 
 const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
 
-export const caseNameSchema = z.string().overwrite(stripControlCharacters).trim().min(1, 'must not be empty').max(200, 'must be at most 200 characters');
+/** The register's text rule (no leading =, +, - or @: a spreadsheet would read a formula), as every stored name. */
+export const caseNameSchema = plainText(200).pipe(z.string().min(1, 'must not be empty'));
 
 export const selectionSchema = z
   .array(z.strictObject({ truckId: id, repowerOfferId: id.nullable() }))
@@ -19,7 +23,8 @@ export const planSettingsSchema = z.strictObject({
   /** budget per year (the period of the spend, "0" = now); absent or null = no limit */
   budgets: z.record(
     z.string().regex(/^\d{1,3}$/, 'year must be a whole number 0–999'),
-    z.number({ error: 'must be a number' }).min(0, 'must not be negative').nullable(),
+    // a year's budget for the whole fleet: up to 100 × the largest single amount a case accepts (1e10)
+    z.number({ error: 'must be a number' }).min(0, 'must not be negative').max(MAX_BUDGET, 'must be at most 1,000,000,000,000').nullable(),
   ),
   swapsPerMonth: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(100, 'must be at most 100'),
   /** the plan's month 0, "YYYY-MM" */

@@ -134,15 +134,32 @@ export function crossFieldProblems(input: unknown, maxHorizonYears: number): Cas
       }
     }
   });
+  // declining balance: D_1 = B·factor/n must not exceed the basis, so factor ≤ n
+  const dep = fieldOf(fieldOf(input, 'assumptions'), 'depreciation');
+  const factor = fieldOf(dep, 'factor');
+  const depYears = fieldOf(dep, 'years');
+  if (fieldOf(dep, 'method') === 'declining-balance' && typeof depYears === 'number' && depYears >= 1) {
+    const f = factor === undefined ? 2 : factor;
+    if (typeof f === 'number' && f > depYears) {
+      problems.push({
+        path: 'assumptions.depreciation.factor',
+        message: `must be at most the ${depYears} depreciation years (factor ${f} would write off more than the spend in the first year)${factor === undefined ? '; it defaults to 2' : ''}`,
+      });
+    }
+  }
   const cap = fieldOf(fieldOf(input, 'assumptions'), 'horizonYears');
   trucks.forEach((truck, i) => {
     const life = fieldOf(truck, 'remainingLifeHours');
     const annual = fieldOf(truck, 'annualHours');
     if (cap == null && typeof life === 'number' && typeof annual === 'number' && life > 0 && annual > 0) {
-      if (life / annual > maxHorizonYears) {
+      // N = ceil(life / annual) (rounding as setup.horizonYears does): refused above the cap,
+      // also when annual hours are tiny and N would be millions of years
+      const years = life / annual;
+      if (!(years <= maxHorizonYears)) {
+        const shown = Number.isFinite(years) ? Math.ceil(years).toLocaleString('en-US') : 'too many';
         problems.push({
           path: `trucks[${i}].remainingLifeHours`,
-          message: `gives more than ${maxHorizonYears} years at the truck's annual hours; set assumptions.horizonYears`,
+          message: `gives ${shown} years at ${annual} hours a year, more than the ${maxHorizonYears} years allowed; lower it, raise annualHours or set assumptions.horizonYears`,
         });
       }
     }

@@ -12,16 +12,65 @@ export { formatPath, type CaseProblem } from './case-checks';
 
 // ---------------------------------------------------------------- number kinds
 
-/** A cost, price, amount or count that may be zero but not negative. */
-const nonNegative = () => z.number().min(0, 'must not be negative');
-/** A quantity that must be above zero (life, interval, Weibull parameters, hours, kW …). */
-const positive = () => z.number().gt(0, 'must be greater than 0');
-/** A growth rate: prices must stay positive, so above −100 %. */
-const growthRate = () => z.number().gt(-1, 'must be greater than -1 (-100 %)');
+/**
+ * Every number of a case has a finite range (docs/methodology.md, "Input
+ * limits", gives each with its reason). The ranges are generous for any real
+ * haul truck and engine, and they bound the engine's work: at most 100 years,
+ * at most 500,000 h a truck, an event no more often than every ~240 h.
+ */
+const fmt = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 6 });
+const unitText = (unit: string) => (unit ? ` ${unit}` : '');
+/** A number in [min, max] (or (min, max] when `above`), with the range in the message. */
+export const ranged = (min: number, max: number, unit = '', above = false) => {
+  const n = z.number('must be a finite number');
+  const low = above
+    ? n.gt(min, `must be greater than ${fmt(min)}${unitText(unit)}`)
+    : n.min(min, min === 0 ? 'must not be negative' : `must be at least ${fmt(min)}${unitText(unit)}`);
+  return low.max(max, `must be at most ${fmt(max)}${unitText(unit)}`);
+};
+
+/**
+ * Largest money amount: 10 billion per amount (a module, an overhaul, a
+ * price). Sums of thousands of such amounts stay far below 2^53, so the totals
+ * are finite and exact to the cent in double precision.
+ */
+export const MAX_MONEY = 1e10;
+/** Most days down for one event: a year. */
+export const MAX_DAYS_DOWN = 365;
+/** A money amount in the case's currency, 0 to MAX_MONEY. */
+const money = () => ranged(0, MAX_MONEY);
+/** Days down for one event, 0 to a year. */
+const daysDown = () => ranged(0, MAX_DAYS_DOWN, 'days');
+/** A growth rate: prices must stay positive; a fall of half or a doubling a year is the widest we accept. */
+const growthRate = () =>
+  z.number('must be a finite number').gt(-0.5, 'must be greater than -0.5 (-50 % a year)').max(1, 'must be at most 1 (+100 % a year)');
 
 export const MACRS_YEARS = [3, 5, 7, 10, 15, 20] as const;
 /** Longest horizon the engine accepts (our choice: keeps (1+i)^N finite on the IRR grid). */
 export const MAX_HORIZON_YEARS = 100;
+/** Longest tax life of a depreciation schedule, in years. */
+export const MAX_DEPRECIATION_YEARS = 100;
+/** Largest declining-balance factor (10: a thousand per cent declining balance). */
+export const MAX_DECLINING_FACTOR = 10;
+
+/** Engine and truck ranges that the engine (and the expected valuation) rely on. */
+export const LIMITS = {
+  weibullShape: { min: 0.5, max: 20 },
+  weibullScaleHours: { min: 500, max: 1_000_000 },
+  lifeHours: { min: 500, max: 200_000 },
+  serviceIntervalHours: { min: 10, max: 100_000 },
+  engineHours: { min: 0, max: 1_000_000 },
+  /** above 0 */
+  remainingLifeHours: { min: 0, max: 500_000 },
+  annualHours: { min: 1, max: 8784 },
+} as const;
+
+const depYears = () =>
+  z
+    .number('must be a finite number')
+    .int('must be a whole number of years')
+    .min(1, 'must be at least 1')
+    .max(MAX_DEPRECIATION_YEARS, `must be at most ${MAX_DEPRECIATION_YEARS} years`);
 
 // ---------------------------------------------------------------- depreciation
 
@@ -29,16 +78,16 @@ export const depreciationSchema = z.discriminatedUnion('method', [
   z.strictObject({
     method: z.literal('none'),
     // tolerated so a form can keep the years it showed before the switch; ignored
-    years: z.number().int('must be a whole number of years').min(1, 'must be at least 1').optional(),
+    years: depYears().optional(),
   }),
   z.strictObject({
     method: z.literal('straight-line'),
-    years: z.number().int('must be a whole number of years').min(1, 'must be at least 1'),
+    years: depYears(),
   }),
   z.strictObject({
     method: z.literal('declining-balance'),
-    years: z.number().int('must be a whole number of years').min(1, 'must be at least 1'),
-    factor: positive().default(2),
+    years: depYears(),
+    factor: ranged(0, MAX_DECLINING_FACTOR, '', true).default(2),
   }),
   z.strictObject({
     method: z.literal('macrs'),
@@ -52,58 +101,60 @@ export const depreciationSchema = z.discriminatedUnion('method', [
 
 export const assumptionsSchema = z.strictObject({
   discountRate: z
-    .number()
+    .number('must be a finite number')
     .gt(-0.99, 'must be greater than -0.99 (-99 %)')
     .max(1, 'must be at most 1 (100 %)'),
   timing: z.enum(['end-of-year', 'mid-year']).default('end-of-year'),
   horizonYears: z
-    .number()
+    .number('must be a finite number')
     .int('must be a whole number of years')
     .min(1, 'must be at least 1')
-    .max(MAX_HORIZON_YEARS, `must be at most ${MAX_HORIZON_YEARS}`)
+    .max(MAX_HORIZON_YEARS, `must be at most ${MAX_HORIZON_YEARS} years`)
     .nullable()
     .default(null),
   inflation: growthRate(),
-  fuelPrice: nonNegative(),
+  fuelPrice: money(),
   fuelEscalation: growthRate(),
-  fuelDensityKgPerL: positive(),
-  co2KgPerLitre: nonNegative(),
-  lubePrice: nonNegative(),
-  labourRate: nonNegative(),
-  carbonPrice: nonNegative(),
+  fuelDensityKgPerL: ranged(0.3, 1.5, 'kg/L'),
+  co2KgPerLitre: ranged(0, 10, 'kg/L'),
+  lubePrice: money(),
+  labourRate: money(),
+  carbonPrice: money(),
   carbonEscalation: growthRate(),
-  marginPerTonne: nonNegative(),
-  taxRate: z.number().min(0, 'must be at least 0').lt(1, 'must be below 1 (100 %)'),
+  marginPerTonne: money(),
+  taxRate: z.number('must be a finite number').min(0, 'must be at least 0').lt(1, 'must be below 1 (100 %)'),
   depreciation: depreciationSchema,
   rebuildAccounting: z.enum(['expense', 'capitalise']).default('expense'),
 });
 
+const hours = (key: keyof typeof LIMITS) => ranged(LIMITS[key].min, LIMITS[key].max, 'hours');
+
 export const engineSchema = z.strictObject({
   id: z.string().min(1, 'must not be empty'),
-  ratedKw: positive(),
-  bsfcGPerKwh: positive(),
-  lifeHours: positive(),
-  weibullShape: positive(),
-  weibullScaleHours: positive(),
-  overhaulCost: nonNegative(),
-  overhaulDowntimeDays: nonNegative(),
-  failureCost: nonNegative(),
-  failureDowntimeDays: nonNegative(),
-  serviceIntervalHours: positive(),
-  sumpLitres: nonNegative(),
-  serviceKitCost: nonNegative(),
-  serviceLabourHours: nonNegative(),
-  topUpLitresPerHour: nonNegative(),
+  ratedKw: ranged(1, 10_000, 'kW'),
+  bsfcGPerKwh: ranged(50, 1000, 'g/kWh'),
+  lifeHours: hours('lifeHours'),
+  weibullShape: ranged(LIMITS.weibullShape.min, LIMITS.weibullShape.max),
+  weibullScaleHours: hours('weibullScaleHours'),
+  overhaulCost: money(),
+  overhaulDowntimeDays: daysDown(),
+  failureCost: money(),
+  failureDowntimeDays: daysDown(),
+  serviceIntervalHours: hours('serviceIntervalHours'),
+  sumpLitres: ranged(0, 10_000, 'litres'),
+  serviceKitCost: money(),
+  serviceLabourHours: ranged(0, 1000, 'hours'),
+  topUpLitresPerHour: ranged(0, 100, 'litres per hour'),
 });
 
 export const repowerOfferSchema = z.strictObject({
   id: z.string().min(1, 'must not be empty'),
   engineId: z.string().min(1, 'must not be empty'),
-  modulePrice: nonNegative(),
-  installCost: nonNegative(),
-  coreCredit: nonNegative(),
-  downtimeDays: nonNegative(),
-  productivityGain: nonNegative().default(0),
+  modulePrice: money(),
+  installCost: money(),
+  coreCredit: money(),
+  downtimeDays: daysDown(),
+  productivityGain: ranged(0, 1, '(+100 %)').default(0),
   timing: z.enum(['at-overhaul', 'now']).default('at-overhaul'),
 });
 
@@ -111,12 +162,15 @@ export const truckSchema = z.strictObject({
   id: z.string().min(1, 'must not be empty'),
   engineId: z.string().min(1, 'must not be empty'),
   repowerOfferId: z.string().min(1, 'must not be empty'),
-  engineHours: nonNegative(),
-  remainingLifeHours: positive(),
-  annualHours: positive().max(8784, 'must be at most 8784 (the hours in a leap year)'),
-  loadFactor: positive().max(1, 'must be at most 1 (a fraction of rated power)'),
-  tonnesPerHour: positive(),
-  fuelBurnLitresPerHour: positive().nullable().default(null),
+  engineHours: hours('engineHours'),
+  remainingLifeHours: ranged(LIMITS.remainingLifeHours.min, LIMITS.remainingLifeHours.max, 'hours', true),
+  annualHours: z
+    .number('must be a finite number')
+    .min(LIMITS.annualHours.min, 'must be at least 1 hour')
+    .max(LIMITS.annualHours.max, 'must be at most 8784 hours (the hours in a leap year)'),
+  loadFactor: z.number('must be a finite number').gt(0, 'must be greater than 0').max(1, 'must be at most 1 (a fraction of rated power)'),
+  tonnesPerHour: ranged(0, 100_000, 'tonnes per hour', true),
+  fuelBurnLitresPerHour: ranged(0, 10_000, 'litres per hour', true).nullable().default(null),
 });
 
 export const caseSchema = z.strictObject({

@@ -89,3 +89,31 @@ export const displaySettingsSchema = z.strictObject({
   units: z.enum(['metric', 'us'], 'must be "metric" or "us"').optional(),
   negativeStyle: z.enum(['parentheses', 'minus'], 'must be "parentheses" or "minus"').optional(),
 });
+
+// ---------------------------------------------------------------- case-file upload
+
+/**
+ * The register's text rules applied to what a case/1 upload stores: the name
+ * (the assumption set's name, at most 120 characters) and every id (engine
+ * and offer keys, unit numbers, at most 80). Text is stored as written, so
+ * text with spaces around it is refused rather than trimmed (a trimmed id
+ * would no longer match the references to it).
+ */
+export function caseFileTextProblems(c: {
+  name: string;
+  engines: { id: string }[];
+  repowerOffers: { id: string }[];
+  trucks: { id: string }[];
+}): { path: string; message: string }[] {
+  const problems: { path: string; message: string }[] = [];
+  const check = (schema: z.ZodType<string>, value: string, path: string) => {
+    const r = schema.safeParse(value);
+    if (!r.success) for (const issue of r.error.issues) problems.push({ path, message: issue.message });
+    else if (r.data !== value) problems.push({ path, message: 'must not start or end with spaces' });
+  };
+  check(assumptionSetInputSchema.shape.name, c.name, 'name');
+  for (const list of ['engines', 'repowerOffers', 'trucks'] as const) {
+    c[list].forEach((x, i) => check(keyText('The id'), x.id, `${list}[${i}].id`));
+  }
+  return problems;
+}

@@ -5,7 +5,12 @@
  */
 import { z } from 'zod';
 
-const finite = () => z.number().refine(Number.isFinite, 'must be a finite number');
+/** A driver value: finite and within ±1e12 here; the server then checks it against the driver's own range (lib/risk/requests.ts). */
+const finite = () =>
+  z
+    .number('must be a finite number')
+    .min(-1e12, 'must be at least -1,000,000,000,000')
+    .max(1e12, 'must be at most 1,000,000,000,000');
 
 export const metricSchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('truck-delta'), truckId: z.string().min(1, 'choose a truck') }),

@@ -158,7 +158,7 @@ describe.each([
     const r = await call(caseFile.POST, { workspace: WS }, { body: bad });
     expect(r.status).toBe(422);
     expect(r.body.problems).toEqual(expect.arrayContaining([
-      { path: 'trucks[3].annualHours', message: 'must be greater than 0' },
+      { path: 'trucks[3].annualHours', message: 'must be at least 1 hour' },
       { path: 'trucks[5].engineId', message: 'no engine has the id "no-such-engine"' },
     ]));
     expect((await call(caseFile.POST, { workspace: WS }, { body: { ...dl.body, currency: 'EUR' } })).body.problems[0]).toEqual({ path: 'currency', message: 'is EUR but this workspace reports in USD' });

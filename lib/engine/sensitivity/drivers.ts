@@ -20,31 +20,34 @@ export interface DriverInfo {
   max: number;
 }
 
-const money = (label: string, unit = 'USD'): Omit<DriverInfo, 'scope'> => ({ label, unit, min: 0, max: Number.POSITIVE_INFINITY });
-const BIG = Number.POSITIVE_INFINITY;
+// The case file's own ranges (lib/validation/case.ts, docs/methodology.md "Input limits"), repeated here
+// because this module stays free of the schemas (a test checks every end validates).
+const MAX_MONEY = 1e10;
+const money = (label: string, unit = 'USD'): Omit<DriverInfo, 'scope'> => ({ label, unit, min: 0, max: MAX_MONEY });
+const DAYS = 365;
 
 /** Every driver key, its scope, label, unit and valid range. Currency units are filled in by the screens. */
 export const DRIVER_CATALOGUE = {
   fuelPrice: { scope: 'assumption', ...money('Fuel price', 'USD/L') },
-  fuelEscalation: { scope: 'assumption', label: 'Fuel escalation', unit: '%/yr', min: -0.99, max: 1 },
+  fuelEscalation: { scope: 'assumption', label: 'Fuel escalation', unit: '%/yr', min: -0.49, max: 1 },
   discountRate: { scope: 'assumption', label: 'Discount rate', unit: '%', min: -0.98, max: 1 },
-  inflation: { scope: 'assumption', label: 'Inflation', unit: '%/yr', min: -0.99, max: 1 },
+  inflation: { scope: 'assumption', label: 'Inflation', unit: '%/yr', min: -0.49, max: 1 },
   marginPerTonne: { scope: 'assumption', ...money('Margin per tonne', 'USD/t') },
   taxRate: { scope: 'assumption', label: 'Tax rate', unit: '%', min: 0, max: 0.99 },
   carbonPrice: { scope: 'assumption', ...money('Carbon price', 'USD/t CO2') },
   modulePrice: { scope: 'offer', ...money('Module price') },
   installCost: { scope: 'offer', ...money('Install cost') },
   coreCredit: { scope: 'offer', ...money('Core credit') },
-  downtimeDays: { scope: 'offer', label: 'Days down for swap', unit: 'days', min: 0, max: BIG },
+  downtimeDays: { scope: 'offer', label: 'Days down for swap', unit: 'days', min: 0, max: DAYS },
   overhaulCost: { scope: 'engine', ...money('Overhaul cost') },
   failureCost: { scope: 'engine', ...money('Failure cost') },
-  overhaulDowntimeDays: { scope: 'engine', label: 'Days down, overhaul', unit: 'days', min: 0, max: BIG },
-  failureDowntimeDays: { scope: 'engine', label: 'Days down, failure', unit: 'days', min: 0, max: BIG },
+  overhaulDowntimeDays: { scope: 'engine', label: 'Days down, overhaul', unit: 'days', min: 0, max: DAYS },
+  failureDowntimeDays: { scope: 'engine', label: 'Days down, failure', unit: 'days', min: 0, max: DAYS },
   bsfcGPerKwh: { scope: 'engine', label: 'BSFC', unit: 'g/kWh', min: 50, max: 1000 },
-  lifeHours: { scope: 'engine', label: 'Planned life', unit: 'h', min: 500, max: BIG },
-  weibullScaleHours: { scope: 'engine', label: 'Weibull scale', unit: 'h', min: 500, max: BIG },
-  weibullShape: { scope: 'engine', label: 'Weibull shape', unit: '', min: 0.3, max: 20 },
-  annualHours: { scope: 'truck', label: 'Annual hours', unit: 'h/yr', min: 100, max: 8760 },
+  lifeHours: { scope: 'engine', label: 'Planned life', unit: 'h', min: 500, max: 200_000 },
+  weibullScaleHours: { scope: 'engine', label: 'Weibull scale', unit: 'h', min: 500, max: 1_000_000 },
+  weibullShape: { scope: 'engine', label: 'Weibull shape', unit: '', min: 0.5, max: 20 },
+  annualHours: { scope: 'truck', label: 'Annual hours', unit: 'h/yr', min: 100, max: 8784 },
   loadFactor: { scope: 'truck', label: 'Load factor', unit: '%', min: 0.01, max: 1 },
 } as const satisfies Record<string, DriverInfo>;
 

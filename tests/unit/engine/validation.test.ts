@@ -149,8 +149,31 @@ describe('CLI: npm run evaluate', () => {
     const lines = out.stderr.trim().split('\n');
     expect(lines.length).toBeGreaterThanOrEqual(12);
     for (const line of lines) expect(line).toMatch(/^[A-Za-z()[\].\d]+: .+/);
-    expect(lines).toContain('trucks[1].annualHours: must be greater than 0');
+    expect(lines).toContain('trucks[1].annualHours: must be at least 1 hour');
   });
+
+  // issue 12: the upload accepts a leading BOM, so both command-line tools do too (spawns two processes: a longer limit)
+  const withBom = () => {
+    const dir = mkdtempSync(path.join(tmpdir(), 'haulcase-cli-'));
+    const file = path.join(dir, 'bom.json');
+    writeFileSync(file, `\uFEFF${readFileSync(path.join(root, 'scenarios/one-truck.json'), 'utf8')}`);
+    return { dir, file };
+  };
+  it('evaluate accepts a case file that starts with a UTF-8 BOM, as the upload does', () => {
+    const out = run(withBom().file);
+    expect(out.stderr).toBe('');
+    expect(out.status).toBe(0);
+    expect(JSON.parse(out.stdout).trucks[0].id).toBe('T-01');
+  }, 60_000);
+  it('export:xlsx accepts a case file that starts with a UTF-8 BOM', () => {
+    const { dir, file } = withBom();
+    const xlsx = path.join(dir, 'bom.xlsx');
+    const exported = spawnSync(tsx, [path.join(root, 'scripts/export-xlsx.ts'), file, xlsx], { cwd: root, encoding: 'utf8', timeout: 60_000 });
+    expect(exported.stderr).toBe('');
+    expect(exported.status).toBe(0);
+    // an xlsx is a zip archive: it starts with "PK"
+    expect(readFileSync(xlsx).subarray(0, 2).toString('latin1')).toBe('PK');
+  }, 60_000);
 
   it('exits 2 for a file that is not JSON or cannot be read', () => {
     const dir = mkdtempSync(path.join(tmpdir(), 'haulcase-cli-'));
@@ -162,5 +185,5 @@ describe('CLI: npm run evaluate', () => {
     const missing = run(path.join(dir, 'missing.json'));
     expect(missing.status).toBe(2);
     expect(missing.stderr).toMatch(/cannot read/);
-  });
+  }, 60_000); // two processes: on a loaded machine more than the default 5 s
 });

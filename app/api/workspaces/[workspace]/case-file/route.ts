@@ -6,6 +6,7 @@ import { buildCaseFile } from '@/lib/db/queries/case-file';
 import { importCaseFile } from '@/lib/db/queries/case-file-import';
 import { invalid, notFound, readJson, route } from '@/lib/http';
 import { validateCase } from '@/lib/validation/case';
+import { caseFileTextProblems } from '@/lib/validation/fleet';
 
 type P = { workspace: string };
 
@@ -39,14 +40,9 @@ export const POST = route<P>(async (req, { params }) => {
   if (v.value.currency !== access.workspace.currency) {
     throw invalid([{ path: 'currency', message: `is ${v.value.currency} but this workspace reports in ${access.workspace.currency}` }], 'The case file is in another currency; nothing was saved.');
   }
-  // The register's columns are narrower than the case file allows.
-  const long = [
-    ...(v.value.name.length > 120 ? [{ path: 'name', message: 'must be at most 120 characters (it names the assumption set)' }] : []),
-    ...(['engines', 'repowerOffers', 'trucks'] as const).flatMap((list) =>
-      v.value[list].flatMap((x, i) => (x.id.length > 80 ? [{ path: `${list}[${i}].id`, message: 'must be at most 80 characters' }] : [])),
-    ),
-  ];
-  if (long.length) throw invalid(long, 'Some ids are too long; nothing was saved.');
+  // What is stored follows the register's text rules (no formula-looking text; its column widths).
+  const text = caseFileTextProblems(v.value);
+  if (text.length) throw invalid(text, `The case file has ${text.length} problem(s) in its names and ids; nothing was saved.`);
   const counts = await db().transaction((trx) => importCaseFile(trx, access, v.value));
   return NextResponse.json({ name: v.value.name, ...counts });
 });
