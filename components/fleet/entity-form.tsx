@@ -2,7 +2,7 @@
 
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState, type ReactNode } from 'react';
-import { useForm, type FieldErrors, type FieldValues, type Path } from 'react-hook-form';
+import { useForm, type FieldErrors, type FieldValues, type Path, type Resolver } from 'react-hook-form';
 import type { z } from 'zod';
 import { fromDisplay, inputText, UNIT_LABEL, type Quantity, type UnitSystem } from '@/lib/display-units';
 import { ApiError } from '@/lib/fetcher';
@@ -59,18 +59,6 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
     const text = inputText(f.quantity as Quantity, stored[f.name] as number | null | undefined, units);
     shownAtFirst[f.name] = text === '' ? null : Number(text);
   }
-  const { register, handleSubmit, setError, formState } = useForm<FieldValues>({
-    // zod 4 schemas are typed loosely here; the schema itself is the contract.
-    // The signs the schemas check do not depend on units, so unit-bearing fields are checked as shown.
-    resolver: zodResolver(props.schema as never),
-    // Only the form's own fields: the schemas are strict, so a row's id or version must not ride along.
-    defaultValues: Object.fromEntries(
-      Object.entries(stored)
-        .filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k))
-        .map(([k, v]) => [k, k in shownAtFirst ? shownAtFirst[k] ?? v : v]),
-    ),
-  });
-
   /** Unit-bearing fields back to metric; a field left as it was shown keeps its stored number exactly. */
   const toStored = (values: FieldValues): FieldValues => {
     const out = { ...values };
@@ -81,6 +69,24 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
     }
     return out;
   };
+  // zod 4 schemas are typed loosely here; the schema itself is the contract.
+  const check = zodResolver(props.schema as never) as unknown as Resolver<FieldValues>;
+  const { register, handleSubmit, setError, formState } = useForm<FieldValues>({
+    // The schema's ranges are in stored (metric) units, so unit-bearing fields are
+    // checked after conversion; on success the form keeps the values as shown
+    // (submit converts them once).
+    resolver: async (values, context, options) => {
+      const result = await check(toStored(values), context, options);
+      return Object.keys(result.errors).length > 0 ? result : { values, errors: {} };
+    },
+    // Only the form's own fields: the schemas are strict, so a row's id or version must not ride along.
+    defaultValues: Object.fromEntries(
+      Object.entries(stored)
+        .filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k))
+        .map(([k, v]) => [k, k in shownAtFirst ? shownAtFirst[k] ?? v : v]),
+    ),
+  });
+
   const [formError, setFormError] = useState<string | null>(null);
   const names = new Set(props.fields.map((f) => f.name));
 
