@@ -73,12 +73,8 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
   const check = zodResolver(props.schema as never) as unknown as Resolver<FieldValues>;
   const { register, handleSubmit, setError, formState } = useForm<FieldValues>({
     // The schema's ranges are in stored (metric) units, so unit-bearing fields are
-    // checked after conversion; on success the form keeps the values as shown
-    // (submit converts them once).
-    resolver: async (values, context, options) => {
-      const result = await check(toStored(values), context, options);
-      return Object.keys(result.errors).length > 0 ? result : { values, errors: {} };
-    },
+    // converted before the check; submit receives the schema's output, already stored.
+    resolver: (values, context, options) => check(toStored(values), context, options),
     // Only the form's own fields: the schemas are strict, so a row's id or version must not ride along.
     defaultValues: Object.fromEntries(
       Object.entries(stored)
@@ -93,7 +89,7 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
   const submit = handleSubmit(async (values) => {
     setFormError(null);
     try {
-      await props.onSubmit(toStored(values) as z.output<S>);
+      await props.onSubmit(values as z.output<S>);
     } catch (e) {
       if (!(e instanceof ApiError)) throw e;
       const elsewhere: string[] = [];
