@@ -7,12 +7,11 @@ import {
   validateCase,
   type CaseFileInput,
   type Engine,
-  type RepowerOffer,
 } from '@/lib/validation/case';
 import { assembleCashFlows, buildPolicyDetail, type PolicyCash } from './cash-flow';
 import { rollUpFleet } from './fleet';
 import { bestPolicy, comparePolicies, policyResult } from './results';
-import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck } from './setup';
+import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type ResolvedOffer } from './setup';
 import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto, type CaseNpvs } from './npv-only';
 import { failureSourceOf, simulatePolicy } from './simulate';
 import type {
@@ -39,7 +38,7 @@ function checked(c: CaseFileInput, options: EvaluateOptions): CaseFileInput {
 function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, detailed: boolean, only?: string): Evaluated[] {
   const a = resolveAssumptions(c.assumptions);
   const engines = new Map<string, Engine>(c.engines.map((e) => [e.id, e]));
-  const offers = new Map<string, RepowerOffer>(c.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
+  const offers = new Map<string, ResolvedOffer>(c.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
   const out: Evaluated[] = [];
   const r = a.discountRate;
   const tables = buildCaseYearTables(a, c.trucks);

@@ -6,9 +6,9 @@
  * `evaluateNpvs`, which validates first, is in evaluate.ts: this module stays
  * free of the validation schemas, so the Monte Carlo worker bundle is small.
  */
-import type { CaseFileInput, Engine, RepowerOffer } from '@/lib/validation/case';
+import type { CaseFileInput, Engine } from '@/lib/validation/case';
 import { bestPolicy } from './results';
-import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type TruckSetup } from './setup';
+import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type ResolvedOffer, type TruckSetup } from './setup';
 import { emptyPolicyRun, simulatePolicyInto, type FailureAgeSource, type PolicyRun } from './simulate';
 import type { PolicyKey } from './types';
 
@@ -54,7 +54,7 @@ export function evaluateNpvsInto(
 ): void {
   const a = resolveAssumptions(valid.assumptions);
   const engines = new Map<string, Engine>(valid.engines.map((e) => [e.id, e]));
-  const offers = new Map<string, RepowerOffer>(valid.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
+  const offers = new Map<string, ResolvedOffer>(valid.repowerOffers.map((o) => [o.id, resolveOffer(o)]));
   const tables = buildCaseYearTables(a, valid.trucks);
   const { run } = ws;
   const count = valid.trucks.length;

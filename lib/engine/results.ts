@@ -12,6 +12,7 @@ import {
   ZERO,
 } from './time-value';
 import type { PolicyCash } from './cash-flow';
+import { countEvents } from './simulate';
 import { POLICIES, type Comparison, type PolicyKey, type PolicyResult } from './types';
 
 /**
@@ -56,6 +57,8 @@ export function policyResult(cash: PolicyCash, discountFactors: ArrayLike<number
     fuelLitresPerHour: fuelLitres / hours,
     cashFlows: cash.cashFlows,
     breakdown: cash.breakdown,
+    events: cash.run.eventCounts ?? countEvents(cash.run.log, n),
+    failureBeforePlanned: cash.run.failureBeforePlanned,
   };
 }
 

@@ -12,11 +12,16 @@ export interface ResolvedAssumptions extends Omit<Assumptions, 'depreciation'> {
   depreciation: Depreciation;
 }
 
+/** A repower offer with its defaults: `failedCoreCredit` is the `coreCredit` unless given. */
+export interface ResolvedOffer extends RepowerOffer {
+  failedCoreCredit: number;
+}
+
 export interface TruckSetup {
   truck: Truck;
   a: ResolvedAssumptions;
   start: Engine;
-  offer: RepowerOffer;
+  offer: ResolvedOffer;
   next: Engine;
   /** N: years in the horizon */
   n: number;
@@ -45,12 +50,19 @@ export function resolveAssumptions(input: CaseFileInput['assumptions']): Resolve
     timing: input.timing ?? 'end-of-year',
     horizonYears: input.horizonYears ?? null,
     rebuildAccounting: input.rebuildAccounting ?? 'expense',
+    valuation: input.valuation ?? 'expected',
+    lostMarginShare: input.lostMarginShare ?? 1,
     depreciation: dep.method === 'declining-balance' ? { ...dep, factor: dep.factor ?? 2 } : (dep as Depreciation),
   };
 }
 
-export function resolveOffer(input: CaseFileInput['repowerOffers'][number]): RepowerOffer {
-  return { ...input, productivityGain: input.productivityGain ?? 0, timing: input.timing ?? 'at-overhaul' };
+export function resolveOffer(input: CaseFileInput['repowerOffers'][number]): ResolvedOffer {
+  return {
+    ...input,
+    productivityGain: input.productivityGain ?? 0,
+    timing: input.timing ?? 'at-overhaul',
+    failedCoreCredit: input.failedCoreCredit ?? input.coreCredit,
+  };
 }
 
 /** A truck with its defaults; the input itself when it already has them (no copy per evaluation). */
@@ -139,7 +151,7 @@ export function buildTruckSetup(
   truck: Truck,
   a: ResolvedAssumptions,
   engines: ReadonlyMap<string, Engine>,
-  offers: ReadonlyMap<string, RepowerOffer>,
+  offers: ReadonlyMap<string, ResolvedOffer>,
   tables?: YearTables,
   previous?: TruckSetup,
 ): TruckSetup {

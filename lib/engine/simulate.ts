@@ -14,7 +14,7 @@ import { EventLimitError, MAX_EVENTS_PER_RUN } from './limits';
 import { medianFailureAge } from './reliability';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
-import { EVENT_CODE, EVENT_KINDS, type EngineEvent, type FailureAgeProvider, type PolicyKey, type Segment } from './types';
+import { EVENT_CODE, EVENT_KINDS, type EngineEvent, type EventCounts, type FailureAgeProvider, type PolicyKey, type Segment } from './types';
 
 /** Pre-tax physical and money totals of one period, before tax. */
 export interface PeriodRun {
@@ -57,6 +57,10 @@ export interface PolicyRun {
   npv: number;
   /** the run's working state, reused by the next run into this object */
   state: RunState;
+  /** MODEL.md section 11: on a path 0 or 1 (the first life ended in service within the horizon) */
+  failureBeforePlanned: number;
+  /** expected event counts by period when the run is an expectation (expected.ts); null: count the log */
+  eventCounts: EventCounts[] | null;
 }
 
 const OVERHAUL = EVENT_CODE.overhaul;
@@ -168,6 +172,8 @@ export interface RunState {
   /** operating hours run in the period before the event being booked */
   hourOfYear: number;
   repowered: boolean;
+  /** the life of the engine fitted at the start ended in service: a failure, or a failed swap */
+  firstFailed: boolean;
   tph: number;
   extraTph: number;
   /** present values so far */
@@ -220,8 +226,14 @@ function serviceMarkAt(age: number, interval: number): number {
   return Math.floor((age + ZERO) / interval);
 }
 
-/** Book an event in period y: its cost, days down and lost margin; then the engine starts a new life. */
-function bookEvent(st: RunState, code: number, y: number): void {
+/**
+ * Book an event in period y: its cost, days down and lost margin; then the
+ * engine starts a new life. `unplanned`: a repower brought forward by a
+ * failure of the old engine (MODEL.md section 3): the failed core earns
+ * `failedCoreCredit`, and the truck is down the larger of the offer's days and
+ * the old engine's failure days (no repair is booked).
+ */
+function bookEvent(st: RunState, code: number, y: number, unplanned: boolean): void {
   const { setup } = st;
   const { offer, truck } = setup;
   const idx = setup.generalIndex[y];
@@ -229,8 +241,8 @@ function bookEvent(st: RunState, code: number, y: number): void {
   let baseCost: number;
   let days: number;
   if (code === REPOWER) {
-    baseCost = offer.modulePrice + offer.installCost - offer.coreCredit;
-    days = offer.downtimeDays;
+    baseCost = offer.modulePrice + offer.installCost - (unplanned ? offer.failedCoreCredit : offer.coreCredit);
+    days = unplanned ? Math.max(offer.downtimeDays, engine.failureDowntimeDays) : offer.downtimeDays;
   } else if (code === OVERHAUL) {
     baseCost = engine.overhaulCost;
     days = engine.overhaulDowntimeDays;
@@ -240,7 +252,8 @@ function bookEvent(st: RunState, code: number, y: number): void {
   }
   const cost = baseCost * idx;
   // days down at the rate before the event: a repower's own days at the old rate
-  const lost = ((days * truck.annualHours) / 365) * st.tph * setup.a.marginPerTonne * idx;
+  // (MODEL.md section 5: only lostMarginShare of a day down's margin is really lost)
+  const lost = ((days * truck.annualHours) / 365) * st.tph * setup.a.marginPerTonne * idx * setup.a.lostMarginShare;
   const df = setup.discountFactor[y];
   const d = st.d;
   if (code === REPOWER) d.capital += cost * df;
@@ -266,6 +279,7 @@ function bookEvent(st: RunState, code: number, y: number): void {
       baseCost, priceIndex: idx, cost, downtimeDays: days, downtimeTonnesPerHour: st.tph, lostMargin: lost,
     };
     if (code === REPOWER) event.newEngineId = setup.next.id;
+    if (unplanned) event.unplanned = true;
     st.events.push(event);
   }
   if (code === REPOWER) {
@@ -275,6 +289,7 @@ function bookEvent(st: RunState, code: number, y: number): void {
     st.extraTph = truck.tonnesPerHour * offer.productivityGain;
     st.tph = truck.tonnesPerHour + st.extraTph;
   }
+  if (st.lifeIndex === 0) st.firstFailed = code === FAILURE || unplanned;
   st.age = 0;
   st.serviceMark = serviceMarkAt(0, st.engine.serviceIntervalHours);
   st.lifeIndex += 1;
@@ -340,11 +355,12 @@ export function emptyPolicyRun(): PolicyRun {
   const state: RunState = {
     setup: undefined as unknown as TruckSetup, policy: 'keep', failures: null, trace: false, records: true, periods, log,
     segments: [], events: [], truckIndex: -1, engine: undefined as unknown as Engine, burn: 0, age: 0, serviceMark: 0,
-    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, tph: 0, extraTph: 0, d: emptyTotals(), depreciation: [], depreciated: false,
+    lifeIndex: 0, failAt: 0, hourOfYear: 0, repowered: false, firstFailed: false, tph: 0, extraTph: 0, d: emptyTotals(), depreciation: [], depreciated: false,
   };
   return {
     policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0,
     discounted: state.d, depreciation: state.depreciation, depreciated: false, npv: Number.NaN, state,
+    failureBeforePlanned: 0, eventCounts: null,
   };
 }
 
@@ -407,6 +423,7 @@ export function simulatePolicyInto(
   st.lifeIndex = 0;
   st.hourOfYear = 0;
   st.repowered = false;
+  st.firstFailed = false;
   st.tph = truck.tonnesPerHour;
   st.extraTph = 0;
   st.failAt = drawFailureAge(st, st.age);
@@ -414,8 +431,8 @@ export function simulatePolicyInto(
   // period 0: an engine at or past its planned life has its planned event now; a "now" repower too
   const keep = policy === 'keep';
   const repower = policy === 'repower';
-  if (!keep && st.age >= st.engine.lifeHours - ZERO) bookEvent(st, repower ? REPOWER : OVERHAUL, 0);
-  if (repower && !st.repowered && offer.timing === 'now') bookEvent(st, REPOWER, 0);
+  if (!keep && st.age >= st.engine.lifeHours - ZERO) bookEvent(st, repower ? REPOWER : OVERHAUL, 0, false);
+  if (repower && !st.repowered && offer.timing === 'now') bookEvent(st, REPOWER, 0, false);
 
   // the run's state in locals while segments follow one another (reloaded after each event, which changes it),
   // and the year's segment totals in locals too, added in segment order and stored once at the year's end
@@ -468,7 +485,8 @@ export function simulatePolicyInto(
       const code = nextEventKind(st, keep, repower);
       if (trace) pushSegment(st, y, engine, age, a2, h, burn, litres, tph, extraTph, services, serviceCost, topUp, code);
       st.hourOfYear = hoursRun; // a field, not an argument: a double argument is boxed on each call
-      bookEvent(st, code, y);
+      // a repower in place of a failure that came before the planned life is a failed swap
+      bookEvent(st, code, y, code === REPOWER && st.failAt < engine.lifeHours - ZERO);
       age = st.age;
       serviceMark = st.serviceMark;
       eventAge = nextEventAge(st, keep);
@@ -511,8 +529,27 @@ export function simulatePolicyInto(
   }
   run.depreciation = st.depreciation;
   run.depreciated = st.depreciated;
+  run.failureBeforePlanned = st.firstFailed ? 1 : 0;
+  run.eventCounts = null;
   const end = st.engine;
   const credit = residualCredit(end.overhaulCost, st.age, end.lifeHours, generalIndex[n]);
   run.npv = npvFromTotals(st.d, as.taxRate, as.rebuildAccounting === 'expense', setup.discountFactor[n], credit);
   return run;
+}
+
+/**
+ * Events booked in each period 0..n of a run, counted from its log (repairs
+ * are failures; a failed swap is a repower).
+ */
+export function countEvents(log: EventLog, n: number): EventCounts[] {
+  const out: EventCounts[] = [];
+  for (let y = 0; y <= n; y++) out.push({ overhauls: 0, repairs: 0, repowers: 0 });
+  for (let i = 0; i < log.count; i++) {
+    const c = out[log.period[i]];
+    const k = log.kind[i];
+    if (k === OVERHAUL) c.overhauls += 1;
+    else if (k === FAILURE) c.repairs += 1;
+    else c.repowers += 1;
+  }
+  return out;
 }

@@ -38,6 +38,13 @@ export const BREAKDOWN_CATEGORIES = [
   'residual',
 ] as const satisfies readonly (keyof BreakdownEntry)[];
 
+/** Events booked in one period: on the median path counts, with the expected valuation their expectations. */
+export interface EventCounts {
+  overhauls: number;
+  repairs: number;
+  repowers: number;
+}
+
 export interface PolicyResult {
   npv: number;
   eac: number;
@@ -50,6 +57,14 @@ export interface PolicyResult {
   fuelLitresPerHour: number;
   cashFlows: number[];
   breakdown: BreakdownEntry[];
+  /** expected number of overhauls, repairs and repowers by period 0..N (MODEL.md section 11) */
+  events: EventCounts[];
+  /**
+   * probability that the engine fitted today fails in service before the
+   * earlier of its planned life and the horizon's end (keep: the horizon's
+   * end); 0 when its planned event is in period 0; 0 or 1 on the median path
+   */
+  failureBeforePlanned: number;
 }
 
 export interface Comparison {
@@ -114,6 +129,8 @@ export interface EngineEvent {
   engineAge: number;
   /** the engine fitted by a repower */
   newEngineId?: string;
+  /** a repower brought forward by a failure (failed core credit, the longer of the two downtimes) */
+  unplanned?: boolean;
   /** pre-tax cost at year-1 prices: overhaulCost, failureCost, or module + install − core credit */
   baseCost: number;
   /** general (inflation) price index of the period */

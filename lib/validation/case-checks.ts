@@ -124,13 +124,15 @@ export function crossFieldProblems(input: unknown, maxHorizonYears: number): Cas
     }
     const price = fieldOf(offer, 'modulePrice');
     const install = fieldOf(offer, 'installCost');
-    const core = fieldOf(offer, 'coreCredit');
-    if ([price, install, core].every((n) => typeof n === 'number' && Number.isFinite(n))) {
-      if ((core as number) > (price as number) + (install as number)) {
-        problems.push({
-          path: `repowerOffers[${i}].coreCredit`,
-          message: 'must not exceed modulePrice + installCost (the capital cost would be negative)',
-        });
+    for (const key of ['coreCredit', 'failedCoreCredit'] as const) {
+      const core = fieldOf(offer, key);
+      if ([price, install, core].every((n) => typeof n === 'number' && Number.isFinite(n))) {
+        if ((core as number) > (price as number) + (install as number)) {
+          problems.push({
+            path: `repowerOffers[${i}].${key}`,
+            message: 'must not exceed modulePrice + installCost (the capital cost would be negative)',
+          });
+        }
       }
     }
   });

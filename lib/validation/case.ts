@@ -45,6 +45,10 @@ const daysDown = () => ranged(0, MAX_DAYS_DOWN, 'days');
 const growthRate = () =>
   z.number('must be a finite number').gt(-0.5, 'must be greater than -0.5 (-50 % a year)').max(1, 'must be at most 1 (+100 % a year)');
 
+/** How failures enter the figures (MODEL.md section 11). */
+export const VALUATIONS = ['expected', 'median-path'] as const;
+export type Valuation = (typeof VALUATIONS)[number];
+
 export const MACRS_YEARS = [3, 5, 7, 10, 15, 20] as const;
 /** Longest horizon the engine accepts (our choice: keeps (1+i)^N finite on the IRR grid). */
 export const MAX_HORIZON_YEARS = 100;
@@ -125,6 +129,10 @@ export const assumptionsSchema = z.strictObject({
   taxRate: z.number('must be a finite number').min(0, 'must be at least 0').lt(1, 'must be below 1 (100 %)'),
   depreciation: depreciationSchema,
   rebuildAccounting: z.enum(['expense', 'capitalise']).default('expense'),
+  /** MODEL.md section 11: the expectation over failure ages (default) or the median path */
+  valuation: z.enum(VALUATIONS, 'must be "expected" or "median-path"').default('expected'),
+  /** MODEL.md section 5: the share of a day down's margin that is really lost (0: a standby truck covers it) */
+  lostMarginShare: ranged(0, 1, '(100 %)').default(1),
 });
 
 const hours = (key: keyof typeof LIMITS) => ranged(LIMITS[key].min, LIMITS[key].max, 'hours');
@@ -153,6 +161,8 @@ export const repowerOfferSchema = z.strictObject({
   modulePrice: money(),
   installCost: money(),
   coreCredit: money(),
+  /** credit for a core that failed in service (a repower brought forward by a failure); default: coreCredit */
+  failedCoreCredit: money().optional(),
   downtimeDays: daysDown(),
   productivityGain: ranged(0, 1, '(+100 %)').default(0),
   timing: z.enum(['at-overhaul', 'now']).default('at-overhaul'),
