@@ -83,7 +83,8 @@ export function residualOf(setup: TruckSetup, run: PolicyRun): ResidualDetail {
     lifeHours: endEngine.lifeHours,
     overhaulCost: endEngine.overhaulCost,
     priceIndex: gN,
-    credit: residualCredit(endEngine.overhaulCost, run.endAge, endEngine.lifeHours, gN),
+    // the expected valuation's credit, over every engine that may be fitted (endAge: the age giving it on endEngine)
+    credit: run.residualCredit ?? residualCredit(endEngine.overhaulCost, run.endAge, endEngine.lifeHours, gN),
   };
 }
 

@@ -14,6 +14,7 @@ import { bestPolicy, comparePolicies, policyResult } from './results';
 import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type ResolvedOffer } from './setup';
 import { createCaseNpvs, createNpvWorkspace, evaluateNpvsInto, type CaseNpvs } from './npv-only';
 import { failureSourceOf, simulatePolicy } from './simulate';
+import { expectedPolicyRun } from './expected';
 import type {
   CaseResult,
   DetailedCaseResult,
@@ -47,8 +48,14 @@ function evaluateTrucks(c: CaseFileInput, options: EvaluateOptions, detailed: bo
     if (only !== undefined && input.id !== only) continue;
     const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables);
     const df = setup.discountFactor;
+    // the expectation over failures (MODEL.md section 11) unless the case asks for the median path
+    // or the caller samples failure ages (Monte Carlo)
+    const expected = a.valuation === 'expected' && !options.failureAge;
     const run = (policy: PolicyKey): PolicyCash =>
-      assembleCashFlows(setup, simulatePolicy(setup, policy, options.failureAge, detailed, index));
+      assembleCashFlows(
+        setup,
+        expected ? expectedPolicyRun(setup, policy) : simulatePolicy(setup, policy, options.failureAge, detailed, index),
+      );
     const keep = run('keep');
     const rebuild = run('rebuild');
     const repower = run('repower');

@@ -9,6 +9,7 @@
 import type { CaseFileInput, Engine } from '@/lib/validation/case';
 import { bestPolicy } from './results';
 import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type ResolvedOffer, type TruckSetup } from './setup';
+import { expectedPolicyRun } from './expected';
 import { emptyPolicyRun, simulatePolicyInto, type FailureAgeSource, type PolicyRun } from './simulate';
 import type { PolicyKey } from './types';
 
@@ -58,13 +59,22 @@ export function evaluateNpvsInto(
   const tables = buildCaseYearTables(a, valid.trucks);
   const { run } = ws;
   const count = valid.trucks.length;
+  // the expectation over failures (MODEL.md section 11) unless failures are sampled or the case asks for the median path
+  const expected = failures === null && a.valuation === 'expected';
   for (let i = 0; i < count; i++) {
     const input = valid.trucks[i];
     const setup = buildTruckSetup(resolveTruck(input), a, engines, offers, tables, ws.setups[i]);
     ws.setups[i] = setup;
-    const keep = simulatePolicyInto(run, setup, 'keep', failures, false, i, false).npv;
-    const rebuild = simulatePolicyInto(run, setup, 'rebuild', failures, false, i, false).npv;
-    const repower = simulatePolicyInto(run, setup, 'repower', failures, false, i, false).npv;
+    let keep: number, rebuild: number, repower: number;
+    if (expected) {
+      keep = expectedPolicyRun(setup, 'keep', run).npv;
+      rebuild = expectedPolicyRun(setup, 'rebuild', run).npv;
+      repower = expectedPolicyRun(setup, 'repower', run).npv;
+    } else {
+      keep = simulatePolicyInto(run, setup, 'keep', failures, false, i, false).npv;
+      rebuild = simulatePolicyInto(run, setup, 'rebuild', failures, false, i, false).npv;
+      repower = simulatePolicyInto(run, setup, 'repower', failures, false, i, false).npv;
+    }
     out.truckIds[i] = input.id;
     out.keep[i] = keep;
     out.rebuild[i] = rebuild;

@@ -61,6 +61,8 @@ export interface PolicyRun {
   failureBeforePlanned: number;
   /** expected event counts by period when the run is an expectation (expected.ts); null: count the log */
   eventCounts: EventCounts[] | null;
+  /** the expected residual credit (expected.ts); null: the credit of endEngine at endAge */
+  residualCredit: number | null;
 }
 
 const OVERHAUL = EVENT_CODE.overhaul;
@@ -360,7 +362,7 @@ export function emptyPolicyRun(): PolicyRun {
   return {
     policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0,
     discounted: state.d, depreciation: state.depreciation, depreciated: false, npv: Number.NaN, state,
-    failureBeforePlanned: 0, eventCounts: null,
+    failureBeforePlanned: 0, eventCounts: null, residualCredit: null,
   };
 }
 
@@ -531,6 +533,7 @@ export function simulatePolicyInto(
   run.depreciated = st.depreciated;
   run.failureBeforePlanned = st.firstFailed ? 1 : 0;
   run.eventCounts = null;
+  run.residualCredit = null;
   const end = st.engine;
   const credit = residualCredit(end.overhaulCost, st.age, end.lifeHours, generalIndex[n]);
   run.npv = npvFromTotals(st.d, as.taxRate, as.rebuildAccounting === 'expense', setup.discountFactor[n], credit);
