@@ -7,7 +7,7 @@ import { co2Tonnes } from './fuel';
 import { addSpendInto, depreciationSchedule, isDepreciatedSpend } from './depreciation';
 import type { PolicyRun } from './simulate';
 import type { TruckSetup } from './setup';
-import { EVENT_CODE, type BreakdownEntry, type DepreciatedSpend, type PeriodDetail, type PolicyDetail, type ResidualDetail } from './types';
+import { EVENT_CODE, type PeriodQuantities, type BreakdownEntry, type DepreciatedSpend, type PeriodDetail, type PolicyDetail, type ResidualDetail } from './types';
 
 /**
  * Residual credit of the engine fitted at the end of year N: its overhaul cost
@@ -262,10 +262,33 @@ export function buildPolicyDetail(setup: TruckSetup, cash: PolicyCash): PolicyDe
   }
   return {
     policy: cash.run.policy,
+    valuation: cash.run.quantities ? 'expected' : 'path',
+    quantities: cash.run.quantities ?? tracedQuantities(setup, cash.run),
     periods,
     segments: cash.run.segments,
     events: cash.run.events,
     spends: depreciatedSpends(setup, cash.run),
     residual: cash.residual,
   };
+}
+
+/** The quantities of a traced path: services by engine from the segments, counts and lost tonnes from the events. */
+function tracedQuantities(setup: TruckSetup, run: PolicyRun): PeriodQuantities[] {
+  const rows: PeriodQuantities[] = [];
+  for (let y = 0; y <= setup.n; y++) {
+    rows.push({ servicesStart: 0, servicesNew: 0, overhauls: 0, repairs: 0, plannedRepowers: 0, failedRepowers: 0, lostTonnes: 0 });
+  }
+  for (const s of run.segments) {
+    if (s.engineId === setup.start.id) rows[s.period].servicesStart += s.oilServices;
+    else rows[s.period].servicesNew += s.oilServices;
+  }
+  for (const e of run.events) {
+    const q = rows[e.period];
+    q.lostTonnes += ((e.downtimeDays * setup.truck.annualHours) / 365) * e.downtimeTonnesPerHour;
+    if (e.kind === 'overhaul') q.overhauls += 1;
+    else if (e.kind === 'failure') q.repairs += 1;
+    else if (e.unplanned) q.failedRepowers += 1;
+    else q.plannedRepowers += 1;
+  }
+  return rows;
 }

@@ -63,7 +63,7 @@ import {
 import { emptyPolicyRun, type PolicyRun, type PeriodRun } from './simulate';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
-import { EVENT_CODE, type EventCounts, type PolicyKey } from './types';
+import { EVENT_CODE, type EventCounts, type PeriodQuantities, type PolicyKey } from './types';
 
 /** The first life of the engine fitted today, as the expectation reads it. */
 interface FirstLife {
@@ -448,10 +448,10 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   let depreciated = false;
   const expense = a.rebuildAccounting === 'expense';
   const counts: EventCounts[] = [];
+  const quantities: PeriodQuantities[] = [];
   const tph0 = truck.tonnesPerHour;
   const extraTph = repower ? tph0 * offer.productivityGain : 0;
   const tphNew = tph0 + extraTph;
-  const dayFactor = (truck.annualHours / 365) * a.marginPerTonne * a.lostMarginShare;
   const plannedSwap = offer.modulePrice + offer.installCost - offer.coreCredit;
   const failedSwap = offer.modulePrice + offer.installCost - offer.failedCoreCredit;
   const failedSwapDays = Math.max(offer.downtimeDays, start.failureDowntimeDays);
@@ -470,7 +470,7 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
       firstLifeService += firstServices.p[fs];
       fs++;
     }
-    let ov: number, rep: number, pow: number, capital: number, days: number, lost: number;
+    let ov: number, rep: number, pow: number, capital: number, days: number, lostTonnes: number;
     if (repower) {
       ov = dOverhauls;
       rep = dRepairs;
@@ -479,15 +479,16 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
       const daysOld = dPlanned * offer.downtimeDays + dFailed * failedSwapDays;
       const daysNew = ov * freshEngine.overhaulDowntimeDays + rep * freshEngine.failureDowntimeDays;
       days = daysOld + daysNew;
-      lost = (daysOld * tph0 + daysNew * tphNew) * dayFactor * idx;
+      lostTonnes = (daysOld * tph0 + daysNew * tphNew) * (truck.annualHours / 365);
     } else {
       ov = dOverhauls + dPlanned;
       rep = dRepairs + dFailed;
       pow = 0;
       capital = 0;
       days = ov * start.overhaulDowntimeDays + rep * start.failureDowntimeDays;
-      lost = days * tph0 * dayFactor * idx;
+      lostTonnes = days * tph0 * (truck.annualHours / 365);
     }
+    const lost = lostTonnes * a.marginPerTonne * a.lostMarginShare * idx;
     counts.push({ overhauls: ov, repairs: rep, repowers: pow });
     const overhaulCost = ov * freshEngine.overhaulCost * idx;
     const repairCost = rep * freshEngine.failureCost * idx;
@@ -499,6 +500,11 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
     const serviceCost = (e: Engine) => e.sumpLitres * lubePrice + e.serviceKitCost * idx + e.serviceLabourHours * a.labourRate * idx;
     const topUp = start.topUpLitresPerHour * oldHours + (repower ? setup.next.topUpLitresPerHour * newHours : 0);
     const lube = firstLifeService * serviceCost(start) + dServices * serviceCost(freshEngine) + topUp * lubePrice;
+    const servicesStart = firstLifeService + (repower ? 0 : dServices);
+    quantities.push({
+      servicesStart, servicesNew: repower ? dServices : 0, overhauls: ov, repairs: rep,
+      plannedRepowers: repower ? dPlanned : 0, failedRepowers: repower ? dFailed : 0, lostTonnes,
+    });
     p.hours = hy;
     p.fuelLitres = setup.burnStart * oldHours + setup.burnNext * newHours;
     p.tonnes = tph0 * hy + extraTph * newHours;
@@ -557,6 +563,7 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   run.depreciated = depreciated;
   run.residualCredit = credit;
   run.eventCounts = counts;
+  run.quantities = quantities;
   run.failureBeforePlanned = f.atZero ? 0 : failedBy(f, cells, Math.min(f.sStar, T));
   run.npv = npvFromTotals(d, a.taxRate, expense, discountFactor[n], credit);
   return run;

@@ -14,7 +14,7 @@ import { EventLimitError, MAX_EVENTS_PER_RUN } from './limits';
 import { medianFailureAge } from './reliability';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
-import { EVENT_CODE, EVENT_KINDS, type EngineEvent, type EventCounts, type FailureAgeProvider, type PolicyKey, type Segment } from './types';
+import { EVENT_CODE, EVENT_KINDS, type EngineEvent, type EventCounts, type PeriodQuantities, type FailureAgeProvider, type PolicyKey, type Segment } from './types';
 
 /** Pre-tax physical and money totals of one period, before tax. */
 export interface PeriodRun {
@@ -63,6 +63,8 @@ export interface PolicyRun {
   eventCounts: EventCounts[] | null;
   /** the expected residual credit (expected.ts); null: the credit of endEngine at endAge */
   residualCredit: number | null;
+  /** expected quantities by period (expected.ts); null: read them from the trace */
+  quantities: PeriodQuantities[] | null;
 }
 
 const OVERHAUL = EVENT_CODE.overhaul;
@@ -362,7 +364,7 @@ export function emptyPolicyRun(): PolicyRun {
   return {
     policy: 'keep', periods, log, segments: [], events: [], endEngine: undefined as unknown as Engine, endAge: 0,
     discounted: state.d, depreciation: state.depreciation, depreciated: false, npv: Number.NaN, state,
-    failureBeforePlanned: 0, eventCounts: null, residualCredit: null,
+    failureBeforePlanned: 0, eventCounts: null, residualCredit: null, quantities: null,
   };
 }
 
@@ -534,6 +536,7 @@ export function simulatePolicyInto(
   run.failureBeforePlanned = st.firstFailed ? 1 : 0;
   run.eventCounts = null;
   run.residualCredit = null;
+  run.quantities = null;
   const end = st.engine;
   const credit = residualCredit(end.overhaulCost, st.age, end.lifeHours, generalIndex[n]);
   run.npv = npvFromTotals(st.d, as.taxRate, as.rebuildAccounting === 'expense', setup.discountFactor[n], credit);

@@ -217,8 +217,29 @@ export interface ResidualDetail {
   credit: number;
 }
 
+/**
+ * What the events and services of a period come to: on the median path the
+ * counts of the traced events and segments, with the expected valuation
+ * their expectations (what the workbook writes as values).
+ */
+export interface PeriodQuantities {
+  /** oil services of the engine fitted at the start, and of the repower engine */
+  servicesStart: number;
+  servicesNew: number;
+  overhauls: number;
+  repairs: number;
+  /** repowers at the planned life or now, and repowers brought forward by a failure (failed swaps) */
+  plannedRepowers: number;
+  failedRepowers: number;
+  /** Σ days down · annualHours/365 · tonnes per hour at the event (before lostMarginShare) */
+  lostTonnes: number;
+}
+
 export interface PolicyDetail {
   policy: PolicyKey;
+  /** the valuation the figures are: the expectation over failures, or the median path (or a sampled path) */
+  valuation: 'expected' | 'path';
+  quantities: PeriodQuantities[];
   periods: PeriodDetail[];
   segments: Segment[];
   events: EngineEvent[];

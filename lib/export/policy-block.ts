@@ -19,6 +19,7 @@ export const C = {
   fuelIdx: 15, carbonIdx: 16, genIdx: 17,
   fuel: 18, carbon: 19, lube: 20, overhaulCost: 21, failureCost: 22, capital: 23, lostMargin: 24, extraMargin: 25,
   depreciable: 26, depreciation: 27, writeOff: 28, residual: 29, taxEffect: 30, cashFlow: 31, df: 32, pv: 33,
+  plannedRepowers: 34, failedRepowers: 35,
 } as const;
 
 export function blockHeaders(currency: string): string[] {
@@ -30,7 +31,7 @@ export function blockHeaders(currency: string): string[] {
     'Fuel price index', 'Carbon price index', 'General price index',
     m('Fuel'), m('Carbon'), m('Lube'), m('Overhauls'), m('Failure repairs'), m('Repower capital'), m('Lost margin'),
     m('Extra margin'), m('Depreciable spend'), m('Depreciation'), m('Write-off'), m('Residual credit'), m('Tax effect'),
-    m('Cash flow'), 'Discount factor', m('Present value'),
+    m('Cash flow'), 'Discount factor', m('Present value'), 'Planned repowers (no.)', 'Failed swaps (no.)',
   ];
 }
 
@@ -65,25 +66,6 @@ export interface BlockContext {
   dep: DepreciationRefs;
 }
 
-/** Per-period quantities the engine traced, grouped the way the formulas read them. */
-function quantities(p: PolicyDetail, truck: TruckDetail, annualHours: number, n: number) {
-  const rows = Array.from({ length: n + 1 }, () => ({
-    servicesStart: 0, servicesNew: 0, lostTonnes: 0, overhauls: 0, failures: 0, repowers: 0,
-  }));
-  for (const s of p.segments) {
-    if (s.engineId === truck.startEngineId) rows[s.period].servicesStart += s.oilServices;
-    else rows[s.period].servicesNew += s.oilServices;
-  }
-  for (const e of p.events) {
-    const q = rows[e.period];
-    q.lostTonnes += ((e.downtimeDays * annualHours) / 365) * e.downtimeTonnesPerHour;
-    if (e.kind === 'overhaul') q.overhauls += 1;
-    else if (e.kind === 'failure') q.failures += 1;
-    else q.repowers += 1;
-  }
-  return rows;
-}
-
 /** The engine whose overhauls and repairs a policy books: the repower engine under repower, else the one fitted now. */
 function eventEngine(p: PolicyDetail, truck: TruckDetail): string {
   const id = p.policy === 'repower' ? truck.repowerEngineId : truck.startEngineId;
@@ -103,14 +85,18 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
   const first = startRow + 1;
   const last = first + n;
   const row = (y: number) => first + y;
-  const q = quantities(p, truck, ctx.annualHours, n);
+  const q = p.quantities;
+  // expected counts are fractions: shown to 4 decimals, as values (every money figure stays a formula over them)
+  const countFmt = p.valuation === 'expected' ? '0.0000' : FMT.count;
   const ev = eventEngine(p, truck);
   const start = truck.startEngineId;
   const next = truck.repowerEngineId;
   const svc = (id: string) =>
     `(${lib.engine(id, 'sumpLitres')}*LubePrice+${lib.engine(id, 'serviceKitCost')}+${lib.engine(id, 'serviceLabourHours')}*LabourRate)`;
   // periods where a spend may be depreciated: any event (capitalised rebuilds are a live switch)
-  const spendPeriods = [...new Set(p.events.map((e) => e.period))].sort((a, b) => a - b);
+  const spendPeriods = q
+    .map((x, y) => (x.overhauls + x.repairs + x.plannedRepowers + x.failedRepowers > 0 ? y : -1))
+    .filter((y) => y >= 0);
 
   for (let y = 0; y <= n; y++) {
     const r = row(y);
@@ -133,14 +119,16 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
     f(C.co2, `${at(C.litres)}*CO2KgPerLitre/1000`, d.co2Tonnes, FMT.qty);
     put(C.tonnes, d.tonnes, FMT.hours);
     put(C.extraTonnes, d.extraTonnes, FMT.hours);
-    put(C.servicesStart, q[y].servicesStart, FMT.count);
-    put(C.servicesNew, q[y].servicesNew, FMT.count);
+    put(C.servicesStart, q[y].servicesStart, countFmt);
+    put(C.servicesNew, q[y].servicesNew, countFmt);
     put(C.topUp, d.topUpLitres, FMT.qty);
     put(C.daysDown, d.downtimeDays, FMT.qty);
     put(C.lostTonnes, q[y].lostTonnes, FMT.qty);
-    put(C.overhauls, q[y].overhauls, FMT.count);
-    put(C.failures, q[y].failures, FMT.count);
-    put(C.repowers, q[y].repowers, FMT.count);
+    put(C.overhauls, q[y].overhauls, countFmt);
+    put(C.failures, q[y].repairs, countFmt);
+    put(C.repowers, q[y].plannedRepowers + q[y].failedRepowers, countFmt);
+    put(C.plannedRepowers, q[y].plannedRepowers, countFmt);
+    put(C.failedRepowers, q[y].failedRepowers, countFmt);
     const yr = at(C.year);
     f(C.fuelIdx, `IF(${yr}=0,1,(1+FuelEscalation)^(${yr}-1))`, d.priceIndex.fuel, FMT.index);
     f(C.carbonIdx, `IF(${yr}=0,1,(1+CarbonEscalation)^(${yr}-1))`, d.priceIndex.carbon, FMT.index);
@@ -151,8 +139,12 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
     f(C.lube, `-${g}*(${at(C.servicesStart)}*${svc(start)}+${at(C.servicesNew)}*${svc(next)}+${at(C.topUp)}*LubePrice)`, b.lube);
     f(C.overhaulCost, `-${at(C.overhauls)}*${lib.engine(ev, 'overhaulCost')}*${g}`, b.overhauls);
     f(C.failureCost, `-${at(C.failures)}*${lib.engine(ev, 'failureCost')}*${g}`, b.failures);
-    f(C.capital, `-${at(C.repowers)}*${lib.offer(truck.repowerOfferId, 'capitalCost')}*${g}`, b.capital);
-    f(C.lostMargin, `-${at(C.lostTonnes)}*MarginPerTonne*${g}`, b.lostMargin);
+    f(
+      C.capital,
+      `-(${at(C.plannedRepowers)}*${lib.offer(truck.repowerOfferId, 'capitalCost')}+${at(C.failedRepowers)}*${lib.offer(truck.repowerOfferId, 'failedCapitalCost')})*${g}`,
+      b.capital,
+    );
+    f(C.lostMargin, `-${at(C.lostTonnes)}*MarginPerTonne*LostMarginShare*${g}`, b.lostMargin);
     f(C.extraMargin, `${at(C.extraTonnes)}*MarginPerTonne*${g}`, b.extraMargin);
     const spend = -b.capital - (capitalise ? b.overhauls + b.failures : 0);
     f(C.depreciable, `-${at(C.capital)}-CapitaliseRebuilds*(${at(C.overhaulCost)}+${at(C.failureCost)})`, spend);
@@ -208,7 +200,10 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
   });
   // value the residual formula reads (a physical state: hours on the engine at the end)
   const ageRow = res0 + results.length;
-  ws.getCell(ageRow, 1).value = `Hours on the fitted engine at the end of year N (${p.residual.engineId})`;
+  ws.getCell(ageRow, 1).value =
+    p.valuation === 'expected'
+      ? `Equivalent hours on ${p.residual.engineId} at the end of year N (the expected unused life of every engine that may be fitted then)`
+      : `Hours on the fitted engine at the end of year N (${p.residual.engineId})`;
   ws.getCell(ageRow, 2).value = p.residual.engineAge;
   ws.getCell(ageRow, 2).numFmt = FMT.hours;
   if (ageRow !== last + 8) throw new Error('block layout: residual age row moved');

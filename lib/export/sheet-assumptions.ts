@@ -34,6 +34,7 @@ function rows(c: CaseFile): Row[] {
     { name: 'CarbonPrice', label: 'Carbon price, year 1', unit: `${cur}/t CO2`, value: a.carbonPrice, fmt: FMT.money2 },
     { name: 'CarbonEscalation', label: 'Carbon price escalation', unit: 'per year', value: a.carbonEscalation, fmt: FMT.rate4 },
     { name: 'MarginPerTonne', label: 'Margin per tonne hauled, year 1', unit: `${cur}/t`, value: a.marginPerTonne, fmt: FMT.price },
+    { name: 'LostMarginShare', label: 'Share of a day down’s margin really lost (0: a standby truck covers it)', unit: '', value: a.lostMarginShare ?? 1, fmt: FMT.rate },
     { name: 'TaxRate', label: 'Tax rate', unit: '', value: a.taxRate, fmt: FMT.rate },
     { name: 'DepMethod', label: 'Depreciation method', unit: 'none | straight-line | declining-balance | macrs', value: dep.method },
     { name: 'DepYears', label: 'Depreciation years (MACRS class)', unit: 'years', value: 'years' in dep && dep.years ? dep.years : 7, fmt: FMT.count },
@@ -48,6 +49,10 @@ function physicalRows(c: CaseFile): Row[] {
   return [
     { name: 'FuelDensity', label: 'Fuel density', unit: 'kg/L', value: a.fuelDensityKgPerL, fmt: FMT.price, note: 'sets litres burnt (values in the truck sheets)' },
     { name: 'HorizonCap', label: 'Horizon cap', unit: 'years', value: a.horizonYears ?? 'none', note: 'sets the years in each truck sheet' },
+    {
+      name: 'Valuation', label: 'Valuation', unit: 'expected | median-path', value: a.valuation ?? 'expected',
+      note: a.valuation === 'median-path' ? 'events follow each engine’s median failure age' : 'events and services are expected counts over the engines’ failure ages',
+    },
   ];
 }
 

@@ -31,7 +31,7 @@ const ENGINE_COLS: [EngineField, string, string][] = [
   ['serviceLabourHours', 'Service labour (h)', FMT.qty],
   ['topUpLitresPerHour', 'Oil top-up (L/h)', FMT.qty2],
 ];
-type OfferField = 'modulePrice' | 'installCost' | 'coreCredit' | 'capitalCost' | 'downtimeDays' | 'productivityGain';
+type OfferField = 'modulePrice' | 'installCost' | 'coreCredit' | 'capitalCost' | 'failedCoreCredit' | 'failedCapitalCost' | 'downtimeDays' | 'productivityGain';
 
 export interface LibraryRefs {
   engine(id: string, field: EngineField): string;
@@ -77,10 +77,12 @@ export function addLibrarySheets(wb: ExcelJS.Workbook, c: CaseFile, details: Tru
     ['installCost', `Install cost (${cur})`, FMT.money],
     ['coreCredit', `Core credit (${cur})`, FMT.money],
     ['capitalCost', `Capital cost (${cur})`, FMT.money],
+    ['failedCoreCredit', `Failed core credit (${cur})`, FMT.money],
+    ['failedCapitalCost', `Capital cost of a failed swap (${cur})`, FMT.money],
     ['downtimeDays', 'Days down', FMT.qty],
     ['productivityGain', 'Productivity gain', FMT.rate],
   ];
-  title(ow, 'Repower offers', `Capital cost = module + install − core credit, at year-1 prices.`, [
+  title(ow, 'Repower offers', `Capital cost = module + install − core credit, at year-1 prices; a swap brought forward by a failure earns the failed core credit (blank in the case: the core credit).`, [
     'Offer', 'Supplier', 'Engine fitted', ...offerCols.map(([, h]) => h), 'Timing', 'Notes',
   ]);
   const offerRow = new Map<string, number>();
@@ -92,14 +94,17 @@ export function addLibrarySheets(wb: ExcelJS.Workbook, c: CaseFile, details: Tru
     setText(ow.getCell(r, 3), o.engineId);
     offerCols.forEach(([f, , fmt], k) => {
       const cell = ow.getCell(r, 4 + k);
+      const failedCore = o.failedCoreCredit ?? o.coreCredit;
       if (f === 'capitalCost') setFormula(cell, `D${r}+E${r}-F${r}`, o.modulePrice + o.installCost - o.coreCredit);
+      else if (f === 'failedCapitalCost') setFormula(cell, `D${r}+E${r}-H${r}`, o.modulePrice + o.installCost - failedCore);
+      else if (f === 'failedCoreCredit') cell.value = failedCore;
       else cell.value = o[f];
       cell.numFmt = fmt;
     });
-    ow.getCell(r, 10).value = o.timing;
-    setText(ow.getCell(r, 11), meta.offers?.[o.id]?.notes ?? '');
+    ow.getCell(r, 4 + offerCols.length).value = o.timing;
+    setText(ow.getCell(r, 5 + offerCols.length), meta.offers?.[o.id]?.notes ?? '');
   });
-  setWidths(ow, [20, 24, 20, 15, 15, 15, 15, 10, 12, 12, 40]);
+  setWidths(ow, [20, 24, 20, 15, 15, 15, 15, 15, 15, 10, 12, 12, 40]);
   setPrint(ow, '4:4');
 
   // trucks
