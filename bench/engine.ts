@@ -1,11 +1,15 @@
 /**
- * Warm evaluation of synthetic fleets of 10, 100 and 1,000 trucks: median
- * milliseconds per evaluation and evaluations per second. Target: 100 trucks
- * in 5 ms or less.
+ * Warm evaluation of synthetic fleets of 10, 100 and 1,000 trucks in both
+ * valuations: median milliseconds per evaluation and evaluations per second,
+ * the load average beside each figure, and the ratio expected / median path
+ * measured in the same run. Targets: 100 trucks in 5 ms or less on the median
+ * path, 25 ms or less with the expected valuation (warm: the renewal tables
+ * of the engine types cached).
  */
+import { loadavg } from 'node:os';
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { evaluateCase } from '@/lib/engine';
+import { evaluateCase, evaluateNpvs } from '@/lib/engine';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { syntheticFleet } from './support/synthetic-fleet';
 
@@ -34,7 +38,7 @@ function time(label: string, fn: () => void, minMs = 1500): { medianMs: number; 
   const m = median(samples);
   console.log(
     `${label.padEnd(30)} median ${m.toFixed(3).padStart(9)} ms  ${(1000 / m).toFixed(1).padStart(8)} evaluations/s` +
-      `   cpu ${cpuMs.toFixed(3).padStart(8)} ms/evaluation   (${samples.length} runs)`,
+      `   cpu ${cpuMs.toFixed(3).padStart(8)} ms/evaluation   (${samples.length} runs, load ${loadavg()[0].toFixed(2)})`,
   );
   return { medianMs: m, cpuMs };
 }
@@ -42,12 +46,25 @@ function time(label: string, fn: () => void, minMs = 1500): { medianMs: number; 
 export async function run(): Promise<void> {
   const file = path.resolve(__dirname, '..', 'scenarios', 'aldervane-north-pit.json');
   const base = JSON.parse(readFileSync(file, 'utf8')) as CaseFileInput;
-  let hundred = 0;
-  for (const size of [10, 100, 1000]) {
-    const fleet = syntheticFleet(base, size);
-    const validated = time(`evaluateCase, ${size} trucks`, () => evaluateCase(fleet));
-    time(`  trusted (no validation)`, () => evaluateCase(fleet, { trusted: true }));
-    if (size === 100) hundred = validated.medianMs;
+  const hundred = { expected: 0, median: 0 };
+  for (let repeat = 1; repeat <= 2; repeat++) {
+    console.log(`-- repeat ${repeat}`);
+    for (const size of [10, 100, 1000]) {
+      const fleet = syntheticFleet(base, size);
+      const median = structuredClone(fleet);
+      median.assumptions.valuation = 'median-path';
+      const expected = structuredClone(fleet);
+      expected.assumptions.valuation = 'expected';
+      const m = time(`median path, ${size} trucks`, () => evaluateCase(median), size === 1000 ? 3000 : 1500);
+      const e = time(`expected, ${size} trucks`, () => evaluateCase(expected), size === 1000 ? 3000 : 1500);
+      time(`  expected, npvs only`, () => evaluateNpvs(expected, { trusted: true }));
+      console.log(`  ratio expected / median path at ${size} trucks: ${(e.medianMs / m.medianMs).toFixed(1)}×`);
+      if (size === 100) {
+        hundred.median = m.medianMs;
+        hundred.expected = e.medianMs;
+      }
+    }
   }
-  console.log(`target: 100 trucks ≤ 5 ms warm → ${hundred <= 5 ? 'met' : 'NOT met'} (${hundred.toFixed(3)} ms)`);
+  console.log(`target: 100 trucks ≤ 5 ms warm on the median path → ${hundred.median <= 5 ? 'met' : 'NOT met'} (${hundred.median.toFixed(3)} ms)`);
+  console.log(`target: 100 trucks ≤ 25 ms warm with the expected valuation → ${hundred.expected <= 25 ? 'met' : 'NOT met'} (${hundred.expected.toFixed(3)} ms)`);
 }
