@@ -87,6 +87,9 @@ export class IterationRunner {
   ) {
     this.trucks = validCase.trucks.length;
     this.work = cloneCase(validCase);
+    // without sampled failures an iteration follows the median path (an expectation per iteration would
+    // re-tabulate every engine drawn), as the spec says
+    if (!spec.sampleFailures) this.work.assumptions.valuation = 'median-path';
     this.active = spec.distributions
       .filter((d) => d.distribution.kind !== 'fixed')
       .map((d) => {
