@@ -58,7 +58,7 @@ import type { Engine } from '@/lib/validation/case';
 import { npvFromTotals } from './cash-flow';
 import { addSpendInto, isDepreciatedSpend } from './depreciation';
 import {
-  creditShare, gridStep, readTable, renewalTable, servicesByAge, type RenewalRule, type RenewalTable,
+  creditShare, gridStep, gridVersion, readTable, renewalTable, servicesByAge, type RenewalRule, type RenewalTable,
 } from './renewal';
 import { emptyPolicyRun, type PolicyRun, type PeriodRun } from './simulate';
 import type { TruckSetup } from './setup';
@@ -103,20 +103,27 @@ interface FirstLifeTable {
   firstCell: Int32Array;
 }
 
-function buildFirstLifeTable(f: FirstLife, ends: Float64Array, width: number): FirstLifeTable {
+/**
+ * The table over (0, T) of the failure law of the engine fitted today, with
+ * s* (its planned end, when inside the horizon) as an edge: keep reads all of
+ * it, rebuild and repower the cells up to s* (`firstLifeView`).
+ */
+function buildFirstLifeTable(f: FirstLife, ends: Float64Array, width: number, sStar: number): FirstLifeTable {
   const n = ends.length - 1;
-  const T = ends[n];
-  const L = Math.min(f.sStar, T);
   const edges: number[] = [0];
   const firstCell = new Int32Array(n + 2);
+  const split = (lo: number, hi: number) => {
+    const pieces = Math.max(1, Math.ceil((hi - lo) / width));
+    for (let c = 1; c <= pieces; c++) edges.push(c === pieces ? hi : lo + ((hi - lo) * c) / pieces);
+  };
   for (let y = 1; y <= n; y++) {
     firstCell[y] = edges.length - 1;
     const lo = ends[y - 1];
-    const hi = Math.min(ends[y], L);
-    if (!f.atZero && hi > lo) {
-      const pieces = Math.max(1, Math.ceil((hi - lo) / width));
-      for (let c = 1; c <= pieces; c++) edges.push(c === pieces ? hi : lo + ((hi - lo) * c) / pieces);
-    }
+    const hi = ends[y];
+    if (sStar > lo + ZERO && sStar < hi - ZERO) {
+      split(lo, sStar);
+      split(sStar, hi);
+    } else split(lo, hi);
   }
   const count = edges.length - 1;
   firstCell[n + 1] = count;
@@ -134,10 +141,29 @@ function buildFirstLifeTable(f: FirstLife, ends: Float64Array, width: number): F
     dF[j] = rate * surv;
   }
   for (let c = 0; c < count; c++) {
-    mid[c] = (edges[c] + edges[c + 1]) / 2;
-    mass[c] = F[c + 1] - F[c];
+    // the cell's centre of mass E[s | cell] = (s1·F1 − s0·F0 − ∫F ds) / mass, ∫F from the Hermite cubic:
+    // reading a table there cancels the first-order term of the midpoint rule
+    const s0 = edges[c];
+    const s1 = edges[c + 1];
+    const w = s1 - s0;
+    const m = F[c + 1] - F[c];
+    mass[c] = m;
+    const d0 = dF[c];
+    const d1 = dF[c + 1];
+    const integral = w * (F[c] + F[c + 1]) / 2 + (Number.isFinite(d0) && Number.isFinite(d1) ? (w * w * (d0 - d1)) / 12 : 0);
+    const centre = m > 1e-300 ? (s1 * F[c + 1] - s0 * F[c] - integral) / m : (s0 + s1) / 2;
+    mid[c] = centre > s0 && centre < s1 ? centre : (s0 + s1) / 2;
   }
   return { edges: Float64Array.from(edges), F, dF, mid, mass, count, firstCell };
+}
+
+/** The table as one policy reads it: its first `count` cells, up to min(s*, T) (none when the planned event is now). */
+function firstLifeView(t: FirstLifeTable, f: FirstLife): FirstLifeTable {
+  if (f.atZero) return { ...t, count: 0 };
+  if (!(f.sStar < t.edges[t.count])) return t;
+  let c = 0;
+  while (c < t.count && t.edges[c] < f.sStar - ZERO) c++;
+  return { ...t, count: c };
 }
 
 /** F_c(s) from the table: the Hermite cubic of its cell (s beyond the table: its last value). */
@@ -177,19 +203,19 @@ interface Cells {
   count: number;
 }
 
-/** The last table built, and what it was built for: rebuild and repower of a truck share their first life. */
-let lastTable: { key: string; hours: Float64Array; table: FirstLifeTable } | null = null;
+/** The last table built, and what it was built for: the three policies of a truck share it. */
+let lastTable: { key: string; hours: Float64Array; n: number; table: FirstLifeTable } | null = null;
 
 function firstLifeTableOf(setup: TruckSetup, f: FirstLife, ends: Float64Array, width: number): FirstLifeTable {
-  const e = f.engine;
-  const key = `${e.weibullShape}|${e.weibullScaleHours}|${f.a0}|${f.sStar}|${f.atZero}|${width}`;
-  if (lastTable && lastTable.key === key && lastTable.hours === setup.hours && lastTable.table.edges.length > 0) {
-    const endsSame = lastTable.table.firstCell.length === ends.length + 1;
-    if (endsSame) return lastTable.table;
+  const e = setup.start;
+  const a0 = setup.truck.engineHours;
+  const sStar = e.lifeHours - a0;
+  const key = `${e.weibullShape}|${e.weibullScaleHours}|${e.lifeHours}|${a0}|${width}`;
+  if (!(lastTable && lastTable.key === key && lastTable.hours === setup.hours && lastTable.n === setup.n)) {
+    const whole: FirstLife = { ...f, sStar: Number.POSITIVE_INFINITY, atZero: false };
+    lastTable = { key, hours: setup.hours, n: setup.n, table: buildFirstLifeTable(whole, ends, width, sStar) };
   }
-  const table = buildFirstLifeTable(f, ends, width);
-  lastTable = { key, hours: setup.hours, table };
-  return table;
+  return firstLifeView(lastTable.table, f);
 }
 
 /** E over the first life's failure of a fresh table read at x − S (the continuous part: midpoint per cell). */
@@ -335,7 +361,8 @@ function freshCreditShare(f: FirstLife, cells: FirstLifeTable, t: RenewalTable, 
  */
 function runningHours(t: FirstLifeTable, y: number): number {
   let v = 0;
-  for (let c = t.firstCell[y]; c < t.firstCell[y + 1]; c++) {
+  const last = Math.min(t.firstCell[y + 1], t.count);
+  for (let c = t.firstCell[y]; c < last; c++) {
     const w = t.edges[c + 1] - t.edges[c];
     const mean = w * (2 - t.F[c] - t.F[c + 1]) / 2;
     const d0 = t.dF[c];
@@ -378,20 +405,56 @@ function firstLifeOf(setup: TruckSetup, policy: PolicyKey): FirstLife {
   return { engine: e, a0, sStar, r0: Math.exp(h0 - hazard(e, e.lifeHours)), h0, atZero: false };
 }
 
+/** What a policy's expected money is linear in: cumulative counts at each year end and the per-year figures. */
+interface ExpectedQuantities {
+  /** cumulative at each year end t_0..t_N: planned first-life ends, first-life failures, fresh repairs, overhauls, services */
+  firstEnds: Float64Array;
+  firstFails: Float64Array;
+  repairs: Float64Array;
+  overhauls: Float64Array;
+  services: Float64Array;
+  /** per year: expected oil services of the first life, expected hours on the engine fitted today (repower) */
+  firstLifeServices: Float64Array;
+  oldHours: Float64Array;
+  /** expected credit shares at the end: the first life still fitted, the fresh engine fitted */
+  firstShare: number;
+  freshShare: number;
+  /** P(the engine fitted today is still fitted at the end) */
+  firstRunning: number;
+  failureBeforePlanned: number;
+}
+
+const QUANTITY_CACHE_SIZE = 4096;
+const quantityCache = new Map<string, ExpectedQuantities>();
+
 /**
- * The expected run of one policy on one truck: a `PolicyRun` whose periods
- * hold expected amounts, with `eventCounts`, `failureBeforePlanned` and the
- * expected residual credit (`residualCredit`), ready for the cash-flow
- * assembly and results that the median path uses.
+ * The expected quantities of a policy, cached by everything they depend on
+ * (the engines' reliability figures, lives and service intervals, the
+ * truck's hours, the offer's timing, the grid): a sensitivity run that
+ * moves a price re-reads them instead of recomputing them.
  */
-export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: PolicyRun = emptyPolicyRun()): PolicyRun {
-  const { truck, a, offer, n, hours, generalIndex, discountFactor } = setup;
+function expectedQuantities(setup: TruckSetup, policy: PolicyKey, f: FirstLife): ExpectedQuantities {
+  const { truck, n, hours } = setup;
+  const e0 = setup.start;
+  const e1 = setup.next;
+  const key = [
+    policy, e0.weibullShape, e0.weibullScaleHours, e0.lifeHours, e0.serviceIntervalHours,
+    e1.weibullShape, e1.weibullScaleHours, e1.lifeHours, e1.serviceIntervalHours,
+    truck.engineHours, truck.annualHours, truck.remainingLifeHours, n, setup.offer.timing, gridVersion(),
+  ].join('|');
+  const found = quantityCache.get(key);
+  if (found) return found;
+  const q = computeQuantities(setup, policy, f, hours, n);
+  if (quantityCache.size >= QUANTITY_CACHE_SIZE) quantityCache.delete(quantityCache.keys().next().value as string);
+  quantityCache.set(key, q);
+  return q;
+}
+
+function computeQuantities(setup: TruckSetup, policy: PolicyKey, f: FirstLife, hours: Float64Array, n: number): ExpectedQuantities {
   const start = setup.start;
   const repower = policy === 'repower';
   const freshEngine = repower ? setup.next : start;
   const rule: RenewalRule = policy === 'keep' ? 'keep' : 'rebuild';
-  const f = firstLifeOf(setup, policy);
-
   // year ends t_0..t_N in hours from today
   const ends = new Float64Array(n + 1);
   for (let y = 1; y <= n; y++) ends[y] = ends[y - 1] + hours[y];
@@ -399,7 +462,7 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
 
   const h = gridStep(freshEngine, T);
   const table = renewalTable(freshEngine, rule, h, T);
-  const width = Math.min(h, gridStep(start, T));
+  const width = Math.min(gridStep(start, T), gridStep(setup.next, T));
   const cells = firstLifeTableOf(setup, f, ends, width);
 
   // cumulative expected counts at each year end
@@ -429,6 +492,43 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   }
   const firstServices = firstLifeServices(f, T, policy !== 'keep');
 
+  const perYear = new Float64Array(n + 1);
+  let fs = 0;
+  for (let y = 0; y <= n; y++) {
+    while (fs < firstServices.tau.length && (y === n || firstServices.tau[fs] <= ends[y] + ZERO)) {
+      perYear[y] += firstServices.p[fs];
+      fs++;
+    }
+  }
+  const oldHours = new Float64Array(n + 1);
+  for (let y = 1; y <= n; y++) oldHours[y] = !repower ? hours[y] : f.atZero ? 0 : runningHours(cells, y);
+  const firstRunning = f.atZero || f.sStar <= T + ZERO ? 0 : 1 - failedBy(f, cells, T);
+  return {
+    firstEnds, firstFails, repairs, overhauls, services, firstLifeServices: perYear, oldHours,
+    firstShare: firstRunning * Math.max(0, 1 - (f.a0 + T) / start.lifeHours),
+    firstRunning,
+    freshShare: freshCreditShare(f, cells, table, T, width),
+    failureBeforePlanned: f.atZero ? 0 : failedBy(f, cells, Math.min(f.sStar, T)),
+  };
+}
+
+/**
+ * The expected run of one policy on one truck: a `PolicyRun` whose periods
+ * hold expected amounts, with `eventCounts`, `failureBeforePlanned` and the
+ * expected residual credit (`residualCredit`), ready for the cash-flow
+ * assembly and results that the median path uses.
+ */
+export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: PolicyRun = emptyPolicyRun()): PolicyRun {
+  const { truck, a, offer, n, hours, generalIndex, discountFactor } = setup;
+  const start = setup.start;
+  const repower = policy === 'repower';
+  const freshEngine = repower ? setup.next : start;
+  const rule: RenewalRule = policy === 'keep' ? 'keep' : 'rebuild';
+  const f = firstLifeOf(setup, policy);
+
+  const q = expectedQuantities(setup, policy, f);
+  const { firstEnds, firstFails, repairs, overhauls, services } = q;
+
   // period by period
   const periods = run.periods;
   for (let y = 0; y <= n; y++) {
@@ -455,7 +555,6 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   const plannedSwap = offer.modulePrice + offer.installCost - offer.coreCredit;
   const failedSwap = offer.modulePrice + offer.installCost - offer.failedCoreCredit;
   const failedSwapDays = Math.max(offer.downtimeDays, start.failureDowntimeDays);
-  let fs = 0;
   for (let y = 0; y <= n; y++) {
     const idx = generalIndex[y];
     const df = discountFactor[y];
@@ -465,11 +564,7 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
     const dRepairs = repairs[y] - (y > 0 ? repairs[y - 1] : 0);
     const dOverhauls = overhauls[y] - (y > 0 ? overhauls[y - 1] : 0);
     const dServices = services[y] - (y > 0 ? services[y - 1] : 0);
-    let firstLifeService = 0;
-    while (fs < firstServices.tau.length && (y === n || firstServices.tau[fs] <= ends[y] + ZERO)) {
-      firstLifeService += firstServices.p[fs];
-      fs++;
-    }
+    const firstLifeService = q.firstLifeServices[y];
     let ov: number, rep: number, pow: number, capital: number, days: number, lostTonnes: number;
     if (repower) {
       ov = dOverhauls;
@@ -494,7 +589,7 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
     const repairCost = rep * freshEngine.failureCost * idx;
     // hours on each engine
     const hy = hours[y];
-    const oldHours = y === 0 ? 0 : repower ? (f.atZero ? 0 : runningHours(cells, y)) : hy;
+    const oldHours = q.oldHours[y];
     const newHours = hy - oldHours;
     const lubePrice = a.lubePrice * idx;
     const serviceCost = (e: Engine) => e.sumpLitres * lubePrice + e.serviceKitCost * idx + e.serviceLabourHours * a.labourRate * idx;
@@ -543,18 +638,15 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   }
 
   // residual credit: the first life still fitted at the end, or the fresh engine fitted then
-  const firstRunning = f.atZero || f.sStar <= T + ZERO ? 0 : 1 - failedBy(f, cells, T);
-  const firstShare = firstRunning * Math.max(0, 1 - (f.a0 + T) / start.lifeHours);
-  const freshShare = freshCreditShare(f, cells, table, T, width);
   const gN = generalIndex[n];
-  const credit = (start.overhaulCost * firstShare + freshEngine.overhaulCost * freshShare) * gN;
+  const credit = (start.overhaulCost * q.firstShare + freshEngine.overhaulCost * q.freshShare) * gN;
 
   run.policy = policy;
   run.log = log;
   run.segments = [];
   run.events = [];
   // the engine most likely fitted at the end, and the age that gives the expected credit on it
-  const freshLikely = repower && 1 - firstRunning >= 0.5;
+  const freshLikely = repower && 1 - q.firstRunning >= 0.5;
   const endEngine = repower ? (freshLikely ? freshEngine : start) : start;
   run.endEngine = endEngine;
   run.endAge = endEngine.overhaulCost > 0 ? endEngine.lifeHours * (1 - credit / (endEngine.overhaulCost * gN)) : endEngine.lifeHours;
@@ -564,7 +656,7 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   run.residualCredit = credit;
   run.eventCounts = counts;
   run.quantities = quantities;
-  run.failureBeforePlanned = f.atZero ? 0 : failedBy(f, cells, Math.min(f.sStar, T));
+  run.failureBeforePlanned = q.failureBeforePlanned;
   run.npv = npvFromTotals(d, a.taxRate, expense, discountFactor[n], credit);
   return run;
 }

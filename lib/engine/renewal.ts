@@ -64,7 +64,7 @@
 import { ZERO } from './time-value';
 
 /** Cells per unit of min(ℓ, 3η/β) on the default grid. */
-export const CELLS_PER_LIFE = 400;
+export const CELLS_PER_LIFE = 200;
 /** Most cells a table has over the horizon. */
 export const MAX_CELLS = 6000;
 /** Survival below which the rest of a law is dropped. */
@@ -112,14 +112,22 @@ let refinement = 1;
 export function setGridRefinement(factor: number): number {
   const previous = refinement;
   refinement = factor;
+  cache.clear();
+  gridGeneration += 1;
   return previous;
+}
+
+let gridGeneration = 0;
+/** Changes whenever the grid does: a key part for caches of figures computed on it. */
+export function gridVersion(): number {
+  return gridGeneration;
 }
 
 /** The default grid step for an engine and a horizon of `hours`: h = ℓ/K. */
 export function gridStep(e: RenewalEngine, hours: number): number {
   const base = Math.min(e.lifeHours, (e.weibullScaleHours * 3) / Math.max(3, e.weibullShape));
   // below β = 1 the density is unbounded at age 0 and the scheme converges more slowly: a finer grid
-  const early = e.weibullShape < 1 ? Math.pow(1 / e.weibullShape, 4) : 1;
+  const early = e.weibullShape < 1 ? Math.pow(1 / e.weibullShape, 6) : 1;
   const target = Math.max(base / (CELLS_PER_LIFE * early), hours / MAX_CELLS) / refinement;
   return e.lifeHours / Math.ceil(e.lifeHours / target);
 }
@@ -178,13 +186,16 @@ export function buildRenewalTable(e: RenewalEngine, rule: RenewalRule, h: number
   for (let j = 1; j <= jMax; j++) dG[j] = sg[j - 1] - sg[j];
 
   const U = new Float64Array(n + 1);
+  // W_k = (U_k + U_{k+1})/2, the cell averages the scheme reads (kept as they become known)
+  const W = new Float64Array(n + 1);
   const denom = 1 - dG[1] / 2;
   for (let i = 1; i <= n; i++) {
     const g = i <= jMax ? 1 - sg[i] : 1;
     let acc = g + (dG[1] * U[i - 1]) / 2;
     const top = Math.min(i, jMax);
-    for (let j = 2; j <= top; j++) acc += dG[j] * (U[i - j] + U[i - j + 1]) * 0.5;
+    for (let j = 2; j <= top; j++) acc += dG[j] * W[i - j];
     U[i] = acc / denom;
+    W[i - 1] = (U[i - 1] + U[i]) * 0.5;
   }
 
   const CM = new Float64Array(n + 1);
@@ -253,7 +264,8 @@ const cache = new Map<string, RenewalTable>();
  */
 export function renewalTable(e: RenewalEngine, rule: RenewalRule, h: number, hours: number): RenewalTable {
   const key = `${rule}|${e.weibullShape}|${e.weibullScaleHours}|${e.lifeHours}|${e.serviceIntervalHours}|${h}`;
-  const cells = Math.ceil(hours / h) + 2;
+  // rounded up to a multiple of 256 cells, so the trucks of a case (each a little longer) share one table
+  const cells = Math.ceil((Math.ceil(hours / h) + 2) / 256) * 256;
   const found = cache.get(key);
   if (found && found.n >= cells) return found;
   const table = buildRenewalTable(e, rule, h, cells);

@@ -64,7 +64,10 @@ export function breakEven(ev: Evaluator, d: DriverRef, range?: readonly [number,
   if (!bestBracket) return { ...out, kind: 'none', value: null, signThroughout: Math.sign(fs[0]) };
   const [i, j] = bestBracket;
   if (i === j) return { ...out, kind: 'crossing', value: xs[i], signThroughout: null };
-  const root = findRoot(f, xs[i], xs[j], fs[i], fs[j]);
+  // the expected valuation is accurate to about 1e-5 of an npv (MODEL.md section 11): locating its root to the
+  // last bit of the driver would only chase the grid's rounding, so it stops at 1e-9 of the driver
+  const xTol = ev.base.assumptions.valuation === 'median-path' ? 1e-14 : 1e-9;
+  const root = findRoot(f, xs[i], xs[j], fs[i], fs[j], 1e-9, xTol);
   const kind = Math.abs(root.fx) <= 1e-6 ? 'crossing' : 'step';
   return { ...out, kind, value: root.x, signThroughout: null };
 }

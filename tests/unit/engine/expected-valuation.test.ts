@@ -40,8 +40,8 @@ describe('renewal functions against closed forms', () => {
       const eta = 20000;
       const mu = eta * (gamma(1 + 1 / beta) as number);
       const variance = eta * eta * (gamma(1 + 2 / beta) as number) - mu * mu;
-      const t = buildRenewalTable({ weibullShape: beta, weibullScaleHours: eta, lifeHours: 1e5, serviceIntervalHours: 250 }, 'keep', eta / 800, 12 * mu);
-      const at = 12 * mu;
+      const t = buildRenewalTable({ weibullShape: beta, weibullScaleHours: eta, lifeHours: 1e5, serviceIntervalHours: 250 }, 'keep', eta / 400, 8 * mu);
+      const at = 8 * mu;
       expect(Math.abs(readTable(t.U, t.h, at) - at / mu - (variance - mu * mu) / (2 * mu * mu))).toBeLessThan(1e-4);
     }
   });
