@@ -17,6 +17,10 @@ const mono = localFont({
   display: 'swap',
 });
 
+// Every page renders per request: the Content-Security-Policy from proxy.ts carries
+// a fresh nonce, which Next puts on its scripts only when it renders the page.
+export const dynamic = 'force-dynamic';
+
 export const metadata: Metadata = {
   title: { default: 'Haulcase', template: '%s · Haulcase' },
   description: 'Keep, rebuild or repower: haul truck engine business cases.',

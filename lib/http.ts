@@ -2,6 +2,10 @@ import { NextResponse } from 'next/server';
 import { z } from 'zod';
 import { EventLimitError } from '@/lib/engine/limits';
 import { CaseValidationError } from '@/lib/validation/case';
+import { BODY_LIMITS, BodyTooLargeError, limitBody, type BodyLimit } from '@/lib/http/body';
+import { checkContentType, checkSameOrigin, HSTS, isHttps, RequestRefused, SAFE_METHODS, type BodyKind } from '@/lib/http/origin';
+
+export { BODY_LIMITS, type BodyLimit } from '@/lib/http/body';
 
 export type Problem = { path: string; message: string };
 
@@ -38,16 +42,31 @@ export function parseOr422<T extends z.ZodType>(schema: T, data: unknown): z.inf
   return r.data;
 }
 
-/** Read a JSON body or throw a 422 that says the body is not JSON. */
+/** Read a JSON body or throw a 422 that says the body is not JSON (a body over its limit stays a 413). */
 export async function readJson(request: Request): Promise<unknown> {
   try {
     return await request.json();
-  } catch {
+  } catch (err) {
+    if (err instanceof BodyTooLargeError) throw err;
     throw invalid([{ path: '(body)', message: 'The request body is not valid JSON.' }]);
   }
 }
 
+/** Read a multipart body or throw a 422 with `message` (a body over its limit stays a 413). */
+export async function readForm(request: Request, message: string): Promise<FormData> {
+  try {
+    return await request.formData();
+  } catch (err) {
+    if (err instanceof BodyTooLargeError) throw err;
+    throw invalid([{ path: '(body)', message }]);
+  }
+}
+
 export function errorResponse(err: unknown): NextResponse {
+  if (err instanceof BodyTooLargeError) {
+    return NextResponse.json({ error: err.message, limitBytes: err.limit.bytes }, { status: 413, headers: { connection: 'close' } });
+  }
+  if (err instanceof RequestRefused) return NextResponse.json({ error: err.message }, { status: err.status });
   if (err instanceof HttpError) {
     return NextResponse.json({ error: err.message, ...(err.problems ? { problems: err.problems } : {}) }, { status: err.status });
   }
@@ -67,16 +86,54 @@ export function errorResponse(err: unknown): NextResponse {
 
 type Ctx<P> = { params: Promise<P> };
 
-/**
- * Wraps a route handler: any HttpError or ZodError becomes its JSON answer,
- * anything else a generic 500 with the cause logged on the server.
- */
-export function route<P = Record<string, string>>(handler: (request: Request, ctx: Ctx<P>) => Promise<Response>) {
-  return async (request: Request, ctx: Ctx<P>): Promise<Response> => {
+export type RouteOptions = {
+  /** What a state-changing request must send (Content-Type): JSON unless the route takes an upload. */
+  body?: BodyKind;
+  /** The most bytes the body may have (BODY_LIMITS.json unless said). */
+  limit?: BodyLimit;
+};
+
+/** Headers on every API answer: never cached; HSTS when served over https. */
+export function withApiHeaders(response: Response, request: Request): Response {
+  let res = response;
+  const set = (name: string, value: string) => {
     try {
-      return await handler(request, ctx);
-    } catch (err) {
-      return errorResponse(err);
+      res.headers.set(name, value);
+    } catch {
+      // immutable headers (Response.redirect): copy the answer once
+      res = new Response(res.body, res);
+      res.headers.set(name, value);
     }
+  };
+  if (!res.headers.has('cache-control')) set('cache-control', 'no-store');
+  if (isHttps(request)) set('strict-transport-security', HSTS);
+  return res;
+}
+
+/**
+ * Wraps a route handler:
+ *  - a state-changing request (not GET, HEAD, OPTIONS) must come from the app's
+ *    own origin (403) with the route's content type (415): `lib/http/origin.ts`;
+ *  - the body is refused on Content-Length over the route's limit (413) and read
+ *    through a stream that stops at the limit: `lib/http/body.ts`;
+ *  - any HttpError or ZodError becomes its JSON answer, anything else a generic
+ *    500 with the cause logged on the server;
+ *  - every answer is `Cache-Control: no-store` (HSTS over https).
+ */
+export function route<P = Record<string, string>>(handler: (request: Request, ctx: Ctx<P>) => Promise<Response>, options: RouteOptions = {}) {
+  const limit = options.limit ?? BODY_LIMITS.json;
+  const kind = options.body ?? 'json';
+  return async (request: Request, ctx: Ctx<P>): Promise<Response> => {
+    let response: Response;
+    try {
+      if (!SAFE_METHODS.has(request.method.toUpperCase())) {
+        checkSameOrigin(request);
+        checkContentType(request, kind);
+      }
+      response = await handler(limitBody(request, limit), ctx);
+    } catch (err) {
+      response = errorResponse(err);
+    }
+    return withApiHeaders(response, request);
   };
 }

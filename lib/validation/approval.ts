@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 import { stripControlCharacters, stripControlKeepingLines } from './control-characters';
 import { DECISIONS } from '@/lib/approvals/workflow';
 import { roleSchema } from '@/lib/auth/roles';

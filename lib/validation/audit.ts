@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 
 const day = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2027-03-31.');
 const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v);

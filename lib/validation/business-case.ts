@@ -3,7 +3,7 @@
  * trucks with the repower offer for each (null = the truck's own offer), and
  * the capital-plan settings. One schema per shape, shared by forms and handlers.
  */
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 import { plainText } from './fleet';
 
 /** Largest budget for one year of the capital plan. */

@@ -5,7 +5,7 @@
  *
  * The sub-schemas are exported for the fleet-register forms.
  */
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 import { crossFieldProblems, orderProblems, plainProblems, type CaseProblem } from './case-checks';
 
 export { formatPath, type CaseProblem } from './case-checks';

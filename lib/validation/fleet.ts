@@ -4,7 +4,7 @@
  * Numeric constraints come from the case/1 schema (MODEL.md section 9) so a
  * record the register accepts is one the engine accepts.
  */
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema } from './case';
 import { stripControlKeepingLines } from './control-characters';
 

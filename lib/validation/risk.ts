@@ -3,7 +3,7 @@
  * ("fuelPrice", "modulePrice@offer-id", "annualHours@*") are checked against
  * the case on the server (lib/risk/requests.ts), since only it knows the ids.
  */
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 
 /** A driver value: finite and within ±1e12 here; the server then checks it against the driver's own range (lib/risk/requests.ts). */
 const finite = () =>

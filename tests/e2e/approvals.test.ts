@@ -1,7 +1,7 @@
 import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
-import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+import { openBrowser, screenshot, signIn, signOut, WS, apiHeaders } from './support/browser';
 
 /** The link in a message's plain-text part, read from the Outbox page as an admin would. */
 async function linkFromOutbox(page: Page, baseURL: string, subject: string, pathPart: string): Promise<string> {
@@ -32,6 +32,7 @@ describe('approval by e-mail, end to end', () => {
     const options = await (await context.request.get(`${baseURL}/api/workspaces/${WS}/cases/options`)).json();
     const base = options.assumptionSets.find((s: { name: string }) => s.name === 'Base');
     const created = await context.request.post(`${baseURL}/api/workspaces/${WS}/cases`, {
+      headers: apiHeaders(baseURL),
       data: { name: caseName, assumptionSetId: base.id, selection: options.trucks.map((t: { id: number }) => ({ truckId: t.id, repowerOfferId: null })) },
     });
     expect(created.status()).toBe(201);

@@ -5,7 +5,7 @@
 import fs from 'node:fs';
 import ExcelJS from 'exceljs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { WS, openBrowser, screenshot, signIn, signOut } from './support/browser';
+import { WS, openBrowser, screenshot, signIn, signOut, apiHeaders } from './support/browser';
 
 describe('case export from the case page', () => {
   let b: Awaited<ReturnType<typeof openBrowser>>;
@@ -19,6 +19,7 @@ describe('case export from the case page', () => {
     const opts = await (await b.page.request.get(`${b.baseURL}/api/workspaces/${WS}/cases/options`)).json();
     const base = opts.assumptionSets.find((s: { name: string }) => s.name === 'Base');
     const made = await b.page.request.post(`${b.baseURL}/api/workspaces/${WS}/cases`, {
+      headers: apiHeaders(b.baseURL),
       data: { name: 'North Pit export check', assumptionSetId: base.id, selection: opts.trucks.map((t: { id: number }) => ({ truckId: t.id, repowerOfferId: null })) },
     });
     expect(made.status()).toBe(201);

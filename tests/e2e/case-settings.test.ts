@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
-import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+import { openBrowser, screenshot, signIn, signOut, WS, apiHeaders } from './support/browser';
 
 describe('case settings on the case page, and the truck charts', () => {
   let page: Page;
@@ -70,7 +70,7 @@ describe('case settings on the case page, and the truck charts', () => {
     await settings().waitFor();
     // another person renames the case while this form is open
     const current = (await (await context.request.get(caseApi)).json()).case;
-    const other = await context.request.patch(caseApi, { data: { version: current.version, name: 'Renamed by a colleague' } });
+    const other = await context.request.patch(caseApi, { headers: apiHeaders(baseURL), data: { version: current.version, name: 'Renamed by a colleague' } });
     expect(other.status()).toBe(200);
 
     await page.getByLabel('Case name').fill('My late rename');
@@ -118,7 +118,7 @@ describe('case settings on the case page, and the truck charts', () => {
     expect(await page.getByRole('button', { name: 'Edit case settings' }).count()).toBe(0);
     expect(await page.getByTestId('case-settings').count()).toBe(0);
     const current = (await (await context.request.get(caseApi)).json()).case;
-    const r = await context.request.patch(caseApi, { data: { version: current.version, name: 'Viewer rename' } });
+    const r = await context.request.patch(caseApi, { headers: apiHeaders(baseURL), data: { version: current.version, name: 'Viewer rename' } });
     expect(r.status()).toBe(403);
     await signOut(page);
   });

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Knex } from 'knex';
 import type { BrowserContext, Page } from 'playwright-core';
 import { createKnex } from '@/lib/db/connection';
-import { openBrowser, signIn, signOut, WS } from './support/browser';
+import { openBrowser, signIn, signOut, WS, apiHeaders } from './support/browser';
 import { createSyntheticWorkspace } from './support/synthetic-fleet';
 
 const SYNTH = 'synthetic-two-hundred';
@@ -31,6 +31,7 @@ describe('time to evaluate and render a case', () => {
     const trucks: number = opts.trucks.length;
     const base = opts.assumptionSets.find((s: { name: string }) => s.name === 'Base');
     const created = await context.request.post(`${baseURL}/api/workspaces/${slug}/cases`, {
+      headers: apiHeaders(baseURL),
       data: { name: `Timing ${trucks}`, assumptionSetId: base.id, selection: opts.trucks.map((t: { id: number }) => ({ truckId: t.id, repowerOfferId: null })) },
     });
     expect(created.status()).toBe(201);

@@ -4,7 +4,7 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
-import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+import { openBrowser, screenshot, signIn, signOut, WS, apiHeaders } from './support/browser';
 
 /** "(14,189)" → −14189; "—" → null. */
 const num = (s: string): number | null => {
@@ -182,7 +182,7 @@ describe('business cases in the browser', () => {
     expect(await page.getByLabel('Swaps per month').isDisabled()).toBe(true);
     expect(await page.getByRole('button', { name: 'Save and plan' }).count()).toBe(0);
     const id = caseUrl.split('/').pop();
-    const r = await context.request.patch(`${baseURL}/api/workspaces/${WS}/cases/${id}`, { data: { version: 2, name: 'viewer was here' } });
+    const r = await context.request.patch(`${baseURL}/api/workspaces/${WS}/cases/${id}`, { headers: apiHeaders(baseURL), data: { version: 2, name: 'viewer was here' } });
     expect(r.status()).toBe(403);
     await signOut(page);
   });

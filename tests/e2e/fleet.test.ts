@@ -4,7 +4,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { createKnex } from '@/lib/db/connection';
-import { openBrowser, screenshot, signIn, signOut, WS } from './support/browser';
+import { openBrowser, screenshot, signIn, signOut, WS, apiHeaders } from './support/browser';
 
 /** Puts the demo fleet back as seeded (other browser files compare with it): drops the imported trucks and the test's own case, restores T3-01. */
 async function restoreDemoFleet() {
@@ -146,9 +146,9 @@ describe('fleet register, import and quote documents in the browser', () => {
 
     const trucks = await (await context.request.get(`${baseURL}/api/workspaces/${WS}/trucks`)).json();
     const t = trucks.items.find((x: { unitNumber: string }) => x.unitNumber === 'T3-01');
-    const put = await context.request.put(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`, { data: { ...t, engineHours: 1, version: t.version } });
+    const put = await context.request.put(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`, { headers: apiHeaders(baseURL), data: { ...t, engineHours: 1, version: t.version } });
     expect(put.status()).toBe(403);
-    const del = await context.request.delete(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`);
+    const del = await context.request.delete(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`, { headers: apiHeaders(baseURL) });
     expect(del.status()).toBe(403);
     const after = await (await context.request.get(`${baseURL}/api/workspaces/${WS}/trucks/${t.id}`)).json();
     expect(after.engineHours).toBe(1234);

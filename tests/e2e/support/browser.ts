@@ -49,3 +49,10 @@ export async function screenshot(page: Page, name: string) {
   fs.mkdirSync(dir, { recursive: true });
   await page.screenshot({ path: path.join(dir, `${name}.png`), fullPage: true });
 }
+
+/**
+ * Headers for a state-changing API call made with Playwright's request context
+ * (which sends no Origin): the app refuses writes that do not come from its own
+ * origin as JSON (lib/http/origin.ts), as a page of the app would send them.
+ */
+export const apiHeaders = (baseURL: string) => ({ origin: baseURL, 'content-type': 'application/json' });

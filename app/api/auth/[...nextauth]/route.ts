@@ -1,15 +1,33 @@
 import NextAuth from 'next-auth';
-import { NextResponse } from 'next/server';
+import { NextRequest, NextResponse } from 'next/server';
 import { authOptions } from '@/lib/auth/options';
 import { checkSignInThrottle, clientAddress } from '@/lib/auth/throttle';
 import { db } from '@/lib/db';
+import { BODY_LIMITS, errorResponse, withApiHeaders } from '@/lib/http';
+import { readBytes } from '@/lib/http/body';
 
 const handler = NextAuth(authOptions);
 
 type Ctx = { params: Promise<{ nextauth: string[] }> };
 
+/**
+ * next-auth's POSTs (sign-in callback, sign-out, …) keep next-auth's own CSRF
+ * token; their bodies are read here first, at most BODY_LIMITS.auth (413 on a
+ * larger Content-Length or stream), and next-auth reads that copy.
+ */
+async function post(incoming: NextRequest, ctx: Ctx) {
+  let request: NextRequest;
+  try {
+    const bytes = await readBytes(incoming, BODY_LIMITS.auth);
+    request = new NextRequest(incoming.url, { method: 'POST', headers: incoming.headers, body: bytes.byteLength ? bytes : undefined });
+  } catch (err) {
+    return withApiHeaders(errorResponse(err), incoming);
+  }
+  return throttled(request, ctx);
+}
+
 /** Sign-in attempts are refused with 429 while that account and address are throttled. */
-async function post(request: Request, ctx: Ctx) {
+async function throttled(request: NextRequest, ctx: Ctx) {
   const { nextauth } = await ctx.params;
   if (nextauth.join('/') === 'callback/credentials') {
     const form = await request.clone().formData().catch(() => null);

@@ -3,7 +3,7 @@ import { requestPasswordReset } from '@/lib/accounts/password-reset';
 import { admitResetRequest } from '@/lib/auth/reset-throttle';
 import { clientAddress } from '@/lib/auth/throttle';
 import { db } from '@/lib/db';
-import { parseOr422, readJson, route } from '@/lib/http';
+import { BODY_LIMITS, parseOr422, readJson, route } from '@/lib/http';
 import { forgotPasswordSchema } from '@/lib/validation/approval';
 
 /**
@@ -23,4 +23,4 @@ export const POST = route(async (req) => {
   }
   await requestPasswordReset(email);
   return NextResponse.json({ ok: true, message: 'If an account uses that address, a link to reset its password is on its way.' });
-});
+}, { limit: BODY_LIMITS.auth });

@@ -4,7 +4,7 @@ import { CAN } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { buildCaseFile } from '@/lib/db/queries/case-file';
 import { importCaseFile } from '@/lib/db/queries/case-file-import';
-import { invalid, notFound, readJson, route } from '@/lib/http';
+import { BODY_LIMITS, invalid, notFound, readJson, route } from '@/lib/http';
 import { validateCase } from '@/lib/validation/case';
 import { caseFileTextProblems } from '@/lib/validation/fleet';
 
@@ -45,4 +45,4 @@ export const POST = route<P>(async (req, { params }) => {
   if (text.length) throw invalid(text, `The case file has ${text.length} problem(s) in its names and ids; nothing was saved.`);
   const counts = await db().transaction((trx) => importCaseFile(trx, access, v.value));
   return NextResponse.json({ name: v.value.name, ...counts });
-});
+}, { limit: BODY_LIMITS.caseFile });

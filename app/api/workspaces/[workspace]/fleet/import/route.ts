@@ -2,7 +2,7 @@ import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
-import { invalid, route } from '@/lib/http';
+import { BODY_LIMITS, invalid, readForm, route } from '@/lib/http';
 import { IMPORT_LIMITS } from '@/lib/import/columns';
 import { commitFleetImport, loadImportLookups } from '@/lib/import/fleet-import';
 import { FileProblem, readTable } from '@/lib/import/read-table';
@@ -25,14 +25,12 @@ const summary = (fileName: string, plan: FleetImportPlan) => ({
  */
 export const POST = route<{ workspace: string }>(async (req, { params }) => {
   const access = await requireMember((await params).workspace, CAN.edit);
-  const form = await req.formData().catch(() => {
-    throw invalid([{ path: '(body)', message: 'Send the file as multipart/form-data with a "file" field.' }]);
-  });
+  const form = await readForm(req, 'Send the file as multipart/form-data with a "file" field.');
   const file = form.get('file');
   const mode = String(form.get('mode') ?? 'preview');
   if (mode !== 'preview' && mode !== 'commit') throw invalid([{ path: 'mode', message: 'must be "preview" or "commit"' }]);
   if (!file || typeof file === 'string') throw invalid([{ path: 'file', message: 'Choose a CSV or XLSX file to import.' }]);
-  // Refuse before reading the body into memory.
+  // (the body itself is capped at the file limit plus the multipart framing by route())
   if (file.size > IMPORT_LIMITS.maxBytes) throw invalid([{ path: 'file', message: `The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is 5 MB.` }], 'The file is too large.');
 
   let table;
@@ -64,4 +62,4 @@ export const POST = route<{ workspace: string }>(async (req, { params }) => {
     );
   }
   return NextResponse.json({ ...summary(file.name, result.plan), ...result.saved });
-});
+}, { body: 'multipart', limit: BODY_LIMITS.fleetImport });

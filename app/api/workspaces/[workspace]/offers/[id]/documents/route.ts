@@ -2,7 +2,7 @@ import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { parseId } from '@/lib/api/crud';
-import { invalid, route } from '@/lib/http';
+import { BODY_LIMITS, readForm, route } from '@/lib/http';
 import { listQuoteDocuments, saveQuoteDocument } from '@/lib/db/queries/quote-documents';
 
 type P = { workspace: string; id: string };
@@ -19,9 +19,7 @@ export const POST = route<P>(async (req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.edit);
   const offerId = parseId(p.id);
-  const form = await req.formData().catch(() => {
-    throw invalid([{ path: '(body)', message: 'Send the document as multipart/form-data with a "file" field.' }]);
-  });
+  const form = await readForm(req, 'Send the document as multipart/form-data with a "file" field.');
   const doc = await saveQuoteDocument(access, offerId, form.get('file') as File | null);
   return NextResponse.json(doc, { status: 201 });
-});
+}, { body: 'multipart', limit: BODY_LIMITS.quoteDocument });
