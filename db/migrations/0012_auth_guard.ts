@@ -8,6 +8,8 @@ import type { Knex } from 'knex';
  * (or holds the last attempt, for growing delays), `nextAt` is the earliest
  * time the key is admitted again (null: now). Replaces sign_in_attempts, whose
  * read-then-insert let a burst of attempts through.
+ * users.sessionStamp: moved when the user signs out; a session whose token
+ * carries another stamp no longer counts (lib/auth/session-current.ts).
  */
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('throttle_counters', (t) => {
@@ -17,9 +19,15 @@ export async function up(knex: Knex): Promise<void> {
     t.string('nextAt', 32).nullable();
   });
   await knex.schema.dropTableIfExists('sign_in_attempts');
+  await knex.schema.alterTable('users', (t) => {
+    t.string('sessionStamp', 32).nullable();
+  });
 }
 
 export async function down(knex: Knex): Promise<void> {
+  await knex.schema.alterTable('users', (t) => {
+    t.dropColumn('sessionStamp');
+  });
   await knex.schema.createTable('sign_in_attempts', (t) => {
     t.increments('id').primary();
     t.string('email', 320).notNullable();

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { db } from '../db';
 import { DUMMY_PASSWORD_HASH, verifyPassword } from './password';
 import { authSecret } from './secret';
+import { endSessions } from './session-current';
 import { admitSignIn, clientAddress, settleSignIn } from './throttle';
 
 const credentialsSchema = z.object({ email: z.string().trim().toLowerCase().email(), password: z.string().min(1).max(200) });
@@ -34,7 +35,7 @@ export const authOptions: NextAuthOptions = {
         const ok = (await verifyPassword(password, user?.passwordHash ?? DUMMY_PASSWORD_HASH)) && Boolean(user);
         await settleSignIn(k, email, address, ok);
         if (!ok) return null;
-        return { id: String(user.id), email: user.email, name: user.name, passwordChangedAt: user.passwordChangedAt ?? null };
+        return { id: String(user.id), email: user.email, name: user.name, passwordChangedAt: user.passwordChangedAt ?? null, sessionStamp: user.sessionStamp ?? null };
       },
     }),
   ],
@@ -42,8 +43,9 @@ export const authOptions: NextAuthOptions = {
     async jwt({ token, user }) {
       if (user) {
         token.uid = Number(user.id);
-        // the password stamp at sign-in; a later reset makes it stale (lib/auth/session.ts)
+        // the stamps at sign-in; a later reset or sign-out makes them stale (lib/auth/session.ts)
         token.pwc = user.passwordChangedAt ?? null;
+        token.sst = user.sessionStamp ?? null;
       }
       return token;
     },
@@ -51,8 +53,15 @@ export const authOptions: NextAuthOptions = {
       if (session.user && typeof token.uid === 'number') {
         session.user.id = token.uid;
         session.user.passwordChangedAt = token.pwc ?? null;
+        session.user.sessionStamp = token.sst ?? null;
       }
       return session;
+    },
+  },
+  events: {
+    // Signing out moves the user's session stamp, so a copy of this cookie (or any other session of the user) stops working.
+    async signOut({ token }) {
+      if (token && typeof token.uid === 'number') await endSessions(token.uid, { passwordChangedAt: token.pwc, sessionStamp: token.sst });
     },
   },
 };
