@@ -26,12 +26,19 @@ export async function requestPasswordReset(email: string): Promise<void> {
   await mailCommitted();
 }
 
-/** Sets the new password and spends the token (and any other open token of the account). */
+/**
+ * Sets the new password and spends the token (and any other open token of the
+ * account). The token is looked up first: an unknown, used or expired one
+ * answers 410 without the new password being hashed, so made-up tokens cost
+ * no bcrypt work; it is checked again in the transaction that spends it.
+ */
 export async function resetPassword(token: string, password: string): Promise<{ email: string }> {
+  const tokenHash = hashToken(token);
+  assertUsable(await db()('password_resets').where({ tokenHash }).first(), 'password reset', new Date(), 410);
   const passwordHash = await hashPassword(password);
   return db().transaction(async (trx) => {
-    const row = await trx('password_resets').where({ tokenHash: hashToken(token) }).first();
-    assertUsable(row, 'password reset');
+    const row = await trx('password_resets').where({ tokenHash }).first();
+    assertUsable(row, 'password reset', new Date(), 410);
     const at = nowIso();
     const used = await trx('password_resets').where({ userId: row.userId }).whereNull('usedAt').update({ usedAt: at });
     if (used < 1) throw new HttpError(410, 'This password reset link has already been used. Links work once.');
