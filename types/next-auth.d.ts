@@ -3,10 +3,11 @@ import 'next-auth/jwt';
 
 declare module 'next-auth' {
   interface Session {
-    user: { id: number; email?: string | null; name?: string | null; passwordChangedAt?: string | null };
+    user: { id: number; email?: string | null; name?: string | null; passwordChangedAt?: string | null; sessionStamp?: string | null };
   }
   interface User {
     passwordChangedAt?: string | null;
+    sessionStamp?: string | null;
   }
 }
 
@@ -15,5 +16,7 @@ declare module 'next-auth/jwt' {
     uid?: number;
     /** users.passwordChangedAt when this token was issued */
     pwc?: string | null;
+    /** users.sessionStamp when this token was issued (moved by a sign-out) */
+    sst?: string | null;
   }
 }

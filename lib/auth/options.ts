@@ -2,9 +2,10 @@ import type { NextAuthOptions } from 'next-auth';
 import CredentialsProvider from 'next-auth/providers/credentials';
 import { z } from 'zod';
 import { db } from '../db';
-import { verifyPassword } from './password';
+import { DUMMY_PASSWORD_HASH, verifyPassword } from './password';
 import { authSecret } from './secret';
-import { checkSignInThrottle, clientAddress, recordSignInAttempt } from './throttle';
+import { endSessions } from './session-current';
+import { admitSignIn, clientAddress, settleSignIn } from './throttle';
 
 const credentialsSchema = z.object({ email: z.string().trim().toLowerCase().email(), password: z.string().min(1).max(200) });
 
@@ -25,14 +26,16 @@ export const authOptions: NextAuthOptions = {
         const { email, password } = parsed.data;
         const address = clientAddress((req?.headers ?? {}) as Record<string, string>);
         const k = db();
-        // The route handler refuses locked callers with 429 before this runs; this is the backstop.
-        const state = await checkSignInThrottle(k, email, address);
-        if (state.locked) throw new Error('Throttled');
+        // Counted (atomically) before the password is checked: a refused attempt never reaches bcrypt.
+        // The route handler answers 429 to callers it can see are waiting; this is the decision.
+        const admission = await admitSignIn(k, email, address);
+        if (!admission.allowed) throw new Error('Throttled');
         const user = await k('users').where({ email }).first();
-        const ok = user ? await verifyPassword(password, user.passwordHash) : false;
-        await recordSignInAttempt(k, email, address, ok);
+        // an address without an account is compared against a dummy hash, so it takes as long as a wrong password
+        const ok = (await verifyPassword(password, user?.passwordHash ?? DUMMY_PASSWORD_HASH)) && Boolean(user);
+        await settleSignIn(k, email, address, ok);
         if (!ok) return null;
-        return { id: String(user.id), email: user.email, name: user.name, passwordChangedAt: user.passwordChangedAt ?? null };
+        return { id: String(user.id), email: user.email, name: user.name, passwordChangedAt: user.passwordChangedAt ?? null, sessionStamp: user.sessionStamp ?? null };
       },
     }),
   ],
@@ -40,8 +43,9 @@ export const authOptions: NextAuthOptions = {
     async jwt({ token, user }) {
       if (user) {
         token.uid = Number(user.id);
-        // the password stamp at sign-in; a later reset makes it stale (lib/auth/session.ts)
+        // the stamps at sign-in; a later reset or sign-out makes them stale (lib/auth/session.ts)
         token.pwc = user.passwordChangedAt ?? null;
+        token.sst = user.sessionStamp ?? null;
       }
       return token;
     },
@@ -49,8 +53,15 @@ export const authOptions: NextAuthOptions = {
       if (session.user && typeof token.uid === 'number') {
         session.user.id = token.uid;
         session.user.passwordChangedAt = token.pwc ?? null;
+        session.user.sessionStamp = token.sst ?? null;
       }
       return session;
+    },
+  },
+  events: {
+    // Signing out moves the user's session stamp, so a copy of this cookie (or any other session of the user) stops working.
+    async signOut({ token }) {
+      if (token && typeof token.uid === 'number') await endSessions(token.uid, { passwordChangedAt: token.pwc, sessionStamp: token.sst });
     },
   },
 };

@@ -7,6 +7,7 @@ import { GET as auditCsv } from '@/app/api/workspaces/[workspace]/audit/csv/rout
 import { GET as outbox } from '@/app/api/workspaces/[workspace]/outbox/route';
 import { POST as invite } from '@/app/api/workspaces/[workspace]/invitations/route';
 import { POST as forgot } from '@/app/api/password/forgot/route';
+import { settlePasswordResetRequests } from '@/lib/accounts/password-reset';
 import { openMailDb } from './support/mail-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
@@ -83,6 +84,7 @@ describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
     signInAs(null);
     await call(forgot, {}, { body: { email: 'viewer@aldervane.test' } });
     await call(forgot, {}, { body: { email: 'admin@corrin.test' } });
+    await settlePasswordResetRequests(); // the resets are written after the answers
 
     signInAs(ids['analyst@aldervane.test']);
     expect((await call(outbox, WS)).status).toBe(403);

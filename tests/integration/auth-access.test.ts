@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
 import type { Knex } from 'knex';
 import { useDbForTests } from '@/lib/db';
-import { checkSignInThrottle, clientAddress, recordSignInAttempt, THROTTLE, UNKNOWN_ADDRESS } from '@/lib/auth/throttle';
+import { clientAddress, UNKNOWN_ADDRESS } from '@/lib/auth/throttle';
 import { verifyPassword } from '@/lib/auth/password';
 import { DEMO_PASSWORD } from '@/db/seeds/demo';
 import { GET as getMembers } from '@/app/api/workspaces/[workspace]/members/route';
@@ -93,41 +93,11 @@ describe.each(backends)('access checks and migrations on $name', ({ pg }) => {
     expect(await verifyPassword('wrong', u.passwordHash)).toBe(false);
   });
 
-  it('throttles failed sign-ins per account and address, and a good sign-in clears them', async () => {
-    const email = 'analyst@aldervane.test';
-    for (let i = 0; i < THROTTLE.perAccountAndAddress - 1; i++) await recordSignInAttempt(k, email, '10.0.0.9', false);
-    expect((await checkSignInThrottle(k, email, '10.0.0.9')).locked).toBe(false);
-    await recordSignInAttempt(k, email, '10.0.0.9', false);
-    const state = await checkSignInThrottle(k, email, '10.0.0.9');
-    expect(state.locked).toBe(true);
-    if (state.locked) expect(state.retryAfterSeconds).toBeGreaterThan(THROTTLE.windowMinutes * 60 - 60);
-    // Another address, or the same address for another account, is not locked by these.
-    expect((await checkSignInThrottle(k, email, '10.0.0.10')).locked).toBe(false);
-    expect((await checkSignInThrottle(k, 'viewer@aldervane.test', '10.0.0.9')).locked).toBe(false);
-    // Once the window has passed the lock lifts.
-    const later = new Date(Date.now() + (THROTTLE.windowMinutes + 1) * 60_000);
-    expect((await checkSignInThrottle(k, email, '10.0.0.9', later)).locked).toBe(false);
-    await recordSignInAttempt(k, email, '10.0.0.9', true);
-    expect((await checkSignInThrottle(k, email, '10.0.0.9')).locked).toBe(false);
-  });
-
-  it('locks an account after too many failures from any mix of addresses (regression: a new X-Forwarded-For per try bypassed the lock)', async () => {
-    const email = 'approver@aldervane.test';
-    for (let i = 0; i < THROTTLE.perAccount; i++) await recordSignInAttempt(k, email, `10.1.${i}.1`, false);
-    expect((await checkSignInThrottle(k, email, '10.9.9.9')).locked).toBe(true);
-    await recordSignInAttempt(k, email, '10.9.9.9', true);
-  });
-
   it('reads forwarding headers only behind a trusted proxy, and then its own (right-most) entry', () => {
     const h = new Headers({ 'x-forwarded-for': '203.0.113.7, 198.51.100.2' });
     expect(clientAddress(h, {})).toBe(UNKNOWN_ADDRESS);
     expect(clientAddress(h, { HAULCASE_TRUSTED_PROXY: '1' })).toBe('198.51.100.2');
     expect(clientAddress(new Headers(), { HAULCASE_TRUSTED_PROXY: '1' })).toBe(UNKNOWN_ADDRESS);
-  });
-
-  it('does not let failures on one account lock out others when callers share an unknown address', async () => {
-    for (let i = 0; i < THROTTLE.perAddress; i++) await recordSignInAttempt(k, `nobody${i}@aldervane.test`, UNKNOWN_ADDRESS, false);
-    expect((await checkSignInThrottle(k, 'viewer@aldervane.test', UNKNOWN_ADDRESS)).locked).toBe(false);
   });
 
   it('rolls every migration back and forward again', async () => {

@@ -11,6 +11,7 @@ import type { Knex } from 'knex';
 import { POST as submit } from '@/app/api/workspaces/[workspace]/cases/[id]/submit/route';
 import { POST as decide } from '@/app/api/workspaces/[workspace]/cases/[id]/decisions/route';
 import { POST as forgot } from '@/app/api/password/forgot/route';
+import { settlePasswordResetRequests } from '@/lib/accounts/password-reset';
 import { GET as outbox } from '@/app/api/workspaces/[workspace]/outbox/route';
 import { deliverDueMail, enqueueMail, flushOutbox, OUTBOX, retryDelayMs, setOutboxKicksForTests, startOutboxSender } from '@/lib/mail/queue';
 import { useMailSinkForTests, type MailSink } from '@/lib/mail/sink';
@@ -176,6 +177,7 @@ describe.each(backends)('the mail outbox on $name', ({ pg }) => {
   it('writes a password reset mail in the transaction of its token, and account mail carries no workspace', async () => {
     setOutboxKicksForTests('off');
     expect((await call(forgot, {}, { body: { email: 'viewer@aldervane.test' } })).status).toBe(200);
+    await settlePasswordResetRequests(); // the reset is written after the answer
     const [row] = await k('mail_outbox');
     expect(row).toMatchObject({ subject: 'Reset your Haulcase password', workspaceSlug: null, status: 'pending' });
     expect(await k('password_resets').where({ userId: ids['viewer@aldervane.test'] }).whereNull('usedAt')).toHaveLength(1);

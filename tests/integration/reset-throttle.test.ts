@@ -2,13 +2,19 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import type { Knex } from 'knex';
 import { admitResetRequest, RESET_THROTTLE } from '@/lib/auth/reset-throttle';
 import { POST as forgot } from '@/app/api/password/forgot/route';
+import { settlePasswordResetRequests } from '@/lib/accounts/password-reset';
 import { openMailDb } from './support/mail-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
 
 vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
 
-const ask = (email: string, from: string) => call(forgot, {}, { body: { email }, headers: { 'x-forwarded-for': from } });
+// the reset and its mail are written after the answer: wait for them, as the mail checks below read the sink
+const ask = async (email: string, from: string) => {
+  const r = await call(forgot, {}, { body: { email }, headers: { 'x-forwarded-for': from } });
+  await settlePasswordResetRequests();
+  return r;
+};
 
 describe.each([
   { name: 'SQLite', pg: false },

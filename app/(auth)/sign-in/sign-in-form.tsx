@@ -6,7 +6,7 @@ import { safeCallback } from '@/lib/auth/callback';
 
 const MESSAGES: Record<string, string> = {
   CredentialsSignin: 'Wrong email or password. Check both and try again.',
-  Throttled: 'Too many failed sign-ins for this account from your address. Wait 15 minutes and try again.',
+  Throttled: 'Too many failed sign-ins for this account or from your address. Wait a little and try again: each further failure makes the wait longer (at most 15 minutes).',
   NoWorkspace: 'Your account is not a member of any workspace yet. Ask an admin to invite you.',
   SessionRequired: 'Sign in to continue.',
 };

@@ -1,7 +1,7 @@
 import NextAuth from 'next-auth';
 import { NextRequest, NextResponse } from 'next/server';
 import { authOptions } from '@/lib/auth/options';
-import { checkSignInThrottle, clientAddress } from '@/lib/auth/throttle';
+import { clientAddress, peekSignIn, waitText } from '@/lib/auth/throttle';
 import { db } from '@/lib/db';
 import { BODY_LIMITS, errorResponse, withApiHeaders } from '@/lib/http';
 import { readBytes } from '@/lib/http/body';
@@ -26,20 +26,23 @@ async function post(incoming: NextRequest, ctx: Ctx) {
   return throttled(request, ctx);
 }
 
-/** Sign-in attempts are refused with 429 while that account and address are throttled. */
+/**
+ * Sign-in attempts that must wait (lib/auth/throttle.ts) are refused with 429
+ * and Retry-After before next-auth runs; the count itself is taken in
+ * `authorize`, atomically, before the password is checked.
+ */
 async function throttled(request: NextRequest, ctx: Ctx) {
   const { nextauth } = await ctx.params;
   if (nextauth.join('/') === 'callback/credentials') {
     const form = await request.clone().formData().catch(() => null);
     const email = String(form?.get('email') ?? '').trim().toLowerCase();
     if (email) {
-      const state = await checkSignInThrottle(db(), email, clientAddress(request.headers));
-      if (state.locked) {
-        const minutes = Math.ceil(state.retryAfterSeconds / 60);
+      const state = await peekSignIn(db(), email, clientAddress(request.headers));
+      if (!state.allowed) {
         return NextResponse.json(
           {
             url: new URL('/sign-in?error=Throttled', request.url).toString(),
-            error: `Too many failed sign-ins for this account from your address. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}.`,
+            error: `Too many failed sign-ins for this account or from your address. Try again in ${waitText(state.retryAfterSeconds)}.`,
           },
           { status: 429, headers: { 'Retry-After': String(state.retryAfterSeconds) } },
         );

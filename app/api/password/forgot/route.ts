@@ -1,5 +1,5 @@
 import { NextResponse } from 'next/server';
-import { requestPasswordReset } from '@/lib/accounts/password-reset';
+import { requestPasswordResetAfterResponse } from '@/lib/accounts/password-reset';
 import { admitResetRequest } from '@/lib/auth/reset-throttle';
 import { clientAddress } from '@/lib/auth/throttle';
 import { db } from '@/lib/db';
@@ -9,7 +9,9 @@ import { forgotPasswordSchema } from '@/lib/validation/approval';
 /**
  * POST (public): mail a reset link if the address has an account. The answer is
  * the same either way; too many requests for one e-mail or from one address
- * answer 429 (also the same either way) and mail nothing.
+ * answer 429 (also the same either way) and mail nothing. The request path
+ * does the same work for a known and an unknown address (the throttle row);
+ * the reset itself runs after the answer.
  */
 export const POST = route(async (req) => {
   const { email } = parseOr422(forgotPasswordSchema, await readJson(req));
@@ -21,6 +23,7 @@ export const POST = route(async (req) => {
       { status: 429, headers: { 'Retry-After': String(state.retryAfterSeconds) } },
     );
   }
-  await requestPasswordReset(email);
+  // the account lookup, token and mail happen after this answer, so it looks and lasts the same for any address
+  requestPasswordResetAfterResponse(email);
   return NextResponse.json({ ok: true, message: 'If an account uses that address, a link to reset its password is on its way.' });
 }, { limit: BODY_LIMITS.auth });
