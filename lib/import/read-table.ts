@@ -36,8 +36,8 @@ const tooManyColumns = (row: number, columns: number) =>
  * Reads a CSV or XLSX file into a header and data rows; row numbers are the
  * file's own (header = row 1), so a person can find them in the spreadsheet.
  * Blank rows are skipped. The kind is decided from the contents, not the name.
- * Limits (IMPORT_LIMITS): 5 MB, 10,000 data rows; an XLSX archive is also
- * judged by its table of contents before anything is unpacked, and 100 columns.
+ * Limits (IMPORT_LIMITS): 5 MB, 10,000 data rows, 100 columns; an XLSX
+ * archive is also judged by its table of contents before anything is unpacked.
  */
 export async function readTable(fileName: string, bytes: Uint8Array): Promise<Table> {
   if (bytes.length === 0) throw new FileProblem('The file is empty.');
@@ -53,28 +53,95 @@ export async function readTable(fileName: string, bytes: Uint8Array): Promise<Ta
 // ---------------------------------------------------------------------------
 // CSV
 
-function tooMany(count: number) {
-  return new FileProblem(`The file has ${count.toLocaleString('en-US')} data rows; the limit is ${IMPORT_LIMITS.maxRows.toLocaleString('en-US')}. Split it into smaller files.`);
+/**
+ * The offset of the first byte that is not well-formed UTF-8 (the Unicode
+ * Standard, table 3-7: no overlong forms, no surrogates, nothing above
+ * U+10FFFF, no truncated sequence), or -1.
+ */
+export function firstInvalidUtf8(b: Uint8Array): number {
+  let i = 0;
+  while (i < b.length) {
+    const c = b[i];
+    if (c < 0x80) {
+      i++;
+      continue;
+    }
+    let need: number;
+    let lo = 0x80;
+    let hi = 0xbf;
+    if (c >= 0xc2 && c <= 0xdf) need = 1;
+    else if (c >= 0xe0 && c <= 0xef) {
+      need = 2;
+      if (c === 0xe0) lo = 0xa0;
+      if (c === 0xed) hi = 0x9f;
+    } else if (c >= 0xf0 && c <= 0xf4) {
+      need = 3;
+      if (c === 0xf0) lo = 0x90;
+      if (c === 0xf4) hi = 0x8f;
+    } else return i;
+    for (let k = 1; k <= need; k++) {
+      const d = b[i + k];
+      if (d === undefined || d < (k === 1 ? lo : 0x80) || d > (k === 1 ? hi : 0xbf)) return i;
+    }
+    i += need + 1;
+  }
+  return -1;
+}
+
+function decodeUtf8(bytes: Uint8Array): string {
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    const at = firstInvalidUtf8(bytes);
+    let line = 1;
+    for (let i = 0; i < at; i++) if (bytes[i] === 0x0a) line++;
+    const where = at >= 0 ? ` (the byte at offset ${num(at)}, on line ${num(line)}, is 0x${bytes[at].toString(16).toUpperCase().padStart(2, '0')})` : '';
+    throw new FileProblem(
+      `The file is not UTF-8 text${where}. It was probably saved as plain "CSV", in an older encoding such as Windows-1252 or Latin-1, so accented letters would be imported wrong. Save it again as "CSV UTF-8 (Comma delimited)" and import that file.`,
+    );
+  }
 }
 
 function readCsv(bytes: Uint8Array): Table {
-  let text = new TextDecoder('utf-8').decode(bytes);
+  let text = decodeUtf8(bytes); // refuses anything but UTF-8 before parsing
   if (text.charCodeAt(0) === 0xfeff) text = text.slice(1); // a byte-order mark from spreadsheet programs
-  const parsed = Papa.parse<string[]>(text, { skipEmptyLines: false });
-  const data = parsed.data;
-  const header = (data[0] ?? []).map((h) => String(h).trim());
+  let header: string[] = [];
   const rows: Table['rows'] = [];
-  for (let i = 1; i < data.length; i++) {
-    const cells: Cell[] = data[i].map((c) => c);
-    if (cells.every(blank)) continue;
-    rows.push({ row: i + 1, cells });
-    if (rows.length > IMPORT_LIMITS.maxRows) throw tooMany(countNonBlank(data.slice(1)));
+  let record = 0; // the file's row number of the record parsed last (header = 1)
+  let dataRows = 0;
+  let firstOver = 0;
+  let problem: FileProblem | null = null;
+  // One record at a time: the file is at most 5 MB; only the first 10,000 data rows are kept.
+  Papa.parse<string[]>(text, {
+    skipEmptyLines: false,
+    step: (result, parser) => {
+      record++;
+      const cells: Cell[] = result.data;
+      const columns = usedColumns(cells);
+      if (columns > IMPORT_LIMITS.maxColumns) {
+        problem = tooManyColumns(record, columns);
+        parser.abort();
+        return;
+      }
+      if (record === 1) {
+        header = result.data.map((h) => String(h).trim());
+        return;
+      }
+      if (cells.every(blank)) return;
+      dataRows++;
+      if (dataRows <= IMPORT_LIMITS.maxRows) rows.push({ row: record, cells });
+      else if (!firstOver) firstOver = record;
+    },
+  });
+  if (problem) throw problem;
+  if (dataRows > IMPORT_LIMITS.maxRows) {
+    throw new FileProblem(
+      `The file has ${num(dataRows)} data rows; the limit is ${num(IMPORT_LIMITS.maxRows)} (row ${num(firstOver)} is the first past it). Split it into smaller files.`,
+    );
   }
   if (header.every((h) => h === '') && rows.length === 0) throw new FileProblem('The file is empty.');
   return { header, rows };
 }
-
-const countNonBlank = (data: string[][]) => data.filter((r) => !r.every(blank)).length;
 
 // ---------------------------------------------------------------------------
 // XLSX
