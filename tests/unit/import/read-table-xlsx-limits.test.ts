@@ -180,6 +180,25 @@ describe('the streamed XLSX reader reads what the full reader read', () => {
     expect(t.rows.map((r) => r.cells)).toEqual([[2], [3], [4], [5], [6]]);
   });
 
+  it('takes the first sheet in the workbook\'s order, whatever its part is called (here sheet2.xml, by an absolute target)', async () => {
+    const NS = 'http://schemas.openxmlformats.org/spreadsheetml/2006/main';
+    const REL = 'http://schemas.openxmlformats.org/officeDocument/2006/relationships';
+    const sheet = (v: string) =>
+      `<worksheet xmlns="${NS}"><sheetData><row r="1"><c r="A1" t="inlineStr"><is><t>unit_number</t></is></c></row><row r="2"><c r="A2" t="inlineStr"><is><t>${v}</t></is></c></row></sheetData></worksheet>`;
+    const parts = workbookParts().map((p) =>
+      p.name === 'xl/workbook.xml'
+        ? { name: p.name, text: `<workbook xmlns="${NS}" xmlns:r="${REL}"><sheets><sheet name="Fleet" sheetId="2" r:id="rId2"/><sheet name="Other" sheetId="1" r:id="rId1"/></sheets></workbook>` }
+        : p.name === 'xl/_rels/workbook.xml.rels'
+          ? {
+              name: p.name,
+              text: `<Relationships xmlns="http://schemas.openxmlformats.org/package/2006/relationships"><Relationship Id="rId1" Type="${REL}/worksheet" Target="worksheets/sheet1.xml"/><Relationship Id="rId2" Type="${REL}/worksheet" Target="/xl/worksheets/sheet2.xml"/></Relationships>`,
+            }
+          : p,
+    );
+    const bytes = writeZip([...parts, { name: 'xl/worksheets/sheet1.xml', text: sheet('second tab') }, { name: 'xl/worksheets/sheet2.xml', text: sheet('first tab') }]);
+    expect((await readTable('order.xlsx', bytes)).rows).toEqual([{ row: 2, cells: ['first tab'] }]);
+  });
+
   it('answers "empty" for a workbook with no values', async () => {
     await expect(readTable('empty.xlsx', await workbook([]))).rejects.toThrow('The file is empty.');
   });
