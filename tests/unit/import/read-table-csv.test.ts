@@ -61,7 +61,7 @@ describe('issue 12: CSV encoding and size limits', () => {
     const ok = await readTable('fleet.csv', utf8(lines.slice(0, -1).join('\n')));
     expect(ok.rows).toHaveLength(10_000);
     expect(ok.rows[4]).toEqual({ row: 8, cells: ['U4', '300 t', 'x'] });
-  });
+  }, 120_000);
 
   it('keeps memory bounded on 5 MB of blank lines', async () => {
     const bytes = utf8(`${HEADER}\n${'\n'.repeat(5 * 1024 * 1024 - HEADER.length - 2)}`);
@@ -71,5 +71,5 @@ describe('issue 12: CSV encoding and size limits', () => {
     console.log(`5 MB of blank lines: resident set grew ${(growth / 1048576).toFixed(0)} MB`);
     expect(t.rows).toEqual([]);
     expect(growth).toBeLessThan(300 * 1024 * 1024);
-  });
+  }, 120_000);
 });
