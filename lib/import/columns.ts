@@ -23,4 +23,30 @@ export const FLEET_COLUMNS: ImportColumn[] = [
 
 export const FIELD_TO_COLUMN: Record<string, string> = Object.fromEntries(FLEET_COLUMNS.map((c) => [c.field, c.name]));
 
-export const IMPORT_LIMITS = { maxBytes: 5 * 1024 * 1024, maxRows: 10_000 };
+/**
+ * Limits of the fleet import (listed in docs/methodology.md, "Input limits").
+ * A 10,000-row fleet sheet written by Excel or exceljs is about 0.6 MB on disk
+ * and unpacks to about 4 MB of sheet XML and 1.3 MB of shared strings (each
+ * part stored about 10 times smaller than it unpacks); with 2,000-character
+ * notes on every row the shared strings reach about 20 MB. The XLSX limits
+ * leave room for that and refuse an archive that would unpack to gigabytes.
+ */
+export const IMPORT_LIMITS = {
+  /** The file as sent (CSV or XLSX). */
+  maxBytes: 5 * 1024 * 1024,
+  /** Data rows (not counting the header or blank rows). */
+  maxRows: 10_000,
+  /** Columns in a row, up to its last non-empty cell (the fleet sheet has 11). */
+  maxColumns: 100,
+  /** Files inside an XLSX archive (a saved workbook holds 10 to 30). */
+  xlsxMaxEntries: 200,
+  /** Declared unpacked size of one file inside the XLSX archive. */
+  xlsxMaxEntryBytes: 50 * 1024 * 1024,
+  /** Declared unpacked size of all files inside the XLSX archive together. */
+  xlsxMaxTotalBytes: 100 * 1024 * 1024,
+  /** Unpacked ÷ packed size of a file inside the archive that unpacks to more than `xlsxRatioFloorBytes` (sheet XML is about 10). */
+  xlsxMaxRatio: 200,
+  xlsxRatioFloorBytes: 1024 * 1024,
+  /** Unpacked size of the styles part (read for number formats, so that a date stays a date): Excel's 64,000 cell formats take about 6 MB. */
+  xlsxMaxStylesBytes: 10 * 1024 * 1024,
+};

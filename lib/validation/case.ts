@@ -69,6 +69,28 @@ export const LIMITS = {
   annualHours: { min: 1, max: 8784 },
 } as const;
 
+/**
+ * Longest lists a case file may hold (docs/methodology.md, "Input limits"):
+ * as many trucks as the fleet import takes in one file, and engine types and
+ * offers far beyond any fleet's. Checked before the schema looks at the items,
+ * so an upload of a million trucks is refused in one line, not a million.
+ */
+export const CASE_LIST_LIMITS = { engines: 1_000, repowerOffers: 1_000, trucks: 10_000 } as const;
+
+const listMax = (key: keyof typeof CASE_LIST_LIMITS, what: string) =>
+  [CASE_LIST_LIMITS[key], `must list at most ${CASE_LIST_LIMITS[key].toLocaleString('en-US')} ${what}`] as const;
+
+/** The lists longer than CASE_LIST_LIMITS, each a problem at its path. */
+function listLengthProblems(input: unknown): CaseProblem[] {
+  if (!input || typeof input !== 'object') return [];
+  const words = { engines: 'engines', repowerOffers: 'repower offers', trucks: 'trucks' } as const;
+  return (Object.keys(CASE_LIST_LIMITS) as Array<keyof typeof CASE_LIST_LIMITS>).flatMap((key) => {
+    const list = (input as Record<string, unknown>)[key];
+    if (!Array.isArray(list) || list.length <= CASE_LIST_LIMITS[key]) return [];
+    return [{ path: key, message: `${listMax(key, words[key])[1]}; this file lists ${list.length.toLocaleString('en-US')}` }];
+  });
+}
+
 const depYears = () =>
   z
     .number('must be a finite number')
@@ -188,9 +210,9 @@ export const caseSchema = z.strictObject({
   name: z.string().min(1, 'must not be empty'),
   currency: z.string().regex(/^[A-Z]{3}$/, 'must be a three-letter ISO 4217 code such as USD'),
   assumptions: assumptionsSchema,
-  engines: z.array(engineSchema).min(1, 'must list at least one engine'),
-  repowerOffers: z.array(repowerOfferSchema),
-  trucks: z.array(truckSchema).min(1, 'must list at least one truck'),
+  engines: z.array(engineSchema).min(1, 'must list at least one engine').max(...listMax('engines', 'engines')),
+  repowerOffers: z.array(repowerOfferSchema).max(...listMax('repowerOffers', 'repower offers')),
+  trucks: z.array(truckSchema).min(1, 'must list at least one truck').max(...listMax('trucks', 'trucks')),
 });
 
 /** A valid case with defaults filled in (what `validateCase` returns). */
@@ -216,6 +238,8 @@ export type CaseValidation = { ok: true; value: CaseFile } | { ok: false; proble
  * validateCase({ format: 'case/1' }) // → { ok: false, problems: [{ path: 'name', message: 'is required' }, …] }
  */
 export function validateCase(input: unknown): CaseValidation {
+  const tooLong = listLengthProblems(input);
+  if (tooLong.length) return { ok: false, problems: tooLong };
   const parsed = caseSchema.safeParse(input);
   const problems: CaseProblem[] = [];
   if (!parsed.success) {

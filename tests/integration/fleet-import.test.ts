@@ -10,6 +10,7 @@ import { createTestDb } from '../support/test-db';
 import { call } from './support/call';
 import { signInAs } from './support/session';
 import { snapshotWorkspace, userIds, WS } from './support/fleet-fixtures';
+import { workbookParts, writeZip } from '../support/zip-writer';
 
 vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
 
@@ -98,6 +99,16 @@ describe.each([
   it('refuses 10,001 rows with the limit in the message', async () => {
     const rows = Array.from({ length: 10_001 }, (_, i) => row(`U${i}`));
     await expectRefused('fleet.csv', csv(rows), /10,001 data rows; the limit is 10,000/);
+  });
+
+  it('refuses a CSV saved in Latin-1, naming the line and suggesting "CSV UTF-8" (issue 12)', async () => {
+    const bytes = Uint8Array.from(Buffer.from(csv([row('T9-01', { notes: 'Révision' })]), 'latin1'));
+    await expectRefused('fleet.csv', bytes, /The file is not UTF-8 text \(the byte at offset \d+, on line 2, is 0xE9\).*"CSV UTF-8 \(Comma delimited\)"/);
+  });
+
+  it('refuses an XLSX whose sheet declares 60 MB before unpacking anything (issue 12)', async () => {
+    const bomb = writeZip([...workbookParts(), { name: 'xl/worksheets/sheet1.xml', deflated: Buffer.alloc(1024 * 1024), declaredSize: 60 * 1024 * 1024 }]);
+    await expectRefused('fleet.xlsx', bomb, /The workbook part "xl\/worksheets\/sheet1\.xml" unpacks to 60 MB; the limit is 50 MB per part/);
   });
 
   it('refuses a text cell starting with "=" (a formula) and a negative hour count', async () => {
