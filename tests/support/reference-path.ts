@@ -139,9 +139,14 @@ export function refDepreciationSchedule(amount: number, dep: Depreciation): numb
 
 // ------------------------------------------------------------ helpers
 
+/** Validated cases by input object (a sampler runs thousands of paths of one case: validate it once). */
+const validated = new WeakMap<object, CaseFile>();
 function valid(input: CaseFileInput | CaseFile): CaseFile {
+  const known = validated.get(input);
+  if (known) return known;
   const v = validateCase(input);
   if (!v.ok) throw new Error(`reference: invalid case: ${v.problems.map((p) => `${p.path}: ${p.message}`).join('; ')}`);
+  validated.set(input, v.value);
   return v.value;
 }
 
