@@ -65,6 +65,9 @@ export interface Estimate {
   mean: number;
   /** standard error of the mean: sample standard deviation / √n */
   se: number;
+  /** smallest and largest value sampled */
+  min: number;
+  max: number;
 }
 
 export type SampledPeriod = Record<(typeof REF_CATEGORIES)[number] | 'cashFlow', Estimate> &
@@ -86,15 +89,19 @@ export interface SampledExpectation {
 class Tally {
   sum = 0;
   sumSq = 0;
+  min = Infinity;
+  max = -Infinity;
   add(x: number) {
     this.sum += x;
     this.sumSq += x * x;
+    if (x < this.min) this.min = x;
+    if (x > this.max) this.max = x;
   }
   estimate(n: number): Estimate {
     const mean = this.sum / n;
-    if (n < 2) return { mean, se: 0 };
+    if (n < 2) return { mean, se: 0, min: this.min, max: this.max };
     const variance = Math.max(0, (this.sumSq - n * mean * mean) / (n - 1));
-    return { mean, se: Math.sqrt(variance / n) };
+    return { mean, se: Math.sqrt(variance / n), min: this.min, max: this.max };
   }
 }
 
@@ -146,7 +153,7 @@ export function sampledExpectation(
   const f = first!;
   const shifted = (t: Tally, base: number): Estimate => {
     const e = t.estimate(iterations);
-    return { mean: base + e.mean, se: e.se };
+    return { mean: base + e.mean, se: e.se, min: base + e.min, max: base + e.max };
   };
   const periods = tallies!.map((t, y) => {
     const out: Record<string, unknown> = { period: y };
