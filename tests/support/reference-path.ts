@@ -169,7 +169,9 @@ function isMultiple(a: number, interval: number): boolean {
 
 /** MODEL.md section 2: N = ceil(remaining / annual), capped by horizonYears. */
 export function refHorizonYears(c: CaseFile, truck: Truck): number {
-  const n = Math.ceil(truck.remainingLifeHours / truck.annualHours);
+  // A last year of less than AGE_EPS hours is no year (MODEL.md preamble: an amount below ε counts as zero).
+  let n = Math.ceil(truck.remainingLifeHours / truck.annualHours);
+  if (n > 1 && truck.remainingLifeHours - (n - 1) * truck.annualHours <= AGE_EPS) n -= 1;
   return c.assumptions.horizonYears == null ? n : Math.min(n, c.assumptions.horizonYears);
 }
 
