@@ -12,7 +12,7 @@ import type { FailureAgeContext, FailureAgeProvider } from '@/lib/engine';
 import type { Engine } from '@/lib/validation/case';
 import { compareWithEngine, formatMismatch } from '@/tests/support/reference-compare';
 import { mulberry32, weibullAgeFromUniform } from '@/tests/support/reference-expectation';
-import { medianAges, type AgeSource, type RefPolicy } from '@/tests/support/reference-path';
+import { medianAges, referencePath, type AgeSource, type RefPolicy } from '@/tests/support/reference-path';
 import { loadScenario, referenceVariants, variantOf } from '@/tests/support/reference-variants';
 
 const DRAWS = 50;
@@ -107,6 +107,51 @@ describe('the path comparison is not vacuous', () => {
     const { provider } = sharedAges(mulberry32(5));
     const mismatches = compareWithEngine(c, () => medianAges, provider);
     expect(mismatches.length).toBeGreaterThan(0);
+  });
+});
+
+describe('what the reference itself does at those ties (MODEL.md §3, by hand)', () => {
+  const one = variantOf(loadScenario('one-truck.json'), (c) => {
+    c.assumptions.valuation = 'median-path';
+  });
+  // life 0 fails at x; later lives never within the horizon
+  const ages = (x: number): AgeSource => (lifeIndex, _e, startAge) => (lifeIndex === 0 ? x : startAge + 1e9);
+  it('rebuild, failure age = planned life (20,000 h) or 1e-7 h short: one overhaul in year 1, no repair, failureBeforePlanned 0', () => {
+    for (const x of [20000, 20000 - 1e-7]) {
+      const p = referencePath(one, 'T-01', 'rebuild', ages(x));
+      expect(p.periods[1].events).toEqual({ overhauls: 1, repairs: 0, repowers: 0 });
+      expect(p.failureBeforePlanned).toBe(0);
+    }
+  });
+  it('rebuild, failure age 1e-3 h short of the planned life: one repair in year 1, failureBeforePlanned 1', () => {
+    const p = referencePath(one, 'T-01', 'rebuild', ages(20000 - 1e-3));
+    expect(p.periods[1].events).toEqual({ overhauls: 0, repairs: 1, repowers: 0 });
+    expect(p.failureBeforePlanned).toBe(1);
+  });
+  it('keep, failure due exactly at the last hour of year 3 = N (34,500 h): no repair, the oil service at 34,500 h counted (24 in (28,500, 34,500])', () => {
+    const p = referencePath(one, 'T-01', 'keep', ages(34500));
+    expect(p.periods[3].events.repairs).toBe(0);
+    expect(p.periods[3].oilServices).toBe(24);
+    expect(p.failureBeforePlanned).toBe(0);
+  });
+  it('keep, failure 1e-3 h before that hour: the repair is booked in year 3 and includes the oil change (23 services)', () => {
+    const p = referencePath(one, 'T-01', 'keep', ages(34500 - 1e-3));
+    expect(p.periods[3].events.repairs).toBe(1);
+    expect(p.periods[3].oilServices).toBe(23);
+    expect(p.failureBeforePlanned).toBe(1);
+  });
+  it('repower, the old engine failing at 18,000 h: a failed swap in year 1 with the failed core credit and the longer downtime, no repair', () => {
+    const c = variantOf(one, (c) => {
+      c.repowerOffers[0].failedCoreCredit = 40000;
+    });
+    const p = referencePath(c, 'T-01', 'repower', ages(18000));
+    expect(p.periods[1].events).toEqual({ overhauls: 0, repairs: 0, repowers: 1 });
+    expect(p.periods[1].failures).toBe(0);
+    // (1,500,000 + 140,000 − 40,000) at year-1 prices
+    expect(p.periods[1].capital).toBeCloseTo(-1_600_000, 6);
+    // max(2.5, 28) days · 6000/365 h · 850 t/h · 2.5 $/t
+    expect(p.periods[1].lostMargin).toBeCloseTo(-28 * (6000 / 365) * 850 * 2.5, 6);
+    expect(p.failureBeforePlanned).toBe(1);
   });
 });
 
