@@ -89,9 +89,11 @@ export interface RefPath {
  * MACRS, GDS, half-year convention: IRS Publication 946 "How To Depreciate
  * Property", Appendix A, Table A-1 (3-, 5-, 7-, 10-, 15- and 20-Year
  * Property, Half-Year Convention), percentages as printed (n + 1 entries).
- * Typed in from the table (the 3-, 5-, 7-year columns are also the familiar
- * 33.33/44.45/14.81/7.41, 20/32/19.2/11.52/11.52/5.76 and
- * 14.29/24.49/17.49/12.49/8.93/8.92/8.93/4.46); each column sums to 100.
+ * Written down from memory of that table, not copied from a fetched copy:
+ * each column sums to 100 (a test checks it), and the engine's own table
+ * agrees on every class the reference tests exercise (3, 5, 7, 20 years by
+ * name, 10 and 15 in the random cases); check against the printed table
+ * before relying on it elsewhere.
  */
 export const REF_MACRS_PERCENT: Record<number, readonly number[]> = {
   3: [33.33, 44.45, 14.81, 7.41],
