@@ -100,6 +100,6 @@ describe('valuation, share of lost margin and failed core credit in the register
     await field.fill('50000');
     await form.getByRole('button', { name: 'Save offer' }).click();
     await form.waitFor({ state: 'detached' });
-    await row().getByText('50,000').waitFor();
+    await row().getByRole('cell', { name: '50,000', exact: true }).waitFor();
   });
 });
