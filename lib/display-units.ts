@@ -57,3 +57,17 @@ export function inputText(q: Quantity, value: number | null | undefined, units: 
   if (shown === null) return '';
   return units === 'us' ? String(Number(shown.toPrecision(6))) : String(shown);
 }
+
+/**
+ * A fraction shown as a percentage in a form field (0.5 → "50"), kept to 12
+ * significant digits so 0.07 reads "7", not "7.000000000000001".
+ *
+ * @example percentInputText(0.6) // = '60'
+ */
+export function percentInputText(fraction: number | null | undefined): string {
+  if (fraction === null || fraction === undefined || !Number.isFinite(fraction)) return '';
+  return String(Number((fraction * 100).toPrecision(12)));
+}
+
+/** A percentage typed in a form → the stored fraction (50 → 0.5). */
+export const fromPercent = (shown: number): number => shown / 100;

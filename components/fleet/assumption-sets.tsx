@@ -11,6 +11,12 @@ import { api, type AssumptionSetRow, type WorkspaceView } from './types';
 
 const a = (name: string, label: string, hint?: string, nullable = false): FieldSpec => ({ name: `assumptions.${name}`, label, kind: 'number', hint, nullable });
 
+const VALUATION_OPTIONS = [
+  { value: 'expected', label: 'Expected over engine failures (recommended)' },
+  { value: 'median-path', label: 'Median path (one deterministic path)' },
+];
+const valuationLabel = (v: unknown) => (v === 'median-path' ? 'median path' : 'expected');
+
 function fields(currency: string): FieldSpec[] {
   return [
     { name: 'name', label: 'Name', kind: 'text' },
@@ -29,6 +35,8 @@ function fields(currency: string): FieldSpec[] {
     },
     { name: 'assumptions.depreciation.years', label: 'Depreciation years', kind: 'number' },
     { name: 'assumptions.rebuildAccounting', label: 'Overhauls and repairs', kind: 'select', options: [{ value: 'expense', label: 'Expensed' }, { value: 'capitalise', label: 'Capitalised' }] },
+    { name: 'assumptions.valuation', label: 'Valuation', kind: 'select', options: VALUATION_OPTIONS },
+    { name: 'assumptions.lostMarginShare', label: 'Share of lost margin', kind: 'number', percent: true, hint: '0 % where a standby truck covers every day down' },
     { name: 'notes', label: 'Notes', kind: 'textarea', wide: true },
   ];
 }
@@ -105,7 +113,7 @@ export function AssumptionSets({ ws }: { ws: WorkspaceView }) {
           <thead>
             <tr>
               <th>Name</th><th className="n">Discount rate</th><th className="n">Inflation</th><th className="n">Fuel ({ws.currency}/L)</th><th className="n">Fuel escalation</th>
-              <th className="n">Carbon ({ws.currency}/t)</th><th className="n">Margin ({ws.currency}/t)</th><th className="n">Tax rate</th><th>Depreciation</th>{ws.canEdit ? <th><span className="sr-only">Actions</span></th> : null}
+              <th className="n">Carbon ({ws.currency}/t)</th><th className="n">Margin ({ws.currency}/t)</th><th className="n">Tax rate</th><th>Depreciation</th><th>Valuation</th><th className="n">Lost margin share</th>{ws.canEdit ? <th><span className="sr-only">Actions</span></th> : null}
             </tr>
           </thead>
           <tbody>
@@ -117,6 +125,7 @@ export function AssumptionSets({ ws }: { ws: WorkspaceView }) {
                   <td className="n">{formatNumber(x.fuelPrice, 2)}</td><td className="n">{formatPercent(x.fuelEscalation)}</td><td className="n">{formatNumber(x.carbonPrice, 0)}</td>
                   <td className="n">{formatNumber(x.marginPerTonne, 2)}</td><td className="n">{formatPercent(x.taxRate, 0)}</td>
                   <td>{x.depreciation.method}{x.depreciation.years ? ` ${x.depreciation.years} yr` : ''}</td>
+                  <td>{valuationLabel(s.assumptions.valuation)}</td><td className="n">{formatPercent(x.lostMarginShare ?? 1, 0)}</td>
                   {ws.canEdit ? (
                     <td className="whitespace-nowrap text-right">
                       <button type="button" className="text-xs text-accent hover:underline" aria-label={`Edit ${s.name}`} onClick={() => setEditing(s)}>Edit</button>

@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState, type ReactNode } from 'react';
 import { useForm, type FieldErrors, type FieldValues, type Path, type Resolver } from 'react-hook-form';
 import type { z } from 'zod';
-import { fromDisplay, inputText, UNIT_LABEL, type Quantity, type UnitSystem } from '@/lib/display-units';
+import { fromDisplay, fromPercent, inputText, percentInputText, UNIT_LABEL, type Quantity, type UnitSystem } from '@/lib/display-units';
 import { ApiError } from '@/lib/fetcher';
 
 export type FieldSpec = {
@@ -24,6 +24,8 @@ export type FieldSpec = {
    * in the workspace's units, and it is stored in metric.
    */
   quantity?: Quantity;
+  /** A fraction (0–1) stored, shown and typed as a percentage (0–100); the label gets "(%)". */
+  percent?: boolean;
 };
 
 function errorAt(errors: FieldErrors, path: string): string | undefined {
@@ -31,6 +33,18 @@ function errorAt(errors: FieldErrors, path: string): string | undefined {
   for (const key of path.split('.')) v = v && typeof v === 'object' ? (v as Record<string, unknown>)[key] : undefined;
   const msg = (v as { message?: unknown } | undefined)?.message;
   return typeof msg === 'string' ? msg : undefined;
+}
+
+/** The form's first values: converted fields (dotted names reach into nested objects) as they are shown. */
+function withShown(values: FieldValues, shown: Record<string, number | null>): FieldValues {
+  const out = structuredClone(values);
+  for (const [name, v] of Object.entries(shown)) {
+    const path = name.split('.');
+    const last = path.pop() as string;
+    const parent = path.reduce<FieldValues | undefined>((o, key) => (o && typeof o === 'object' ? (o[key] as FieldValues) : undefined), out);
+    if (parent && typeof parent === 'object' && (v !== null || last in parent)) parent[last] = v ?? parent[last];
+  }
+  return out;
 }
 
 /**
@@ -51,21 +65,28 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
   units?: UnitSystem;
 }) {
   const units = props.units ?? 'metric';
-  const quantities = props.fields.filter((f) => f.quantity && f.kind === 'number');
+  const quantities = props.fields.filter((f) => (f.quantity || f.percent) && f.kind === 'number');
   const stored = props.defaultValues as FieldValues;
-  // what each unit-bearing field shows at first, as a number in the workspace's units
+  const storedAt = (name: string): unknown => name.split('.').reduce<unknown>((v, key) => (v && typeof v === 'object' ? (v as FieldValues)[key] : undefined), stored);
+  const shownText = (f: FieldSpec, value: number | null | undefined) =>
+    f.percent ? percentInputText(value) : inputText(f.quantity as Quantity, value, units);
+  const fromShown = (f: FieldSpec, shown: number) => (f.percent ? fromPercent(shown) : fromDisplay(f.quantity as Quantity, shown, units));
+  // what each converted field (unit-bearing or percentage) shows at first, as a number in its shown unit
   const shownAtFirst: Record<string, number | null> = {};
   for (const f of quantities) {
-    const text = inputText(f.quantity as Quantity, stored[f.name] as number | null | undefined, units);
+    const text = shownText(f, storedAt(f.name) as number | null | undefined);
     shownAtFirst[f.name] = text === '' ? null : Number(text);
   }
-  /** Unit-bearing fields back to metric; a field left as it was shown keeps its stored number exactly. */
+  /** Converted fields back to stored units; a field left as it was shown keeps its stored number exactly. */
   const toStored = (values: FieldValues): FieldValues => {
-    const out = { ...values };
+    const out = structuredClone(values);
     for (const f of quantities) {
-      const shown = out[f.name];
-      if (typeof shown !== 'number') continue;
-      out[f.name] = shown === shownAtFirst[f.name] ? stored[f.name] : fromDisplay(f.quantity as Quantity, shown, units);
+      const path = f.name.split('.');
+      const last = path.pop() as string;
+      const parent = path.reduce<FieldValues | undefined>((v, key) => (v && typeof v === 'object' ? (v[key] as FieldValues) : undefined), out);
+      const shown = parent?.[last];
+      if (!parent || typeof shown !== 'number') continue;
+      parent[last] = shown === shownAtFirst[f.name] ? storedAt(f.name) : fromShown(f, shown);
     }
     return out;
   };
@@ -76,10 +97,9 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
     // converted before the check; submit receives the schema's output, already stored.
     resolver: (values, context, options) => check(toStored(values), context, options),
     // Only the form's own fields: the schemas are strict, so a row's id or version must not ride along.
-    defaultValues: Object.fromEntries(
-      Object.entries(stored)
-        .filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k))
-        .map(([k, v]) => [k, k in shownAtFirst ? shownAtFirst[k] ?? v : v]),
+    defaultValues: withShown(
+      Object.fromEntries(Object.entries(stored).filter(([k]) => props.fields.some((f) => f.name.split('.')[0] === k))),
+      shownAtFirst,
     ),
   });
 
@@ -111,7 +131,7 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
           const asNumber = (v: unknown) => (v === '' || v === null || v === undefined ? (f.nullable ? null : undefined) : Number(v));
           return (
             <div key={f.name} className={f.wide ? 'col-span-2' : undefined}>
-              <label htmlFor={id} className="label">{f.quantity ? `${f.label} (${UNIT_LABEL[units][f.quantity]})` : f.label}</label>
+              <label htmlFor={id} className="label">{f.quantity ? `${f.label} (${UNIT_LABEL[units][f.quantity]})` : f.percent ? `${f.label} (%)` : f.label}</label>
               {f.kind === 'select' ? (
                 <select {...common} {...register(f.name, f.numericOptions ? { setValueAs: asNumber } : {})}>
                   {f.nullable ? <option value="">(none)</option> : null}

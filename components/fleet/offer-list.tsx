@@ -29,6 +29,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
     { name: 'modulePrice', label: `Module price (${ws.currency})`, kind: 'number' },
     { name: 'installCost', label: `Install cost (${ws.currency})`, kind: 'number' },
     { name: 'coreCredit', label: `Core credit (${ws.currency})`, kind: 'number', hint: 'For the old engine' },
+    { name: 'failedCoreCredit', label: `Failed core credit (${ws.currency})`, kind: 'number', nullable: true, hint: 'credit for a core that failed in service; blank: the core credit' },
     { name: 'downtimeDays', label: 'Days down (d)', kind: 'number' },
     { name: 'productivityGain', label: 'Productivity gain (fraction)', kind: 'number', hint: '0.02 = 2 % more t/h' },
     { name: 'notes', label: 'Notes', kind: 'textarea', wide: true },
@@ -65,7 +66,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
             key={editing === 'new' ? 'new' : `${editing.id}:${editing.version}`}
             schema={offerInputSchema}
             fields={fields}
-            defaultValues={editing === 'new' ? { key: '', supplier: '', engineTypeId: engines.data.items[0]?.id, timing: 'at-overhaul', productivityGain: 0, notes: '' } : editing}
+            defaultValues={editing === 'new' ? { key: '', supplier: '', engineTypeId: engines.data.items[0]?.id, timing: 'at-overhaul', productivityGain: 0, failedCoreCredit: null, notes: '' } : editing}
             submitLabel={editing === 'new' ? 'Add offer' : 'Save offer'}
             onSubmit={save}
             onCancel={() => setEditing(null)}
@@ -81,7 +82,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
           <thead>
             <tr>
               <th>Key</th><th>Supplier</th><th>Module</th><th className="n">Module price ({ws.currency})</th><th className="n">Install ({ws.currency})</th>
-              <th className="n">Core credit ({ws.currency})</th><th className="n">Days down (d)</th><th className="n">Productivity gain</th><th>Timing</th><th><span className="sr-only">Actions</span></th>
+              <th className="n">Core credit ({ws.currency})</th><th className="n">Failed core credit ({ws.currency})</th><th className="n">Days down (d)</th><th className="n">Productivity gain</th><th>Timing</th><th><span className="sr-only">Actions</span></th>
             </tr>
           </thead>
           <tbody>
@@ -90,6 +91,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
                 <tr>
                   <td className="font-mono text-xs">{o.key}</td><td>{o.supplier}</td><td className="font-mono text-xs">{o.engineKey}</td>
                   <td className="n">{money(o.modulePrice)}</td><td className="n">{money(o.installCost)}</td><td className="n">{money(o.coreCredit)}</td>
+                  <td className="n" title={o.failedCoreCredit == null ? 'the core credit' : undefined}>{o.failedCoreCredit == null ? <span className="text-muted">= core credit</span> : money(o.failedCoreCredit)}</td>
                   <td className="n">{formatNumber(o.downtimeDays, 1)}</td><td className="n">{formatPercent(o.productivityGain)}</td>
                   <td>{o.timing === 'now' ? 'now' : 'at overhaul'}</td>
                   <td className="whitespace-nowrap text-right">
@@ -103,7 +105,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
                   </td>
                 </tr>
                 {open === o.id ? (
-                  <tr><td colSpan={10} className="bg-paper py-2"><QuoteDocuments ws={ws} offerId={o.id} offerKey={o.key} /></td></tr>
+                  <tr><td colSpan={11} className="bg-paper py-2"><QuoteDocuments ws={ws} offerId={o.id} offerKey={o.key} /></td></tr>
                 ) : null}
               </Fragment>
             ))}

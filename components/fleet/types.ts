@@ -18,7 +18,7 @@ export type EngineRow = Versioned & {
 };
 export type OfferRow = Versioned & {
   key: string; supplier: string; engineTypeId: number; engineKey: string; modulePrice: number; installCost: number; coreCredit: number;
-  downtimeDays: number; productivityGain: number; timing: 'at-overhaul' | 'now'; notes: string;
+  failedCoreCredit: number | null; downtimeDays: number; productivityGain: number; timing: 'at-overhaul' | 'now'; notes: string;
 };
 export type AssumptionSetRow = Versioned & { name: string; notes: string; assumptions: Record<string, unknown> & { depreciation: { method: string; years?: number } } };
 

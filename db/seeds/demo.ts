@@ -3,6 +3,7 @@ import path from 'node:path';
 import type { Knex } from 'knex';
 import { hashPassword } from '../../lib/auth/password';
 import { nowIso } from '../../lib/time';
+import { assumptionSetColumns } from '../../lib/db/assumption-columns';
 
 /** The demo password of every demo account (listed in the README). */
 export const DEMO_PASSWORD = 'haulcase-demo';
@@ -82,6 +83,8 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
       engineIds[id] = await insertId(trx, 'engine_types', { workspaceId: ws, key: id, name: ENGINE_NAMES[id] ?? id, ...fields, ...audit });
     }
     const offerIds: Record<string, number> = {};
+    // Each demo offer's failedCoreCredit (in the scenario file) is somewhat below its coreCredit:
+    // common practice: a failed core is worth less to the remanufacturer; figure invented for the demo.
     for (const o of demo.repowerOffers) {
       const { id, engineId, ...fields } = o;
       offerIds[id] = await insertId(trx, 'repower_offers', {
@@ -97,7 +100,7 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
     }
     const setIds: Record<string, number> = {};
     for (const s of sets.sets) {
-      setIds[s.name] = await insertId(trx, 'assumption_sets', { workspaceId: ws, name: s.name, assumptions: JSON.stringify(s.assumptions), ...audit });
+      setIds[s.name] = await insertId(trx, 'assumption_sets', { workspaceId: ws, name: s.name, ...assumptionSetColumns(s.assumptions as Record<string, unknown>), ...audit });
     }
     // A draft business case over the whole fleet, so the demo opens on results.
     const truckRows = await trx('trucks').where({ workspaceId: ws }).orderBy('unitNumber').select('id');

@@ -4,7 +4,8 @@ import type { assumptionsSchema } from './case';
 /**
  * Where a new assumption set starts: the reference values of MODEL.md's worked
  * example (8 % nominal discount, 2.5 % inflation, diesel at 1.05 a litre rising
- * 3 % a year, 30 % tax, MACRS 7-year, overhauls expensed). No carbon price until
+ * 3 % a year, 30 % tax, MACRS 7-year, overhauls expensed), valued as the
+ * expectation over engine failures with every day down's margin lost. No carbon price until
  * the user sets one.
  */
 export const DEFAULT_ASSUMPTIONS = {
@@ -24,4 +25,6 @@ export const DEFAULT_ASSUMPTIONS = {
   taxRate: 0.3,
   depreciation: { method: 'macrs', years: 7 },
   rebuildAccounting: 'expense',
+  valuation: 'expected',
+  lostMarginShare: 1,
 } as const satisfies z.input<typeof assumptionsSchema>;

@@ -58,15 +58,23 @@ export type EngineInput = z.output<typeof engineInputSchema>;
 
 const offerBase = repowerOfferSchema.omit({ id: true, engineId: true }).extend({
   key: keyText('The offer key'),
+  // Stored as a nullable column: null (or a blank field) = the core credit applies (MODEL.md section 3).
+  failedCoreCredit: repowerOfferSchema.shape.failedCoreCredit.unwrap().nullable().default(null),
   supplier: plainText(200).default(''),
   engineTypeId: rowId('an engine type of this workspace'),
   notes: plainText(2000).default(''),
 });
 
-// The same rule validateCase applies: a negative capital cost is refused.
-const coreCreditFits = (o: { modulePrice: number; installCost: number; coreCredit: number }, ctx: z.RefinementCtx) => {
-  if (o.coreCredit > o.modulePrice + o.installCost) {
-    ctx.addIssue({ code: 'custom', path: ['coreCredit'], message: 'must not exceed module price + install cost (the capital cost would be negative)' });
+// The same rule validateCase applies to both credits: a negative capital cost is refused.
+const coreCreditFits = (
+  o: { modulePrice: number; installCost: number; coreCredit: number; failedCoreCredit?: number | null },
+  ctx: z.RefinementCtx,
+) => {
+  for (const key of ['coreCredit', 'failedCoreCredit'] as const) {
+    const credit = o[key];
+    if (typeof credit === 'number' && credit > o.modulePrice + o.installCost) {
+      ctx.addIssue({ code: 'custom', path: [key], message: 'must not exceed module price + install cost (the capital cost would be negative)' });
+    }
   }
 };
 export const offerInputSchema = offerBase.superRefine(coreCreditFits);

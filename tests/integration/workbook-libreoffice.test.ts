@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import ExcelJS from 'exceljs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { evaluateCase } from '@/lib/engine';
+import { evaluateCase, evaluateCaseDetailed } from '@/lib/engine';
 import type { CaseResult } from '@/lib/engine/types';
 import { writeCaseWorkbook } from '@/lib/export/workbook';
 import { validateCase, type CaseFile } from '@/lib/validation/case';
@@ -126,5 +126,47 @@ describe('workbook recomputed by LibreOffice', () => {
     // the change matters: the figures move
     expect(Math.abs(expected.fleet.npv.best - before.fleet.npv.best)).toBeGreaterThan(1e5);
     expect(mismatches(readTruckFigures(recomputed), expected)).toEqual([]);
+  }, LO_TIMEOUT);
+
+  it('takes the lost-margin share and, on a swap brought forward by a failure, the failed core credit, live', async () => {
+    // one-truck.json with an old engine that fails on the median path at 18,481 h, before its 20,000 h life
+    const raw = JSON.parse(readFileSync(path.resolve(__dirname, '../../scenarios/one-truck.json'), 'utf8'));
+    raw.engines[0].weibullScaleHours = 10000;
+    raw.engines[0].weibullShape = 2;
+    raw.repowerOffers[0].failedCoreCredit = 40000;
+    raw.assumptions = { ...raw.assumptions, valuation: 'median-path', lostMarginShare: 0.6 };
+    const v = validateCase(raw);
+    if (!v.ok) throw new Error('case does not validate');
+    const c = v.value;
+    const swap = evaluateCaseDetailed(c).details[0].policies.repower.events.filter((e) => e.kind === 'repower');
+    expect(swap.map((e) => [e.unplanned, Math.round(e.engineAge)])).toEqual([[true, 18481]]);
+
+    const file = path.join(dir, 'failed-swap.xlsx');
+    writeFileSync(file, await writeCaseWorkbook(c, { workspaceName: 'One truck' }));
+    const recomputed = await readWorkbook(await recalculate(file, profile));
+    expect(mismatches(readTruckFigures(recomputed), evaluateCase(c))).toEqual([]);
+
+    // change the share and the failed core credit in the workbook: it recomputes to the engine
+    const wb = await readWorkbook(file);
+    const share = namedCell(wb, 'LostMarginShare');
+    expect(share.value).toBe(0.6);
+    share.value = 0.3;
+    const offers = wb.getWorksheet('Offers') as ExcelJS.Worksheet;
+    let col = 0;
+    offers.getRow(4).eachCell((cell, k) => {
+      if (String(cell.value).startsWith('Failed core credit')) col = k;
+    });
+    expect(offers.getCell(5, col).value).toBe(40000);
+    offers.getCell(5, col).value = 15000;
+    const changed = path.join(dir, 'failed-swap-changed.xlsx');
+    await wb.xlsx.writeFile(changed);
+    const again = await readWorkbook(await recalculate(changed, profile));
+    const changedCase = structuredClone(c);
+    changedCase.assumptions.lostMarginShare = 0.3;
+    changedCase.repowerOffers[0].failedCoreCredit = 15000;
+    const want = evaluateCase(changedCase);
+    // both changes matter to the repower
+    expect(Math.abs(want.trucks[0].options.repower.npv - evaluateCase(c).trucks[0].options.repower.npv)).toBeGreaterThan(1e4);
+    expect(mismatches(readTruckFigures(again), want)).toEqual([]);
   }, LO_TIMEOUT);
 });

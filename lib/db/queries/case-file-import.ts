@@ -5,6 +5,7 @@ import { writeAudit } from '@/lib/audit';
 import { insertReturningId } from '@/lib/api/crud';
 import { nowIso } from '@/lib/time';
 import type { CaseFile } from '@/lib/validation/case';
+import { assumptionSetColumns } from '@/lib/db/assumption-columns';
 
 type Row = Record<string, unknown>;
 type Tally = { created: string[]; updated: string[] };
@@ -34,7 +35,8 @@ async function upsert(trx: Knex.Transaction, access: Access, table: string, keyC
  * Brings a validated case/1 file into a workspace in the caller's transaction:
  * engines and offers matched by key, trucks by unit number, the assumptions
  * stored as the set named like the case. Names, suppliers, payload classes and
- * notes that the case file does not carry are kept.
+ * notes that the case file does not carry are kept. An offer without
+ * `failedCoreCredit` stores null (the core credit applies), also over a stored value.
  */
 export async function importCaseFile(trx: Knex.Transaction, access: Access, c: CaseFile) {
   const before: Row[] = [];
@@ -48,12 +50,12 @@ export async function importCaseFile(trx: Knex.Transaction, access: Access, c: C
     engineIds.set(id, await upsert(trx, access, 'engine_types', 'key', id, fields, { name: id }, engines, before));
   }
   for (const { id, engineId, ...fields } of c.repowerOffers) {
-    offerIds.set(id, await upsert(trx, access, 'repower_offers', 'key', id, { ...fields, engineTypeId: engineIds.get(engineId) }, {}, offers, before));
+    offerIds.set(id, await upsert(trx, access, 'repower_offers', 'key', id, { ...fields, failedCoreCredit: fields.failedCoreCredit ?? null, engineTypeId: engineIds.get(engineId) }, {}, offers, before));
   }
   for (const { id, engineId, repowerOfferId, ...fields } of c.trucks) {
     await upsert(trx, access, 'trucks', 'unitNumber', id, { ...fields, engineTypeId: engineIds.get(engineId), repowerOfferId: offerIds.get(repowerOfferId) ?? null }, {}, trucks, before);
   }
-  await upsert(trx, access, 'assumption_sets', 'name', c.name, { assumptions: JSON.stringify(c.assumptions) }, {}, sets, before);
+  await upsert(trx, access, 'assumption_sets', 'name', c.name, assumptionSetColumns(c.assumptions), {}, sets, before);
   const counts = { engines, repowerOffers: offers, trucks, assumptionSets: sets };
   await writeAudit(trx, { workspaceId: access.workspace.id, userId: access.userId, action: 'import', entity: 'case_file', entityId: null, before: before.length ? before : undefined, after: { name: c.name, ...counts } });
   return counts;

@@ -1,6 +1,7 @@
 import 'server-only';
 import type { Knex } from 'knex';
 import { db } from '../index';
+import { assumptionsOfRow } from '../assumption-columns';
 
 /**
  * Builds a `case/1` object (MODEL.md section 10) from a workspace's stored data.
@@ -26,7 +27,12 @@ const ENGINE_FIELDS = [
 const OFFER_FIELDS = ['modulePrice', 'installCost', 'coreCredit', 'downtimeDays', 'productivityGain', 'timing'] as const;
 const TRUCK_FIELDS = ['engineHours', 'remainingLifeHours', 'annualHours', 'loadFactor', 'tonnesPerHour', 'fuelBurnLitresPerHour'] as const;
 
+/** Optional offer fields: a null column (the model's default applies) is left out of the case file. */
+const OPTIONAL_OFFER_FIELDS = ['failedCoreCredit'] as const;
+
 const pick = (row: Record<string, unknown>, fields: readonly string[]) => Object.fromEntries(fields.map((f) => [f, row[f]]));
+const pickSet = (row: Record<string, unknown>, fields: readonly string[]) =>
+  Object.fromEntries(fields.filter((f) => row[f] !== null && row[f] !== undefined).map((f) => [f, row[f]]));
 
 export async function buildCaseFile(workspaceId: number, sel: CaseSelection, k: Knex = db()) {
   const ws = await k('workspaces').where({ id: workspaceId }).first('currency');
@@ -52,11 +58,11 @@ export async function buildCaseFile(workspaceId: number, sel: CaseSelection, k: 
     format: 'case/1' as const,
     name: sel.name,
     currency: ws.currency as string,
-    assumptions: JSON.parse(set.assumptions),
+    assumptions: assumptionsOfRow(set),
     engines: engines.filter((e) => sel.includeAll || usedEngines.has(e.id)).map((e) => ({ id: e.key as string, ...pick(e, ENGINE_FIELDS) })),
     repowerOffers: offers
       .filter((o) => sel.includeAll || usedOffers.has(o.id))
-      .map((o) => ({ id: o.key as string, engineId: engineKey.get(o.engineTypeId) as string, ...pick(o, OFFER_FIELDS) })),
+      .map((o) => ({ id: o.key as string, engineId: engineKey.get(o.engineTypeId) as string, ...pick(o, OFFER_FIELDS), ...pickSet(o, OPTIONAL_OFFER_FIELDS) })),
     trucks: trucks.map((t) => {
       const offerId = truckOffer(t);
       return {

@@ -6,6 +6,7 @@ import {
   assumptionSetInputSchema, assumptionSetUpdateSchema, engineInputSchema, engineUpdateSchema,
   offerInputSchema, offerUpdateSchema, truckInputSchema, truckUpdateSchema,
 } from '@/lib/validation/fleet';
+import { assumptionSetColumns, assumptionsOfRow } from '@/lib/db/assumption-columns';
 
 type Row = Record<string, unknown>;
 
@@ -143,7 +144,11 @@ export const offers: EntityConfig = {
 
 // ---------------------------------------------------------------- assumption sets
 
-const parseSet = (r: Row) => ({ ...clean(r), assumptions: JSON.parse(String(r.assumptions)) });
+// valuation and lostMarginShare are columns (migration 0013) shown inside `assumptions`, as in the case file.
+const parseSet = (r: Row) => {
+  const { valuation: _v, lostMarginShare: _l, ...rest } = clean(r);
+  return { ...rest, assumptions: assumptionsOfRow(r) };
+};
 
 export const assumptionSets: EntityConfig = {
   table: 'assumption_sets',
@@ -157,7 +162,7 @@ export const assumptionSets: EntityConfig = {
     const r = await k('assumption_sets').where({ id, workspaceId: ws }).first();
     return r ? parseSet(r) : null;
   },
-  toRow: async (_k, _ws, input) => ({ ...input, assumptions: JSON.stringify(input.assumptions) }),
+  toRow: async (_k, _ws, input) => ({ ...input, ...assumptionSetColumns(input.assumptions as Row) }),
   beforeDelete: async (k, ws, id) => {
     const n = await countUses(k, 'business_cases', { workspaceId: ws, assumptionSetId: id });
     if (n > 0) throw conflict(`This assumption set is used by ${n} business case(s); it cannot be deleted.`);

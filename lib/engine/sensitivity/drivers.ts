@@ -35,10 +35,13 @@ export const DRIVER_CATALOGUE = {
   marginPerTonne: { scope: 'assumption', ...money('Margin per tonne', 'USD/t') },
   taxRate: { scope: 'assumption', label: 'Tax rate', unit: '%', min: 0, max: 0.99 },
   carbonPrice: { scope: 'assumption', ...money('Carbon price', 'USD/t CO2') },
+  lostMarginShare: { scope: 'assumption', label: 'Share of lost margin', unit: '%', min: 0, max: 1 },
   modulePrice: { scope: 'offer', ...money('Module price') },
   installCost: { scope: 'offer', ...money('Install cost') },
   coreCredit: { scope: 'offer', ...money('Core credit') },
+  failedCoreCredit: { scope: 'offer', ...money('Failed core credit') },
   downtimeDays: { scope: 'offer', label: 'Days down for swap', unit: 'days', min: 0, max: DAYS },
+  productivityGain: { scope: 'offer', label: 'Productivity gain', unit: '%', min: 0, max: 1 },
   overhaulCost: { scope: 'engine', ...money('Overhaul cost') },
   failureCost: { scope: 'engine', ...money('Failure cost') },
   overhaulDowntimeDays: { scope: 'engine', label: 'Days down, overhaul', unit: 'days', min: 0, max: DAYS },
@@ -84,10 +87,23 @@ function targets(c: CaseFileInput, d: DriverRef): Row[] {
   return found;
 }
 
+/**
+ * Optional fields with a model default, read as the engine reads them when the
+ * case leaves them out (MODEL.md sections 3 and 5): productivityGain 0,
+ * lostMarginShare 1, failedCoreCredit the offer's coreCredit. Setting one of
+ * them writes it into the case, so from then on it no longer follows the default.
+ */
+const DEFAULTS: Partial<Record<string, (row: Row) => number>> = {
+  productivityGain: () => 0,
+  lostMarginShare: () => 1,
+  failedCoreCredit: (row) => numberOf(row, 'coreCredit'),
+};
+
 const numberOf = (row: Row, key: string): number => {
   const v = row[key];
-  // optional fields with a model default (productivityGain is not a driver; coreCredit etc. are required)
-  return typeof v === 'number' ? v : 0;
+  if (typeof v === 'number') return v;
+  const fallback = DEFAULTS[key];
+  return fallback ? fallback(row) : 0;
 };
 
 /** The driver's value in a case (the mean over the trucks for "*"). */

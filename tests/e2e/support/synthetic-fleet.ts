@@ -25,7 +25,7 @@ export async function createSyntheticWorkspace(k: Knex, slug: string, n: number,
     offerIds.set(id, typeof r === 'object' ? r.id : r);
   }
   const base = await k('assumption_sets').where({ workspaceId: demo.id, name: 'Base' }).first();
-  await k('assumption_sets').insert({ workspaceId: ws, name: 'Base', assumptions: base.assumptions, ...stamp });
+  await k('assumption_sets').insert({ workspaceId: ws, name: 'Base', assumptions: base.assumptions, valuation: base.valuation, lostMarginShare: base.lostMarginShare, ...stamp });
   const templates = await k('trucks').where({ workspaceId: demo.id }).orderBy('unitNumber');
   const rows = Array.from({ length: n }, (_, i) => {
     const t = templates[i % templates.length];

@@ -8,6 +8,7 @@ describe('the values a new assumption set starts from', () => {
       discountRate: 0.08, timing: 'end-of-year', horizonYears: null, inflation: 0.025, fuelPrice: 1.05, fuelEscalation: 0.03,
       fuelDensityKgPerL: 0.835, co2KgPerLitre: 2.697, lubePrice: 4.2, labourRate: 115, carbonPrice: 0, carbonEscalation: 0,
       marginPerTonne: 2.5, taxRate: 0.3, depreciation: { method: 'macrs', years: 7 }, rebuildAccounting: 'expense',
+      valuation: 'expected', lostMarginShare: 1, // MODEL.md sections 11 and 5: the defaults
     });
   });
 

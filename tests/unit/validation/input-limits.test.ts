@@ -121,7 +121,7 @@ describe('issue 12: the values that killed the server are refused with their pat
         const target =
           info.scope === 'assumption' ? c.assumptions : info.scope === 'engine' ? c.engines[0] : info.scope === 'offer' ? c.repowerOffers[0] : c.trucks[0];
         target[key] = value;
-        if (key === 'coreCredit') c.repowerOffers[0].modulePrice = 1e10 - c.repowerOffers[0].installCost;
+        if (key === 'coreCredit' || key === 'failedCoreCredit') c.repowerOffers[0].modulePrice = 1e10 - c.repowerOffers[0].installCost;
         if (key === 'lifeHours' || key === 'weibullScaleHours' || key === 'weibullShape') c.trucks[0].engineHours = 0;
         const v = validateCase(c);
         expect(v.ok ? [] : v.problems, `${key} = ${value}`).toEqual([]);
