@@ -51,7 +51,7 @@ export function TruckView({ slug, caseId, truckId }: { slug: string; caseId: num
         ))}
         <div className="card p-3 text-sm">
           <h2 className="text-xs font-medium text-muted">Repower vs {POLICY_LABEL[other].toLowerCase()} ({currency})</h2>
-          <dl className="grid grid-cols-2 gap-x-2">
+          <dl className="grid grid-cols-[1fr_auto] gap-x-3">
             <dt>ΔNPV</dt><dd className="num text-right">{formatMoney(c.deltaNpv, { negative: neg })}</dd>
             {other !== 'rebuild' ? <><dt>ΔNPV vs rebuild</dt><dd className="num text-right">{formatMoney(result.repowerVsRebuild.deltaNpv, { negative: neg })}</dd></> : null}
             <dt title="ΔNPV repower vs rebuild of the same case with the repower offer's productivity gain set to 0">ΔNPV vs rebuild without the productivity gain</dt>
