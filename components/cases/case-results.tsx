@@ -2,6 +2,7 @@
 
 import useSWR from 'swr';
 import type { CaseResultDto } from '@/lib/cases/types';
+import { VALUATION_LABEL, VALUATION_NOTE } from '@/lib/cases/valuation';
 import type { ApiError } from '@/lib/fetcher';
 import { FleetSummary } from './fleet-summary';
 import { TruckTable } from './truck-table';
@@ -13,12 +14,25 @@ export function CaseResults({ slug, caseId }: { slug: string; caseId: number }) 
   if (isLoading || !data) return <ResultsSkeleton />;
   return (
     <div className="space-y-4">
-      <h2 className="text-base font-semibold">
-        {data.case.name} <span className="text-sm font-normal text-muted">— {data.case.assumptionSetName} assumptions, {data.result.trucks.length} trucks, {data.case.status}; evaluated in {data.evaluatedMs} ms</span>
-      </h2>
+      <div>
+        <h2 className="text-base font-semibold">
+          {data.case.name} <span className="text-sm font-normal text-muted">— {data.case.assumptionSetName} assumptions, {data.result.trucks.length} trucks, {data.case.status}; evaluated in {data.evaluatedMs} ms</span>{' '}
+          <ValuationBadge valuation={data.valuation} />
+        </h2>
+        <p className="text-xs text-muted">{VALUATION_NOTE[data.valuation]}</p>
+      </div>
       <FleetSummary data={data} />
       <TruckTable data={data} slug={slug} />
     </div>
+  );
+}
+
+/** Which valuation the figures are, beside a headline. */
+export function ValuationBadge({ valuation }: { valuation: CaseResultDto['valuation'] }) {
+  return (
+    <span className="ml-1 inline-block rounded border border-rule bg-paper px-1.5 py-0.5 align-middle text-xs font-medium text-ink" data-testid="valuation-label" title="The valuation the figures are (set in the case's assumptions)">
+      {VALUATION_LABEL[valuation]}
+    </span>
   );
 }
 

@@ -9,7 +9,7 @@ export function FleetSummary({ data }: { data: CaseResultDto }) {
   const neg = data.negativeStyle;
   const m = (x: number) => formatMoney(x, { scale: 'k', negative: neg });
   return (
-    <section aria-label="Fleet summary" className="grid gap-3 lg:grid-cols-4" data-testid="fleet-summary">
+    <section aria-label="Fleet summary" className="grid gap-3 md:grid-cols-3 xl:grid-cols-5" data-testid="fleet-summary">
       <div className="card p-3">
         <h2 className="text-xs font-medium text-muted">Fleet NPV ({data.currency} k)</h2>
         <table className="mt-1 w-full text-sm">
@@ -21,6 +21,7 @@ export function FleetSummary({ data }: { data: CaseResultDto }) {
           </tbody>
         </table>
       </div>
+      <RepowerVsRebuild data={data} />
       <div className="card p-3">
         <h2 className="text-xs font-medium text-muted">Trucks by best policy</h2>
         <ul className="mt-1 space-y-0.5 text-sm">
@@ -50,6 +51,31 @@ export function FleetSummary({ data }: { data: CaseResultDto }) {
         <p className="mt-2 text-xs text-muted">Each truck&rsquo;s saving over its horizon divided by its horizon years, summed.</p>
       </div>
     </section>
+  );
+}
+
+/** The repower programme against rebuilding every engine, with and without the offers' productivity gain. */
+function RepowerVsRebuild({ data }: { data: CaseResultDto }) {
+  const m = (x: number) => formatMoney(x, { scale: 'k', negative: data.negativeStyle });
+  const withGain = data.result.trucks.reduce((s, t) => s + t.repowerVsRebuild.deltaNpv, 0);
+  const without = data.withoutGain.fleet;
+  const tone = (x: number) => (x > 0 ? 'text-gain' : x < 0 ? 'text-loss' : '');
+  return (
+    <div className="card p-3" data-testid="fleet-delta">
+      <h2 className="text-xs font-medium text-muted">Repower every truck vs rebuild every engine ({data.currency} k)</h2>
+      <table className="mt-1 w-full text-sm">
+        <tbody>
+          <tr><th scope="row" className="text-left font-normal">ΔNPV</th><td className={`num text-right ${tone(withGain)}`} data-testid="fleet-delta-npv">{m(withGain)}</td></tr>
+          <tr><th scope="row" className="text-left font-normal">ΔNPV without the productivity gain</th><td className={`num text-right ${tone(without)}`} data-testid="fleet-delta-npv-no-gain">{m(without)}</td></tr>
+          <tr className="border-t border-rule"><th scope="row" className="text-left font-normal text-muted">Worth of the gain</th><td className="num text-right text-muted">{m(withGain - without)}</td></tr>
+        </tbody>
+      </table>
+      <p className="mt-2 text-xs text-muted">
+        {data.withoutGain.anyGain
+          ? 'The second line is the same case with every repower offer’s productivity gain set to 0.'
+          : 'No repower offer in this case claims a productivity gain.'}
+      </p>
+    </div>
   );
 }
 

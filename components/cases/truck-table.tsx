@@ -27,6 +27,10 @@ type Row = {
   repower: number;
   bestOther: PolicyKey;
   deltaNpv: number;
+  /** P(the engine fitted today fails in service before its overhaul), under rebuild */
+  failRebuild: number;
+  deltaVsRebuild: number;
+  deltaVsRebuildNoGain: number;
   irr: number | null;
   irrReason: string | null;
   mirr: number | null;
@@ -58,6 +62,9 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
           repower: t.options.repower.npv,
           bestOther: other,
           deltaNpv: c.deltaNpv,
+          failRebuild: t.options.rebuild.failureBeforePlanned,
+          deltaVsRebuild: t.repowerVsRebuild.deltaNpv,
+          deltaVsRebuildNoGain: data.withoutGain.trucks[t.id] ?? Number.NaN,
           irr: c.irr,
           irrReason: irrBlankReason(c, delta),
           mirr: c.mirr,
@@ -84,11 +91,26 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
         filterFn: 'equalsString',
         cell: (i) => <span className="font-medium" style={{ color: POLICY_COLOUR[i.getValue()] }}>{POLICY_LABEL[i.getValue()]}</span>,
       }),
+      col.accessor('failRebuild', {
+        header: 'Fails before overhaul, rebuild',
+        cell: (i) => <span data-testid="fail-before-overhaul">{formatPercent(i.getValue(), 1)}</span>,
+        meta: { n: true },
+      }),
       col.accessor('keep', { header: `NPV keep (${cur} k)`, cell: (i) => money(i.getValue()), meta: { n: true } }),
       col.accessor('rebuild', { header: `NPV rebuild (${cur} k)`, cell: (i) => money(i.getValue()), meta: { n: true } }),
       col.accessor('repower', { header: `NPV repower (${cur} k)`, cell: (i) => money(i.getValue()), meta: { n: true } }),
       col.accessor('deltaNpv', {
         header: `ΔNPV repower vs best other (${cur} k)`,
+        cell: (i) => <span className={i.getValue() > 0 ? 'text-gain' : i.getValue() < 0 ? 'text-loss' : ''}>{money(i.getValue())}</span>,
+        meta: { n: true },
+      }),
+      col.accessor('deltaVsRebuild', {
+        header: `ΔNPV repower vs rebuild (${cur} k)`,
+        cell: (i) => <span className={i.getValue() > 0 ? 'text-gain' : i.getValue() < 0 ? 'text-loss' : ''}>{money(i.getValue())}</span>,
+        meta: { n: true },
+      }),
+      col.accessor('deltaVsRebuildNoGain', {
+        header: `ΔNPV repower vs rebuild without the productivity gain (${cur} k)`,
         cell: (i) => <span className={i.getValue() > 0 ? 'text-gain' : i.getValue() < 0 ? 'text-loss' : ''}>{money(i.getValue())}</span>,
         meta: { n: true },
       }),
@@ -138,7 +160,7 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
             <option value="repower">Repower</option>
           </select>
         </div>
-        <p className="text-xs text-muted" aria-live="polite">{shown.length} of {rows.length} trucks. Click a column heading to sort. Repower is compared with each truck&rsquo;s better other policy (IRR, MIRR, payback, PI).</p>
+        <p className="text-xs text-muted" aria-live="polite">{shown.length} of {rows.length} trucks. Click a column heading to sort. Repower is compared with each truck&rsquo;s better other policy (IRR, MIRR, payback, PI). &ldquo;Fails before overhaul&rdquo;: the chance that the engine fitted today fails in service before its planned overhaul, under rebuild.</p>
       </div>
       <div className="card max-h-[70vh] overflow-auto">
         <table className="data-table" data-testid="truck-table">

@@ -4,7 +4,8 @@ import { useState } from 'react';
 import useSWR, { useSWRConfig } from 'swr';
 import { DISPLAY_DIGITS, toDisplay, UNIT_LABEL, type Quantity } from '@/lib/display-units';
 import { sendJson } from '@/lib/fetcher';
-import { formatMoney, formatNumber } from '@/lib/format';
+import { reliabilityFigures } from '@/lib/engine/reliability-figures';
+import { formatMoney, formatNumber, formatPercent } from '@/lib/format';
 import { engineInputSchema, type EngineInput } from '@/lib/validation/fleet';
 import { EntityForm, type FieldSpec } from './entity-form';
 import { api, type EngineRow, type WorkspaceView } from './types';
@@ -34,6 +35,8 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
   const q = (qty: Quantity, v: number) => formatNumber(toDisplay(qty, v, ws.units), DISPLAY_DIGITS[ws.units][qty]);
   if (error) return <p role="alert" className="text-sm text-loss">Could not load engine types: {error.message}</p>;
   if (!data) return <p className="text-sm text-muted">Loading engine types…</p>;
+  const figures = new Map(data.items.map((e) => [e.id, reliabilityFigures(e)]));
+  const aboveMedian = data.items.filter((e) => figures.get(e.id)?.plannedAboveMedian);
 
   const save = async (values: EngineInput) => {
     const current = editing === 'new' ? null : editing;
@@ -74,12 +77,21 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
       ) : ws.canEdit ? (
         <button type="button" className="btn btn-primary mb-2" onClick={() => setEditing('new')}>Add engine type</button>
       ) : null}
+      {aboveMedian.length ? (
+        <div role="note" aria-label="Planned life above median life" className="mb-2 rounded border border-caution-rule bg-caution-ground px-3 py-2 text-sm text-caution" data-testid="life-above-median">
+          <strong className="font-semibold">Planned life is above the median life: most engines of this type fail before their overhaul. Review the Weibull figures.</strong>{' '}
+          {aboveMedian.map((e) => `${e.key} (planned ${formatNumber(e.lifeHours)} h, median ${formatNumber(figures.get(e.id)!.medianLifeHours)} h)`).join('; ')}.
+        </div>
+      ) : null}
       <div className="card overflow-x-auto">
         <table className="data-table" data-testid="engine-table">
           <thead>
             <tr>
               <th>Key</th><th>Name</th><th className="n">Rated ({u.power})</th><th className="n">BSFC ({u.bsfc})</th><th className="n">Life (h)</th>
-              <th className="n">β</th><th className="n">η (h)</th><th className="n">Overhaul ({ws.currency})</th><th className="n">Failure ({ws.currency})</th>
+              <th className="n">β</th><th className="n">η (h)</th>
+              <th className="n" title="η·(ln 2)^(1/β): half of new engines fail in service before this age">Median life (h)</th>
+              <th className="n" title="η·Γ(1 + 1/β)">Mean life (h)</th>
+              <th className="n" title="1 − exp(−(planned life/η)^β), for a new engine">Fails before planned life</th><th className="n">Overhaul ({ws.currency})</th><th className="n">Failure ({ws.currency})</th>
               <th className="n">Oil interval (h)</th><th className="n">Sump ({u.volume})</th>{ws.canEdit ? <th><span className="sr-only">Actions</span></th> : null}
             </tr>
           </thead>
@@ -89,6 +101,12 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
                 <td className="font-mono text-xs">{e.key}</td><td>{e.name}</td>
                 <td className="n">{q('power', e.ratedKw)}</td><td className="n">{q('bsfc', e.bsfcGPerKwh)}</td><td className="n">{formatNumber(e.lifeHours)}</td>
                 <td className="n">{formatNumber(e.weibullShape, 2)}</td><td className="n">{formatNumber(e.weibullScaleHours)}</td>
+                <td className="n" data-testid="median-life">{formatNumber(figures.get(e.id)!.medianLifeHours)}</td>
+                <td className="n" data-testid="mean-life">{formatNumber(figures.get(e.id)!.meanLifeHours)}</td>
+                <td className={`n ${figures.get(e.id)!.plannedAboveMedian ? 'font-semibold text-caution' : ''}`} data-testid="fail-before-life">
+                  {figures.get(e.id)!.plannedAboveMedian ? <span aria-label="Planned life above median life" title="Planned life is above the median life">▲ </span> : null}
+                  {formatPercent(figures.get(e.id)!.failureBeforePlanned)}
+                </td>
                 <td className="n">{formatMoney(e.overhaulCost, { negative: ws.negativeStyle })}</td><td className="n">{formatMoney(e.failureCost, { negative: ws.negativeStyle })}</td>
                 <td className="n">{formatNumber(e.serviceIntervalHours)}</td><td className="n">{q('volume', e.sumpLitres)}</td>
                 {ws.canEdit ? <td className="text-right"><button type="button" className="text-xs text-accent hover:underline" aria-label={`Edit ${e.key}`} onClick={() => setEditing(e)}>Edit</button></td> : null}
@@ -97,6 +115,10 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
           </tbody>
         </table>
       </div>
+      <p className="mt-1 text-xs text-muted">
+        Median life η·(ln 2)^(1/β), mean life η·Γ(1 + 1/β) and the chance of failing in service before the planned life, 1 − exp(−(life/η)^β), are for a new engine,
+        from its Weibull law.
+      </p>
     </section>
   );
 }

@@ -10,8 +10,14 @@ import type { Summary } from './types';
 
 const M = { top: 22, right: 20, bottom: 46, left: 64 };
 
-/** Histogram of a Monte Carlo metric with P10, P50 and P90 marked, and zero in red when in range. */
-export function HistogramChart(props: { summary: Summary; fleet: boolean; currency: string; label: string; negative: NegativeStyle }) {
+/** The deterministic figure of the case marked on the histogram (its value and label). */
+export interface HeadlineMark {
+  value: number;
+  label: string;
+}
+
+/** Histogram of a Monte Carlo metric with P10, P50 and P90 marked, zero in red when in range, and the case's headline figure. */
+export function HistogramChart(props: { summary: Summary; fleet: boolean; currency: string; label: string; negative: NegativeStyle; headline?: HeadlineMark }) {
   return (
     <figure aria-label="Monte Carlo histogram" data-testid="mc-histogram">
       <ParentSize debounceTime={50} parentSizeStyles={{ width: "100%", height: 280 }}>{({ width }) => (width > 0 ? <Histogram {...props} width={width} height={280} /> : null)}</ParentSize>
@@ -19,11 +25,13 @@ export function HistogramChart(props: { summary: Summary; fleet: boolean; curren
   );
 }
 
-function Histogram({ summary: s, fleet, currency, label, negative, width, height }: Parameters<typeof HistogramChart>[0] & { width: number; height: number }) {
+function Histogram({ summary: s, fleet, currency, label, negative, headline, width, height }: Parameters<typeof HistogramChart>[0] & { width: number; height: number }) {
   const innerW = Math.max(100, width - M.left - M.right);
   const innerH = height - M.top - M.bottom;
-  const from = s.histogram[0]?.from ?? s.min;
-  const to = s.histogram[s.histogram.length - 1]?.to ?? s.max;
+  const h = headline && Number.isFinite(headline.value) ? headline : undefined;
+  // the axis reaches the headline even when no iteration comes near it
+  const from = Math.min(s.histogram[0]?.from ?? s.min, h ? h.value : Infinity);
+  const to = Math.max(s.histogram[s.histogram.length - 1]?.to ?? s.max, h ? h.value : -Infinity);
   const x = scaleLinear<number>({ domain: [from, to === from ? from + 1 : to], range: [0, innerW] });
   const y = scaleLinear<number>({ domain: [0, Math.max(1, ...s.histogram.map((b) => b.count))], range: [innerH, 0], nice: true });
   const unit = `${currency} ${moneyScale(fleet).suffix}`;
@@ -43,6 +51,24 @@ function Histogram({ summary: s, fleet, currency, label, negative, width, height
             <text x={x(v)} y={-8} textAnchor="middle" fontSize={11} fill="#15181c">{`${name} ${money(v, fleet, negative)}`}</text>
           </g>
         ))}
+        {h ? (
+          <g data-mark="headline" data-testid="mc-headline-mark">
+            <Line from={{ x: x(h.value), y: 0 }} to={{ x: x(h.value), y: innerH }} stroke="#b0562b" strokeWidth={2} />
+            <text
+              x={x(h.value) + (x(h.value) > innerW / 2 ? -6 : 6)}
+              y={14}
+              textAnchor={x(h.value) > innerW / 2 ? 'end' : 'start'}
+              fontSize={11}
+              fontWeight={600}
+              fill="#b0562b"
+              stroke="#f7f7f5"
+              strokeWidth={3}
+              paintOrder="stroke"
+            >
+              {`${h.label} ${money(h.value, fleet, negative)}`}
+            </text>
+          </g>
+        ) : null}
         <AxisLeft scale={y} numTicks={4} stroke="#5d646d" tickStroke="#5d646d" tickLabelProps={{ fontSize: 11, fill: '#5d646d', textAnchor: 'end', dx: -4, dy: '0.33em' }} label="Iterations" labelProps={{ fontSize: 12, fill: '#15181c', textAnchor: 'middle' }} labelOffset={36} />
         <AxisBottom top={innerH} scale={x} numTicks={Math.max(3, Math.floor(innerW / 90))} tickFormat={(v) => money(Number(v), fleet, negative)} stroke="#5d646d" tickStroke="#5d646d" tickLabelProps={{ fontSize: 11, fill: '#5d646d', textAnchor: 'middle' }} label={`${label} (${unit})`} labelProps={{ fontSize: 12, fill: '#15181c', textAnchor: 'middle' }} labelOffset={14} />
       </Group>

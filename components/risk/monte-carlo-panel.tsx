@@ -2,14 +2,15 @@
 import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import { ApiError, fetcher, sendJson } from '@/lib/fetcher';
-import { formatPercent, type NegativeStyle } from '@/lib/format';
+import { formatNumber, formatPercent, type NegativeStyle } from '@/lib/format';
 import { money, moneyScale } from './format';
 import { HistogramChart, RunningMeanChart } from './histogram-chart';
 import { DistributionRows, type DistributionDraft } from './mc-setup';
-import type { DriverView, RunView, Summary } from './types';
+import { HEADLINE_LABEL } from '@/lib/cases/valuation';
+import type { DriverView, Headline, RunView, Summary } from './types';
 
 /** Monte Carlo: set-up (distribution per driver, iterations, seed), progress with cancel, then the results. */
-export function MonteCarloPanel(props: { base: string; drivers: DriverView[]; truckId: string | null; currency: string; negative: NegativeStyle; canRun: boolean }) {
+export function MonteCarloPanel(props: { base: string; drivers: DriverView[]; truckId: string | null; currency: string; negative: NegativeStyle; canRun: boolean; headline?: Headline }) {
   const { base, drivers, currency, negative } = props;
   const fuel = drivers.find((d) => d.id === 'fuelPrice');
   // a starting point a reader recognises: fuel price skewed upwards, everything else as in the case
@@ -71,6 +72,8 @@ export function MonteCarloPanel(props: { base: string; drivers: DriverView[]; tr
   const summary: Summary | undefined = truck ? truck.deltaNpv : run?.result?.fleet.deltaNpv;
   const fleet = !truck;
   const label = truck ? `ΔNPV repower vs rebuild, truck ${truck.id}` : 'ΔNPV repower vs rebuild, every truck';
+  const headlineValue = props.headline ? (truck ? props.headline.trucks[truck.id] : props.headline.fleetDeltaNpv) : undefined;
+  const mark = props.headline && headlineValue !== undefined ? { value: headlineValue, label: HEADLINE_LABEL[props.headline.valuation] } : undefined;
 
   return (
     <section aria-labelledby="mc-title" className="card p-4">
@@ -125,12 +128,66 @@ export function MonteCarloPanel(props: { base: string; drivers: DriverView[]; tr
       {summary && run?.result ? (
         <div className="mt-4 grid gap-4">
           <StatsTable summary={summary} fleet={fleet} currency={currency} negative={negative} iterations={run.result.iterations} />
-          <HistogramChart summary={summary} fleet={fleet} currency={currency} label={label} negative={negative} />
+          <HistogramChart summary={summary} fleet={fleet} currency={currency} label={label} negative={negative} headline={mark} />
+          {mark && props.headline ? <HeadlineCheck summary={summary} fleet={fleet} currency={currency} negative={negative} headline={mark.value} valuation={props.headline.valuation} run={run} /> : null}
           <RunningMeanChart summary={summary} fleet={fleet} currency={currency} negative={negative} />
           {!truck ? <TruckRiskTable result={run.result} currency={currency} negative={negative} /> : null}
         </div>
       ) : null}
     </section>
+  );
+}
+
+/**
+ * The Monte Carlo mean beside the headline: with failures sampled and every
+ * other input fixed the mean converges to the expected valuation (MODEL.md
+ * section 11), so their difference, in standard errors of the mean
+ * (sd/√n), says whether the two agree within sampling error.
+ */
+function HeadlineCheck(props: { summary: Summary; fleet: boolean; currency: string; negative: NegativeStyle; headline: number; valuation: Headline['valuation']; run: RunView }) {
+  const { summary: s, fleet, negative, headline, valuation, run } = props;
+  const n = s.count;
+  const se = n > 1 && Number.isFinite(s.sd) ? s.sd / Math.sqrt(n) : null;
+  const diff = s.mean - headline;
+  const z = se !== null && se > 0 ? diff / se : null;
+  const drawn = run.spec?.distributions.length ?? 0;
+  const sampled = run.spec?.sampleFailures ?? true;
+  const unit = `${props.currency} ${moneyScale(fleet).suffix}`;
+  let verdict: string;
+  if (!sampled) verdict = 'This run keeps every engine at its median failure age, so its mean tends to the median path, not to the expected valuation.';
+  else if (valuation === 'median-path') verdict = 'The headline here is the median path; a run that samples failures tends to the expected valuation instead, so the two need not agree.';
+  else if (drawn > 0) verdict = `This run also draws ${drawn === 1 ? 'one other input' : `${drawn} other inputs`}, so its mean may differ from the headline by more than sampling error (the NPV is not linear in them).`;
+  else if (z === null) verdict = 'Too few iterations, or no spread, to give a standard error.';
+  else if (Math.abs(z) <= 2) verdict = `This run samples failures only: its mean lies within ${formatNumber(Math.abs(z), 1)} standard errors of the headline, within sampling error.`;
+  else verdict = `This run samples failures only, yet its mean lies ${formatNumber(Math.abs(z), 1)} standard errors from the headline: more than sampling error usually explains (beyond about 3, worth a look).`;
+  return (
+    <div className="text-sm" data-testid="mc-headline-check">
+      <p className="text-xs text-muted">
+        The copper line is the case&rsquo;s headline figure, {valuation === 'expected' ? 'expected over engine failures' : 'on the median failure path'}. With failures sampled and every other input fixed, the Monte Carlo mean should lie within sampling
+        error of the expected headline (within about two standard errors of the mean, sd/√n).
+      </p>
+      <table className="data-table mt-1 w-auto">
+        <thead>
+          <tr>
+            <th className="n">{HEADLINE_LABEL[valuation]} ({unit})</th>
+            <th className="n">Monte Carlo mean ({unit})</th>
+            <th className="n">Difference ({unit})</th>
+            <th className="n">Standard error of the mean ({unit})</th>
+            <th className="n">Difference (standard errors)</th>
+          </tr>
+        </thead>
+        <tbody>
+          <tr>
+            <td className="n" data-testid="mc-headline">{money(headline, fleet, negative)}</td>
+            <td className="n" data-testid="mc-mean">{money(s.mean, fleet, negative)}</td>
+            <td className="n">{money(diff, fleet, negative)}</td>
+            <td className="n">{se === null ? '—' : money(se, fleet, negative)}</td>
+            <td className="n" data-testid="mc-z">{z === null ? '—' : formatNumber(z, 2, negative)}</td>
+          </tr>
+        </tbody>
+      </table>
+      <p className="mt-1 text-xs" data-testid="mc-headline-verdict">{verdict}</p>
+    </div>
   );
 }
 

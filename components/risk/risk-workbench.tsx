@@ -54,7 +54,7 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
       <SpiderPanel key={`s${key}`} base={base} metric={metric} metricLabel={metricLabel} driverIds={top} drivers={answer.drivers} currency={currency} negative={negative} />
       <BreakEvenPanel key={`b${key}`} base={base} metric={metric} drivers={answer.drivers} currency={currency} negative={negative} />
       <TwoWayPanel key={`w${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} initial={['fuelPrice', firstOffer]} />
-      <MonteCarloPanel base={base} drivers={fleetDrivers.drivers} truckId={truckId} currency={currency} negative={negative} canRun={canRun} />
+      <MonteCarloPanel base={base} drivers={fleetDrivers.drivers} truckId={truckId} currency={currency} negative={negative} canRun={canRun} headline={fleetDrivers.headline} />
     </div>
   );
 }

@@ -15,8 +15,19 @@ export interface DriverView {
   max: number | null;
 }
 
+/** The deterministic figures of the case in its own valuation (MODEL.md section 11), which the Monte Carlo histogram marks. */
+export interface Headline {
+  valuation: 'expected' | 'median-path';
+  /** Σ over trucks of ΔNPV repower vs rebuild */
+  fleetDeltaNpv: number;
+  fleetBestNpv: number;
+  /** ΔNPV repower vs rebuild by truck */
+  trucks: Record<string, number>;
+}
+
 export interface DriversAnswer {
   case: { id: number; name: string; status: string; currency: string };
+  headline: Headline;
   trucks: { id: string; engineId: string; repowerOfferId: string }[];
   truckId: string | null;
   drivers: DriverView[];
@@ -30,5 +41,7 @@ export interface RunView {
   createdAt: string;
   finishedAt: string | null;
   error: string | null;
+  /** what the run was asked: failures sampled or not, the drivers drawn */
+  spec?: Pick<MonteCarloRequest, 'sampleFailures' | 'distributions' | 'seed'>;
   result: MonteCarloResult | null;
 }

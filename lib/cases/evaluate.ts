@@ -13,6 +13,7 @@ import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from
 import { invalid, notFound, type Problem } from '@/lib/http';
 import { monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps } from '@/lib/plan';
 import { summariseFleet, timelines } from './summary';
+import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
 
 export function toSummaryDto(c: CaseRow): CaseSummaryDto {
@@ -107,6 +108,8 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
   }));
   return {
     case: toSummaryDto(row),
+    valuation: file.assumptions.valuation,
+    withoutGain: deltaNpvWithoutGain(file),
     currency: access.workspace.currency,
     negativeStyle: access.workspace.settings.negativeStyle,
     result,
@@ -126,6 +129,8 @@ export async function evaluateStoredTruck(access: Access, id: number, truckId: s
   const annual = file.trucks.find((t) => t.id === truckId)!.annualHours;
   return {
     case: toSummaryDto(row),
+    valuation: file.assumptions.valuation,
+    withoutGain: deltaNpvWithoutGain(file, [truckId]),
     currency: access.workspace.currency,
     negativeStyle: access.workspace.settings.negativeStyle,
     result,

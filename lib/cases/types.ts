@@ -38,8 +38,21 @@ export type FleetSummary = {
 
 export type ScheduledSwap = PlacedSwap & { label: string; dueLabel: string; capitalYear: number | null };
 
+/** The valuation the case's figures are: the expectation over engine failures, or the median failure path (MODEL.md section 11). */
+export type Valuation = 'expected' | 'median-path';
+
+/** ΔNPV repower vs rebuild with every repower offer's productivity gain set to 0 (same case, same valuation). */
+export type WithoutGainDto = {
+  trucks: Record<string, number>;
+  fleet: number;
+  /** some offer these trucks use has a productivity gain (else the figures equal those with the gain) */
+  anyGain: boolean;
+};
+
 export type CaseResultDto = {
   case: CaseSummaryDto;
+  valuation: Valuation;
+  withoutGain: WithoutGainDto;
   currency: string;
   negativeStyle: 'parentheses' | 'minus';
   result: CaseResult;
@@ -54,6 +67,8 @@ export type CaseResultDto = {
 
 export type TruckResultDto = {
   case: CaseSummaryDto;
+  valuation: Valuation;
+  withoutGain: WithoutGainDto;
   currency: string;
   negativeStyle: 'parentheses' | 'minus';
   result: TruckResult;

@@ -96,6 +96,16 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
       expect(t.best).toBe(e.best);
     }
     expect(r.body.result.fleet.npv.best).toBeCloseTo(expected.fleet.npv.best, 2);
+    // the valuation the figures are, and ΔNPV repower vs rebuild of the same case with every offer's productivity gain at 0
+    expect(r.body.valuation).toBe('expected');
+    const noGain = evaluateCase({ ...scenario, repowerOffers: scenario.repowerOffers.map((o: object) => ({ ...o, productivityGain: 0 })) });
+    let fleetNoGain = 0;
+    for (const t of noGain.trucks) {
+      expect(r.body.withoutGain.trucks[t.id]).toBeCloseTo(t.repowerVsRebuild.deltaNpv, 4);
+      fleetNoGain += t.repowerVsRebuild.deltaNpv;
+    }
+    expect(r.body.withoutGain.fleet).toBeCloseTo(fleetNoGain, 2);
+    expect(r.body.withoutGain.anyGain).toBe(true);
     expect(r.body.summary.trucksByBest.repower + r.body.summary.trucksByBest.rebuild + r.body.summary.trucksByBest.keep).toBe(24);
     expect(r.body.ranking[0].rank).toBe(1);
     // no budgets: every paying repower is in the plan and on the schedule, at most 2 a month
@@ -106,6 +116,9 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
     const truck = await call(getTruck, { workspace: WS, id: String(caseId), truckId: 'T3-01' });
     expect(truck.status).toBe(200);
     expect(truck.body.detail.policies.repower.periods.length).toBe(truck.body.result.horizonYears + 1);
+    expect(truck.body.valuation).toBe('expected');
+    expect(Object.keys(truck.body.withoutGain.trucks)).toEqual(['T3-01']);
+    expect(truck.body.withoutGain.fleet).toBeCloseTo(r.body.withoutGain.trucks['T3-01'], 6);
     expect((await call(getTruck, { workspace: WS, id: String(caseId), truckId: 'NOPE' })).status).toBe(404);
   });
 

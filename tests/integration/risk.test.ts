@@ -72,6 +72,8 @@ describe.each(backends)('risk endpoints on $name', ({ pg }) => {
     expect(d.status).toBe(200);
     expect(d.body.truckId).toBe('T3-06');
     expect(d.body.drivers.map((x: { id: string }) => x.id)).toContain('modulePrice@kestrel-km2700');
+    // the headline the Monte Carlo histogram marks: the case's own valuation, ΔNPV repower vs rebuild
+    expect(d.body.headline.valuation).toBe('expected');
 
     const r = await call(postTornado, params, { body: { metric: { kind: 'fleet-best' }, drivers: ['fuelPrice'], ranges: { fuelPrice: { low: 0.9, high: 1.3 } } } });
     expect(r.status).toBe(200);
@@ -81,6 +83,14 @@ describe.each(backends)('risk endpoints on $name', ({ pg }) => {
     const at = (fuelPrice: number) => evaluateCase({ ...stored, assumptions: { ...stored.assumptions, fuelPrice } } as never).fleet.npv.best;
     expect(r.body.rows[0].metricLow).toBeCloseTo(at(0.9), 4);
     expect(r.body.rows[0].metricHigh).toBeCloseTo(at(1.3), 4);
+    const plain = evaluateCase(stored as never);
+    expect(d.body.headline.fleetBestNpv).toBeCloseTo(plain.fleet.npv.best, 2);
+    let fleetDelta = 0;
+    for (const t of plain.trucks) {
+      expect(d.body.headline.trucks[t.id]).toBeCloseTo(t.repowerVsRebuild.deltaNpv, 4);
+      fleetDelta += t.repowerVsRebuild.deltaNpv;
+    }
+    expect(d.body.headline.fleetDeltaNpv).toBeCloseTo(fleetDelta, 2);
   });
 
   it('answers spider, break-even and two-way for one truck', async () => {
