@@ -49,6 +49,18 @@ async function insertId(knex: Knex, table: string, values: Record<string, unknow
  * whole fleet, one user per role, and a second
  * small workspace so that workspace separation can be seen and tested.
  * Does nothing when the demo workspace already exists.
+ *
+ * The demo engines' Weibull figures (scenarios/aldervane-north-pit.json) are
+ * invented, chosen so that most engines reach their planned overhaul, as a
+ * planned overhaul life is set to do: shape β ≈ 2.8–3.4 (wear-out failures;
+ * "from memory": large diesel engines' in-service failures are usually fitted
+ * with β between 2 and 4) and scales η that give an in-service failure before
+ * the planned life of about 20 % for the two legacy engine types (18,000 and
+ * 20,000 h lives, η 29,500 and 33,000 h) and 10–12 % for the two newer types
+ * (24,000 and 25,000 h, η 45,000 and 48,000 h) — "common practice": a planned
+ * overhaul life is set near the B10–B20 life, where 10–20 % of engines have
+ * failed. The failed core credits are below the core credits ("common
+ * practice": a failed core is worth less to the remanufacturer).
  */
 export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
   const existing = await knex('workspaces').where({ slug: DEMO_WORKSPACE }).first();
