@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { createKnex } from '../../lib/db/connection';
 import { insertDemoCase } from '../support/demo-case';
-import { openBrowser, screenshot, signIn, WS } from './support/browser';
+import { apiHeaders, openBrowser, screenshot, signIn, WS } from './support/browser';
 
 /** "1,234.5", "(1,234)" or "−12.3 %" → a number. */
 const num = (s: string) => {
@@ -80,6 +80,7 @@ describe('expected figures of the demo case', () => {
   it('engine library: median and mean life, the chance of failing before the planned life, and the notice', async () => {
     // an engine type whose planned life lies above its median life: η 25,000 h, β 2 → median 20,815 h
     const made = await page.request.post(`${baseURL}/api/workspaces/${WS}/engines`, {
+      headers: apiHeaders(baseURL),
       data: {
         key: 'zz-long-life', name: 'Long planned life (test)', ratedKw: 2000, bsfcGPerKwh: 205, lifeHours: 30000, weibullShape: 2, weibullScaleHours: 25000,
         overhaulCost: 800000, overhaulDowntimeDays: 14, failureCost: 1400000, failureDowntimeDays: 30, serviceIntervalHours: 500, sumpLitres: 250,
@@ -110,7 +111,7 @@ describe('expected figures of the demo case', () => {
       await screenshot(page, 'expected-engine-library');
     } finally {
       const item = (made_.item ?? made_) as { id: number; version: number };
-      await page.request.delete(`${baseURL}/api/workspaces/${WS}/engines/${item.id}?version=${item.version}`);
+      await page.request.delete(`${baseURL}/api/workspaces/${WS}/engines/${item.id}?version=${item.version}`, { headers: apiHeaders(baseURL) });
     }
   });
 

@@ -82,7 +82,7 @@ describe('new assumption sets, deleting offers, and the forgot-password throttle
     await form.getByLabel('Supplier').fill('Invented Modules Ltd');
     await form.getByLabel('Module price (USD)').fill('1400000');
     await form.getByLabel('Install cost (USD)').fill('120000');
-    await form.getByLabel('Core credit (USD)').fill('90000');
+    await form.getByLabel('Core credit (USD)', { exact: true }).fill('90000');
     await form.getByLabel('Days down (d)').fill('3');
     await form.getByRole('button', { name: 'Add offer' }).click();
     // the offer's own row (its quotes open in a row of their own below it)

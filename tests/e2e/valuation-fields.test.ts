@@ -16,7 +16,7 @@ describe('valuation, share of lost margin and failed core credit in the register
     await signIn(page, baseURL, 'analyst@aldervane.test');
     await page.goto(`${baseURL}/${WS}/assumptions`);
     const table = page.getByTestId('assumption-table');
-    await table.getByRole('button', { name: 'Edit High fuel' }).click();
+    await table.getByRole('button', { name: 'Edit High fuel', exact: true }).click();
     const form = page.getByTestId('assumption-form');
     await form.waitFor();
     // the demo's values: expected valuation, the whole margin lost, shown as a percentage
@@ -40,7 +40,7 @@ describe('valuation, share of lost margin and failed core credit in the register
     await row.waitFor();
     const cells = (await row.locator('td').allTextContents()).map((c) => c.trim());
     expect(cells.slice(9, 11)).toEqual(['median path', '50 %']);
-    await table.getByRole('button', { name: 'Edit High fuel' }).click();
+    await table.getByRole('button', { name: 'Edit High fuel', exact: true }).click();
     await form.waitFor();
     expect(await form.getByLabel('Valuation', { exact: true }).inputValue()).toBe('median-path');
     expect(await form.getByLabel('Share of lost margin (%)', { exact: true }).inputValue()).toBe('50');
