@@ -427,6 +427,12 @@ interface ExpectedQuantities {
 const QUANTITY_CACHE_SIZE = 4096;
 const quantityCache = new Map<string, ExpectedQuantities>();
 
+/** Forget the cached quantities and first-life tables (the bench's cold figure; the renewal tables stay). */
+export function clearExpectedQuantities(): void {
+  quantityCache.clear();
+  lastTable = null;
+}
+
 /**
  * The expected quantities of a policy, cached by everything they depend on
  * (the engines' reliability figures, lives and service intervals, the
