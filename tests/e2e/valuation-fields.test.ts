@@ -36,7 +36,7 @@ describe('valuation, share of lost margin and failed core credit in the register
     await form.waitFor({ state: 'detached' });
 
     await page.reload();
-    const row = table.locator('tbody tr').filter({ hasText: 'High fuel' });
+    const row = table.locator('tbody tr').filter({ has: page.getByRole('cell', { name: 'High fuel', exact: true }) });
     await row.waitFor();
     const cells = (await row.locator('td').allTextContents()).map((c) => c.trim());
     expect(cells.slice(9, 11)).toEqual(['median path', '50 %']);
