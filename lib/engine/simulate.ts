@@ -89,7 +89,7 @@ function emptyEventLog(): EventLog {
   return { count: 0, period: [], kind: [], cost: [] };
 }
 
-function logEvent(log: EventLog, period: number, kind: number, cost: number): void {
+export function logEvent(log: EventLog, period: number, kind: number, cost: number): void {
   const i = log.count;
   log.period[i] = period;
   log.kind[i] = kind;
@@ -115,14 +115,14 @@ export function failureSourceOf(provider: FailureAgeProvider): FailureAgeSource 
   };
 }
 
-function emptyPeriod(): PeriodRun {
+export function emptyPeriod(): PeriodRun {
   return {
     hours: 0, fuelLitres: 0, tonnes: 0, extraTonnes: 0, oilServices: 0, topUpLitres: 0, downtimeDays: 0,
     lube: 0, overhauls: 0, failures: 0, capital: 0, lostMargin: 0, extraMargin: 0,
   };
 }
 
-function clearPeriod(p: PeriodRun): void {
+export function clearPeriod(p: PeriodRun): void {
   p.hours = 0; p.fuelLitres = 0; p.tonnes = 0; p.extraTonnes = 0; p.oilServices = 0; p.topUpLitres = 0;
   p.downtimeDays = 0; p.lube = 0; p.overhauls = 0; p.failures = 0; p.capital = 0; p.lostMargin = 0; p.extraMargin = 0;
 }
@@ -329,7 +329,7 @@ function emptyTotals(): DiscountedTotals {
   return { energy: 0, lube: 0, lostMargin: 0, overhauls: 0, failures: 0, capital: 0, extraMargin: 0, depreciation: 0, writeOff: 0 };
 }
 
-function clearTotals(d: DiscountedTotals): void {
+export function clearTotals(d: DiscountedTotals): void {
   d.energy = 0; d.lube = 0; d.lostMargin = 0; d.overhauls = 0; d.failures = 0; d.capital = 0; d.extraMargin = 0;
   d.depreciation = 0; d.writeOff = 0;
 }
