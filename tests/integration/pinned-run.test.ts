@@ -87,7 +87,7 @@ describe.each(backends)('pinned Monte Carlo run on $name', ({ pg }) => {
     const p = await fetchPinnedRun(caseId, k);
     expect(p).toEqual({
       id: 'pin-1', caseId, spec, iterations: 10, seed: 4242, sampleFailures: false, distributions: spec.distributions,
-      measure: { kind: 'proposal', label: MEASURE_LABELS.proposal },
+      measure: { kind: 'proposal', label: MEASURE_LABELS.proposal, truckId: null },
       author: { id: analyst, name: user.name, email: user.email },
       startedAt: '2026-12-01T10:00:00.000Z', finishedAt: '2026-12-01T10:00:05.000Z',
       // the proposal's figure (300 in the stored result), not repower-everything's (100) or the best mix's (200)
@@ -99,7 +99,7 @@ describe.each(backends)('pinned Monte Carlo run on $name', ({ pg }) => {
     await insertRun(k, { id: 'old-1', workspaceId, caseId, userId: null, spec: { iterations: 10, seed: 1, sampleFailures: true, distributions: [] }, withProposal: false });
     await k('business_cases').where({ id: caseId }).update({ pinnedRunId: 'old-1' });
     const p = await fetchPinnedRun(caseId, k);
-    expect(p?.measure).toEqual({ kind: 'fleet-delta', label: MEASURE_LABELS['fleet-delta'] });
+    expect(p?.measure).toEqual({ kind: 'fleet-delta', label: MEASURE_LABELS['fleet-delta'], truckId: null });
     expect(p?.summary.mean).toBe(100);
     expect(p?.author).toBeNull();
     await insertRun(k, { id: 'failed-1', workspaceId, caseId, userId: null, status: 'failed' });
