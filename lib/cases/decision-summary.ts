@@ -39,9 +39,14 @@ import type { CaseFileInput } from '@/lib/validation/case';
 import { fiscalLabelOfPeriod, type CapitalPlan } from '@/lib/plan';
 import { chosenTrucks, proposalGainVsRebuild, proposalPolicies, type ProposalPolicies } from './proposal';
 
+/** The pinned Monte Carlo run the summary quotes (its figures are the run's measure, in the case's currency). */
 export interface DecisionRisk {
-  runId: number;
+  /** the run's id (monte_carlo_runs.id) */
+  runId: string;
+  /** what the run measured, e.g. "ΔNPV of the proposal against rebuilding every engine" */
   label: string;
+  sampleFailures: boolean;
+  startedAt: string;
   iterations: number;
   seed: number;
   author: string;
