@@ -102,7 +102,7 @@ export interface DecisionSummary {
   co2SavedTonnesPerYear: number;
   risk: null | DecisionRisk;
   /** left out of the proposal by a budget: the gain each forgoes */
-  leftOut: { truckId: string; capital: number; gainForgone: number; reason: string }[];
+  leftOut: { truckId: string; capital: number; gainForgone: number; reason: string; extraBudget: number; fiscalYear: string }[];
   /** trucks whose repower does not pay against their better other policy (never proposed) */
   notWorthIt: string[];
   /** three largest swings of the proposal's gain */
@@ -110,6 +110,8 @@ export interface DecisionSummary {
   chosenTrucks: string[];
   /** the policy of every truck in the proposal */
   policies: ProposalPolicies;
+  /** read from a frozen record: whether its hash still verifies (absent otherwise) */
+  recordVerifies?: boolean;
 }
 
 export interface DecisionSummaryInput {
@@ -197,7 +199,10 @@ export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSumma
       truckId: l.truckId,
       capital: l.capital,
       gainForgone: l.gain,
-      reason: `over the ${label} budget: adding it needs ${Math.round(l.extraBudget).toLocaleString('en-US')} ${input.currency} more`,
+      reason: `over the ${label} budget`,
+      /** what adding it to the chosen set would take on top of that budget */
+      extraBudget: l.extraBudget,
+      fiscalYear: label,
     }));
   });
   leftOut.sort((x, y) => y.gainForgone - x.gainForgone || x.truckId.localeCompare(y.truckId));

@@ -101,7 +101,7 @@ describe('the decision summary (hand-worked figures)', () => {
 
   it('lists what the budget left out and what each forgoes', () => {
     expect(summary.leftOut).toEqual([
-      { truckId: 'C', capital: 50, gainForgone: 2, reason: 'over the FY2027 budget: adding it needs 50 USD more' },
+      { truckId: 'C', capital: 50, gainForgone: 2, reason: 'over the FY2027 budget', extraBudget: 50, fiscalYear: 'FY2027' },
     ]);
     expect(summary.notWorthIt).toEqual([]);
     expect(summary.risk).toBeNull();
