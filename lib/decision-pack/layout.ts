@@ -104,3 +104,15 @@ export function tableBreaks(rows: number, o: { startY: number; top: number; bott
 
 /** At most this many rows of the ranking and of the schedule are printed (the rest are counted in a line: bounded work). */
 export const MAX_TABLE_ROWS = 400;
+
+/**
+ * `Content-Disposition` of the pack: "<case name> decision pack.pdf", the name
+ * as typed in `filename*` (RFC 6266 / 5987, UTF-8) and an ASCII stand-in in
+ * `filename` for old clients (quotes, backslashes and non-ASCII become "_").
+ */
+export function packDisposition(caseName: string): string {
+  const name = `${caseName.trim() || 'Case'} decision pack.pdf`;
+  const ascii = name.replace(/[^\x20-\x7e]|["\\]/g, '_');
+  const encoded = encodeURIComponent(name).replace(/['()*]/g, (c) => `%${c.charCodeAt(0).toString(16).toUpperCase()}`);
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${encoded}`;
+}

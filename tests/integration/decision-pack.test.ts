@@ -1,0 +1,114 @@
+import type { Knex } from 'knex';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { GET as decisionPack } from '@/app/api/workspaces/[workspace]/cases/[id]/decision-pack/route';
+import { POST as decide } from '@/app/api/workspaces/[workspace]/cases/[id]/decisions/route';
+import { GET as getResult } from '@/app/api/workspaces/[workspace]/cases/[id]/result/route';
+import { POST as submit } from '@/app/api/workspaces/[workspace]/cases/[id]/submit/route';
+import { chosenTrucks, proposalGainVsRebuild, proposalPolicies } from '@/lib/cases/proposal';
+import type { CaseResultDto } from '@/lib/cases/types';
+import { formatMoney } from '@/lib/format';
+import { firstPageInkShare, pdfPageCount, pdfToText } from '../support/pdf-text';
+import { call } from './support/call';
+import { openMailDb } from './support/mail-db';
+import { signInAs } from './support/session';
+
+vi.mock('@/lib/auth/session', async () => (await import('./support/session')).sessionMock);
+
+const WS = 'aldervane-north-pit';
+const p = (id: number) => ({ workspace: WS, id: String(id) });
+// the case pages' money format: thousands, negatives in the workspace's style (the demo: parentheses)
+const k = (x: number) => formatMoney(x, { scale: 'k', negative: 'parentheses' });
+const esc = (s: string) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+
+describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])('decision pack on $name', ({ pg }) => {
+  let kx: Knex;
+  let close: () => Promise<void>;
+  let ids: Record<string, number>;
+  let demoId: number;
+
+  /** a copy of the demo case (its 28 trucks, budgets and start month) under another name */
+  async function copyDemo(name: string): Promise<number> {
+    const demo = await kx('business_cases').where({ id: demoId }).first();
+    const now = new Date().toISOString();
+    const [row] = await kx('business_cases')
+      .insert({ workspaceId: demo.workspaceId, name, assumptionSetId: demo.assumptionSetId, selection: demo.selection, plan: demo.plan, status: 'draft', version: 1, createdAt: now, updatedAt: now })
+      .returning('id');
+    return typeof row === 'object' ? row.id : row;
+  }
+
+  beforeAll(async () => {
+    ({ k: kx, close, ids } = await openMailDb(pg));
+    const ws = await kx('workspaces').where({ slug: WS }).first('id');
+    demoId = (await kx('business_cases').where({ workspaceId: ws.id }).orderBy('id').first('id')).id;
+  });
+  afterAll(async () => close());
+
+  it('answers 401 signed out, 403 to a non-member and 404 for an unknown case', async () => {
+    signInAs(null);
+    expect((await call(decisionPack, p(demoId))).status).toBe(401);
+    signInAs(ids['admin@corrin.test']);
+    expect((await call(decisionPack, p(demoId))).status).toBe(403);
+    signInAs(ids['viewer@aldervane.test']);
+    expect((await call(decisionPack, p(999_999))).status).toBe(404);
+    expect((await call(decisionPack, { workspace: WS, id: 'x' })).status).toBe(404);
+  });
+
+  it('gives a viewer the PDF of the demo case with the figures the case pages show', async () => {
+    signInAs(ids['viewer@aldervane.test']);
+    const r = await call(decisionPack, p(demoId));
+    expect(r.status).toBe(200);
+    expect(r.response.headers.get('content-type')).toBe('application/pdf');
+    const disposition = r.response.headers.get('content-disposition') as string;
+    expect(disposition).toContain(`filename*=UTF-8''${encodeURIComponent('North Pit fleet — base assumptions decision pack.pdf')}`);
+    expect(disposition).toContain('filename="North Pit fleet _ base assumptions decision pack.pdf"');
+    const pdf = Buffer.from(await r.response.arrayBuffer());
+    expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
+
+    const dto = (await call(getResult, p(demoId))).body as CaseResultDto;
+    const text = pdfToText(pdf);
+    const policies = proposalPolicies(dto.result, dto.plan);
+    expect(text).toContain('North Pit fleet — base assumptions');
+    expect(text).toMatch(new RegExp(`Capital asked \\(${dto.currency} k\\)\\s+${esc(k(dto.plan.totalSpent))}`));
+    expect(text).toMatch(new RegExp(`Gain vs rebuilding every engine\\s+${esc(k(proposalGainVsRebuild(dto.result, policies)))}`));
+    expect(text).toMatch(new RegExp(`Trucks repowered\\s+${chosenTrucks(dto.plan).length}`));
+    // capital by fiscal year: the plan starts January 2027 and the fiscal year is the calendar year,
+    // so "now" (period 0) and year 1 (months 0–11) are FY2027, year 2 is FY2028
+    const fyOf = (year: number) => 2027 + Math.max(0, year - 1);
+    const byFy = new Map<number, { capital: number; budget: number }>();
+    for (const y of dto.plan.years) {
+      const e = byFy.get(fyOf(y.year)) ?? { capital: 0, budget: 0 };
+      e.capital += y.spent;
+      e.budget += y.budget ?? 0;
+      byFy.set(fyOf(y.year), e);
+    }
+    expect(byFy.size).toBeGreaterThan(0);
+    for (const [fy, e] of byFy) expect(text).toMatch(new RegExp(`FY${fy}\\s+${esc(k(e.budget))}\\s+${esc(k(e.capital))}`));
+    // every truck of the ranking, the proposal's marked "yes"
+    for (const t of dto.ranking) expect(text).toMatch(new RegExp(`\\b${esc(t.truckId)}\\s+${chosenTrucks(dto.plan).includes(t.truckId) ? 'yes\\s+repower' : '(keep|rebuild)'}`));
+    expect(text).toContain('No pinned Monte Carlo run');
+    expect(text).toContain('Not submitted yet.');
+    expect(text).toMatch(/Engine swaps, electrical work and\s+load testing/);
+    expect(pdfPageCount(pdf)).toBeGreaterThan(1);
+    expect(firstPageInkShare(pdf)).toBeGreaterThan(0.01);
+  });
+
+  it('carries the approval trail and the frozen hash once approved', async () => {
+    const id = await copyDemo('Pack approval check');
+    signInAs(ids['analyst@aldervane.test']);
+    expect((await call(submit, p(id), { body: { comment: 'For the committee' } })).status).toBe(200);
+    signInAs(ids['approver@aldervane.test']);
+    expect((await call(decide, p(id), { body: { decision: 'approve', comment: 'Agreed in committee' } })).status).toBe(200);
+    const { frozenHash } = await kx('business_cases').where({ id }).first('frozenHash');
+    expect(frozenHash).toMatch(/^[0-9a-f]{64}$/);
+    signInAs(ids['viewer@aldervane.test']);
+    const pdf = Buffer.from(await (await call(decisionPack, p(id))).response.arrayBuffer());
+    const text = pdfToText(pdf);
+    expect(text).toContain(frozenHash);
+    expect(text).toContain('The stored record verifies against this hash');
+    expect(text).toMatch(/Status\s+Approved/);
+    expect(text).toContain('Figures from the frozen record');
+    expect(text).toMatch(/Submitted\s+For the committee/);
+    expect(text).toMatch(/Approved\s+Agreed in committee/);
+    expect(firstPageInkShare(pdf)).toBeGreaterThan(0.01);
+  });
+});
