@@ -3,8 +3,9 @@
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { ApiError, sendJson } from '@/lib/fetcher';
+import { MONTH_NAMES } from '@/lib/plan/fiscal-year';
 
-type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus' };
+type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; fiscalYearStartMonth: number };
 
 /** Display units and negative style (admins). Stored values stay metric; the register, the engine library and the truck and engine forms read and take the chosen units. */
 export function DisplaySettings({ slug, initial, canEdit }: { slug: string; initial: Settings; canEdit: boolean }) {
@@ -40,6 +41,23 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
             {s === 'parentheses' ? '(1,250)' : '−1,250'}
           </label>
         ))}
+        <label className="label mt-3 block" htmlFor="fiscal-year-start">Fiscal year starts in</label>
+        <select
+          id="fiscal-year-start"
+          className="field"
+          value={values.fiscalYearStartMonth}
+          onChange={(e) => setValues({ ...values, fiscalYearStartMonth: Number(e.target.value) })}
+        >
+          {MONTH_NAMES.map((name, i) => (
+            <option key={name} value={i + 1}>{name}</option>
+          ))}
+        </select>
+        <p className="mt-1 text-xs text-muted">
+          Budgets, capital and plan tables are by fiscal year, named after the calendar year the fiscal year ends in
+          {values.fiscalYearStartMonth === 1
+            ? ' (January start: FY2027 is the calendar year 2027).'
+            : ` (${MONTH_NAMES[values.fiscalYearStartMonth - 1]} start: FY2027 runs from ${MONTH_NAMES[values.fiscalYearStartMonth - 1]} 2026 to ${MONTH_NAMES[values.fiscalYearStartMonth - 2]} 2027).`}
+        </p>
       </fieldset>
       {canEdit ? <button type="submit" className="btn btn-primary mt-3">Save display settings</button> : <p className="mt-3 text-xs text-muted">Only a workspace admin can change these.</p>}
       {message ? <p role="status" className="mt-2 text-sm">{message}</p> : null}

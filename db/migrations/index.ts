@@ -9,13 +9,15 @@ import * as m0009 from './0009_submitted_case';
 import * as m0011 from './0011_mail_outbox';
 import * as m0012 from './0012_auth_guard';
 import * as m0013 from './0013_valuation_fields';
+import * as m0014 from './0014_pinned_run';
+import * as m0015 from './0015_frozen_proposal';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
  * tsx scripts and vitest (no file-system scan, no TypeScript loader needed).
  * To add one: create `NNNN_name.ts` exporting `up` and `down`, then append it below.
  */
-const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void> }> = {
+const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Knex) => Promise<void>; config?: { transaction?: boolean } }> = {
   '0001_accounts': m0001,
   '0002_fleet': m0002,
   '0003_cases': m0003,
@@ -26,6 +28,8 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0011_mail_outbox': m0011,
   '0012_auth_guard': m0012,
   '0013_valuation_fields': m0013,
+  '0014_pinned_run': m0014,
+  '0015_frozen_proposal': m0015,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -2,10 +2,14 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { db } from '@/lib/db';
 import { buildCaseFile } from '@/lib/db/queries/case-file';
-import { evaluateCase, type CaseResult } from '@/lib/engine';
+import type { CaseResult } from '@/lib/engine';
 import { invalid } from '@/lib/http';
 import { validateCase, type CaseFile } from '@/lib/validation/case';
-import { canonicalJson, frozenHashOf, verifyFrozen, type FrozenColumns } from './canonical';
+import { decideFigures } from '@/lib/cases/decision';
+import { fetchPinnedRun } from '@/lib/risk/runs';
+import { nowIso } from '@/lib/time';
+import { readPlanSettings } from '@/lib/validation/business-case';
+import { canonicalJson, sha256Hex, verifyFrozen, type FrozenColumns, type FrozenRecord } from './canonical';
 
 export type CaseRow = FrozenColumns & {
   id: number;
@@ -16,6 +20,9 @@ export type CaseRow = FrozenColumns & {
   status: string;
   /** canonical case/1 stored at submission, or null (never submitted, or sent back) */
   submittedCase?: string | null;
+  /** the plan settings JSON as stored */
+  plan?: string | null;
+  createdAt?: string;
 };
 
 type SelectionItem = { truckId: number; repowerOfferId?: number | null };
@@ -67,18 +74,60 @@ export function readSubmittedCase(row: Pick<CaseRow, 'submittedCase'>): CaseFile
   return row.submittedCase ? (JSON.parse(row.submittedCase) as CaseFile) : null;
 }
 
+/** What the freeze needs of the workspace and the case besides its row. */
+export interface FreezeContext {
+  currency: string;
+  fiscalYearStartMonth: number;
+}
+
 /**
  * Freezes a case inside the approving transaction: the case/1 exactly as it was
- * submitted and its case-result/1, as canonical JSON text, and a SHA-256 of
- * both. Fleet edits between submission and approval never reach it. A case
- * submitted before snapshots were kept has none; it is built from the stored
- * data as before.
+ * submitted, its case-result/1, the proposal its saved plan makes (budgets,
+ * shop capacity, chosen trucks, capital plan, swap schedule) with its decision
+ * summary, and the pinned Monte Carlo run, as one canonical JSON record
+ * (`frozenRecord`, `frozen-record/1`), and the SHA-256 of that text. The case
+ * and result are also kept as their own canonical texts (`frozenCase`,
+ * `frozenResult`), which `verifyFrozen` checks against the record. Fleet edits
+ * between submission and approval never reach it. A case submitted before
+ * snapshots were kept has none; it is built from the stored data as before.
  */
-export async function freezeCase(trx: Knex.Transaction, row: CaseRow): Promise<{ frozenCase: string; frozenResult: string; frozenHash: string }> {
+export async function freezeCase(
+  trx: Knex.Transaction,
+  row: CaseRow,
+  ctx: FreezeContext,
+): Promise<{ frozenCase: string; frozenResult: string; frozenRecord: string; frozenHash: string }> {
   const file = readSubmittedCase(row) ?? (await buildCaseForRow(row, trx));
-  const frozenCase = canonicalJson(file);
-  const frozenResult = canonicalJson(evaluateCase(file, { trusted: true }));
-  return { frozenCase, frozenResult, frozenHash: frozenHashOf(frozenCase, frozenResult) };
+  const plan = readPlanSettings(row.plan ?? null, row.createdAt ?? nowIso());
+  const pinnedRun = await fetchPinnedRun(row.id, trx);
+  const { result, proposal, summary } = decideFigures(file, {
+    caseId: row.id,
+    caseName: row.name,
+    status: 'approved',
+    source: 'frozen',
+    currency: ctx.currency,
+    fiscalYearStartMonth: ctx.fiscalYearStartMonth,
+    plan,
+    pinnedRun,
+  });
+  const record: FrozenRecord = {
+    format: 'frozen-record/1',
+    caseId: row.id,
+    case: file,
+    result,
+    proposal: {
+      settings: { budgets: plan.budgets, swapsPerMonth: plan.swapsPerMonth, startMonth: plan.startMonth },
+      chosenTrucks: proposal.chosen,
+      policies: proposal.policies,
+      plan: proposal.plan,
+      schedule: proposal.schedule,
+    },
+    summary,
+    pinnedRun,
+  };
+  const frozenRecord = canonicalJson(record);
+  // the record once parsed back, so the separate texts are byte for byte what the record holds
+  const parsed = JSON.parse(frozenRecord) as FrozenRecord;
+  return { frozenCase: canonicalJson(parsed.case), frozenResult: canonicalJson(parsed.result), frozenRecord, frozenHash: sha256Hex(frozenRecord) };
 }
 
 /**

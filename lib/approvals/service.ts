@@ -67,7 +67,7 @@ export async function decideCase(access: Access, id: number, input: { decision: 
     const state = await workflowState(trx, row, access.workspace.settings.approvalsRequired);
     const step = orThrow(canDecide(state, access.role, access.userId, input.decision, input.comment));
     const at = nowIso();
-    const frozen = step.next === 'approved' ? await freezeCase(trx, row) : {};
+    const frozen = step.next === 'approved' ? await freezeCase(trx, row, { currency: access.workspace.currency, fiscalYearStartMonth: access.workspace.settings.fiscalYearStartMonth }) : {};
     const patch = {
       status: step.next,
       ...(step.final ? { decidedAt: at } : {}),

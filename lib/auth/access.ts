@@ -8,17 +8,22 @@ export type WorkspaceSettings = {
   units: 'metric' | 'us';
   negativeStyle: 'parentheses' | 'minus';
   approvalsRequired: number;
+  /** month (1..12) the fiscal year starts in; a fiscal year is named after the calendar year it ends in */
+  fiscalYearStartMonth: number;
 };
 
 export type Workspace = { id: number; slug: string; name: string; currency: string; settings: WorkspaceSettings };
 
 export type Access = { userId: number; workspace: Workspace; role: Role };
 
-const DEFAULT_SETTINGS: WorkspaceSettings = { units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1 };
+const DEFAULT_SETTINGS: WorkspaceSettings = { units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1, fiscalYearStartMonth: 1 };
 
 export function parseSettings(text: string | null | undefined): WorkspaceSettings {
   try {
-    return { ...DEFAULT_SETTINGS, ...(text ? JSON.parse(text) : {}) };
+    const s: WorkspaceSettings = { ...DEFAULT_SETTINGS, ...(text ? JSON.parse(text) : {}) };
+    const m = s.fiscalYearStartMonth;
+    // a stored value out of range (never written by the settings route) reads as the default
+    return Number.isInteger(m) && m >= 1 && m <= 12 ? s : { ...s, fiscalYearStartMonth: 1 };
   } catch {
     return DEFAULT_SETTINGS;
   }

@@ -11,7 +11,8 @@ import { fetchCase, type CaseRow } from '@/lib/db/queries/cases';
 import { db } from '@/lib/db';
 import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from '@/lib/engine';
 import { invalid, notFound, type Problem } from '@/lib/http';
-import { monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps } from '@/lib/plan';
+import { buildDecisionSummary } from './decision-summary';
+import { buildProposal } from './proposal';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
@@ -85,27 +86,26 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     const annual = file.trucks.find((t) => t.id === d.truckId)!.annualHours;
     trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
   }
-  const ranking = rankTrucks(result);
-  const candidates = ranking
-    .filter((r) => r.capitalYear !== null)
-    .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
-  const budgets = Object.fromEntries(Object.entries(row.plan.budgets).map(([y, b]) => [Number(y), b]));
-  const plan = planCapital(candidates, budgets);
-  // each chosen swap is due in the month of the repower event on the engine's own trace
-  const requests = plan.years.flatMap((y) =>
-    y.chosen.map((c) => {
-      const ev = trucks[c.truckId].events.repower.find((e) => e.kind === 'repower');
-      const annual = trucks[c.truckId].annualHours;
-      return { truckId: c.truckId, gain: c.gain, dueMonth: ev ? ev.month : monthOfEvent(c.capitalYear, 0, annual) };
-    }),
+  const timing = Object.fromEntries(
+    Object.entries(trucks).map(([id, m]) => [id, { repowerMonth: m.events.repower.find((e) => e.kind === 'repower')?.month ?? null, annualHours: m.annualHours }]),
   );
-  const yearOf = new Map(candidates.map((c) => [c.truckId, c.capitalYear]));
-  const schedule = scheduleSwaps(requests, row.plan.swapsPerMonth).map((s) => ({
-    ...s,
-    label: monthLabel(row.plan.startMonth, s.month),
-    dueLabel: monthLabel(row.plan.startMonth, s.dueMonth),
-    capitalYear: yearOf.get(s.truckId) ?? null,
-  }));
+  const { ranking, plan, schedule } = buildProposal(result, timing, row.plan);
+  const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
+  const source = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';
+  const proposal = buildDecisionSummary({
+    caseId: row.id,
+    caseName: row.name,
+    status: row.status,
+    source,
+    currency: access.workspace.currency,
+    fiscalYearStartMonth,
+    planStartMonth: row.plan.startMonth,
+    file,
+    result,
+    plan,
+    drivers: [],
+    risk: null,
+  });
   return {
     case: toSummaryDto(row),
     valuation: file.assumptions.valuation,
@@ -118,6 +118,8 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     ranking,
     plan,
     schedule,
+    proposal,
+    fiscalYearStartMonth,
     evaluatedMs: Math.round(performance.now() - started),
   };
 }

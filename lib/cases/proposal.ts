@@ -10,8 +10,8 @@
  * The same policy map is held fixed when a risk analysis varies the inputs
  * (the engine's `proposal` metric), so the risk pages test what is proposed.
  */
-import type { CaseResult, PolicyKey } from '@/lib/engine/types';
-import { bestOtherPolicy, type CapitalPlan } from '@/lib/plan';
+import type { CaseResult, PolicyKey, TruckDetail } from '@/lib/engine/types';
+import { bestOtherPolicy, monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps, type CapitalPlan, type PlacedSwap, type RankedTruck } from '@/lib/plan';
 
 export type ProposalPolicies = Record<string, PolicyKey>;
 
@@ -30,4 +30,69 @@ export function proposalGainVsRebuild(result: CaseResult, policies: ProposalPoli
   let sum = 0;
   for (const t of result.trucks) sum += t.options[policies[t.id] ?? 'rebuild'].npv - t.options.rebuild.npv;
   return sum;
+}
+
+/** What the schedule needs of a truck: the month of its repower event on the engine's trace, and its annual hours. */
+export interface ProposalTruckTiming {
+  repowerMonth: number | null;
+  annualHours: number;
+}
+
+export interface PlanSettingsLike {
+  budgets: Record<string, number | null>;
+  swapsPerMonth: number;
+  startMonth: string;
+}
+
+export type ProposalSwap = PlacedSwap & { label: string; dueLabel: string; capitalYear: number | null };
+
+/** The proposal as a case's saved plan settings make it: the ranking, the capital plan within the budgets, the swap schedule and each truck's policy. */
+export interface Proposal {
+  ranking: RankedTruck[];
+  plan: CapitalPlan;
+  schedule: ProposalSwap[];
+  policies: ProposalPolicies;
+  chosen: string[];
+}
+
+/**
+ * The proposal of a case from the engine's result and its saved plan settings:
+ * rank the trucks, choose the repowers within each year's budget, place each
+ * chosen swap in the month its repower is due (at most `swapsPerMonth` a
+ * month). Pure; the server's evaluation and the freeze both call it, so what
+ * is shown and what is approved are one computation.
+ */
+export function buildProposal(result: CaseResult, timing: Record<string, ProposalTruckTiming>, settings: PlanSettingsLike): Proposal {
+  const ranking = rankTrucks(result);
+  const candidates = ranking
+    .filter((r) => r.capitalYear !== null)
+    .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
+  const budgets = Object.fromEntries(Object.entries(settings.budgets).map(([y, b]) => [Number(y), b]));
+  const plan = planCapital(candidates, budgets);
+  // each chosen swap is due in the month of the repower event on the engine's own trace
+  const requests = plan.years.flatMap((y) =>
+    y.chosen.map((c) => {
+      const t = timing[c.truckId];
+      return { truckId: c.truckId, gain: c.gain, dueMonth: t?.repowerMonth ?? monthOfEvent(c.capitalYear, 0, t?.annualHours ?? 0) };
+    }),
+  );
+  const yearOf = new Map(candidates.map((c) => [c.truckId, c.capitalYear]));
+  const schedule = scheduleSwaps(requests, settings.swapsPerMonth).map((s) => ({
+    ...s,
+    label: monthLabel(settings.startMonth, s.month),
+    dueLabel: monthLabel(settings.startMonth, s.dueMonth),
+    capitalYear: yearOf.get(s.truckId) ?? null,
+  }));
+  return { ranking, plan, schedule, policies: proposalPolicies(result, plan), chosen: chosenTrucks(plan) };
+}
+
+/** The schedule's timing of every truck from the engine's detailed trace (the first repower event of its repower policy). */
+export function timingFromDetails(file: { trucks: ReadonlyArray<{ id: string; annualHours: number }> }, details: readonly TruckDetail[]): Record<string, ProposalTruckTiming> {
+  const out: Record<string, ProposalTruckTiming> = {};
+  for (const d of details) {
+    const annualHours = file.trucks.find((t) => t.id === d.truckId)?.annualHours ?? 0;
+    const ev = d.policies.repower.events.find((e) => e.kind === 'repower');
+    out[d.truckId] = { repowerMonth: ev ? monthOfEvent(ev.period, ev.hourOfYear, annualHours) : null, annualHours };
+  }
+  return out;
 }

@@ -2,6 +2,7 @@
 import type { CaseResult, EventKind, PolicyKey, TruckDetail, TruckResult } from '@/lib/engine/types';
 import type { CapitalPlan, PlacedSwap, RankedTruck } from '@/lib/plan';
 import type { PlanSettings } from '@/lib/validation/business-case';
+import type { DecisionSummary } from './decision-summary';
 
 export type CaseSummaryDto = {
   id: number;
@@ -61,6 +62,10 @@ export type CaseResultDto = {
   ranking: RankedTruck[];
   plan: CapitalPlan;
   schedule: ScheduledSwap[];
+  /** the proposal's figures (the decision summary without the drivers and the risk, which its own route adds) */
+  proposal: DecisionSummary;
+  /** month (1..12) the workspace's fiscal year starts in */
+  fiscalYearStartMonth: number;
   /** server time to build and evaluate the case, ms */
   evaluatedMs: number;
 };

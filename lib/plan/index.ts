@@ -3,3 +3,4 @@ export * from './ranking';
 export * from './knapsack';
 export * from './capital-plan';
 export * from './schedule';
+export * from './fiscal-year';

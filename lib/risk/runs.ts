@@ -13,6 +13,7 @@ import type { MonteCarloResult } from '@/lib/engine/monte-carlo';
 import type { CaseFile } from '@/lib/validation/case';
 import type { MonteCarloRequest } from '@/lib/validation/risk';
 import type { Knex } from 'knex';
+import { fleetSummary, MEASURE_LABELS, runMeasure, type FleetMeasure } from './measures';
 import { cancelJob, getJob, MAX_RUNNING, runningCount, startJob, TooManyRunsError, type JobView } from './jobs';
 
 /** Why a run left `running` by an earlier server process is failed when a server starts. */
@@ -137,4 +138,59 @@ export async function cancelRun(o: { workspaceId: number; caseId: number; runId:
   });
   if (!marked) return readRun(o.workspaceId, o.caseId, o.runId); // it finished meanwhile: show how
   return { ...run, status: 'cancelled', error: CANCELLED_NOT_RUNNING, finishedAt };
+}
+
+/** A pinned run as the decision summary and the frozen record quote it. */
+export interface PinnedRun {
+  id: string;
+  caseId: number;
+  /** what the run was asked, as stored (distributions, sampleFailures, iterations, seed, measure) */
+  spec: MonteCarloRequest;
+  iterations: number;
+  seed: number;
+  sampleFailures: boolean;
+  distributions: MonteCarloRequest['distributions'];
+  measure: { kind: FleetMeasure; label: string };
+  /** who started it (null: the account has since been removed) */
+  author: { id: number; name: string; email: string } | null;
+  startedAt: string;
+  finishedAt: string;
+  /** the fleet figure of the measure, in the case's currency */
+  summary: { mean: number; p10: number; p50: number; p90: number; probLoss: number };
+}
+
+/**
+ * The run pinned to a case, when it is finished (`done`) and holds the figure
+ * of its measure; null when none is pinned. `k` may be a transaction (the
+ * submission and the freeze read it inside theirs).
+ */
+export async function fetchPinnedRun(caseId: number, k: Knex = db()): Promise<PinnedRun | null> {
+  const row = await k('business_cases as c')
+    .join('monte_carlo_runs as r', function () {
+      this.on('r.id', '=', 'c.pinnedRunId').andOn('r.caseId', '=', 'c.id');
+    })
+    .leftJoin('users as u', 'u.id', 'r.createdBy')
+    .where('c.id', caseId)
+    .where('r.status', 'done')
+    .select('r.*', 'u.id as authorId', 'u.name as authorName', 'u.email as authorEmail')
+    .first();
+  if (!row || !row.result) return null;
+  const run = fromRow(row);
+  const measure = runMeasure(run.spec);
+  const s = run.result ? fleetSummary(run.result.fleet, measure) : null;
+  if (!s) return null;
+  return {
+    id: run.id,
+    caseId: run.caseId,
+    spec: { ...run.spec, measure },
+    iterations: run.result?.iterations ?? run.iterations,
+    seed: run.spec.seed,
+    sampleFailures: run.spec.sampleFailures,
+    distributions: run.spec.distributions,
+    measure: { kind: measure, label: MEASURE_LABELS[measure] },
+    author: row.authorId == null ? null : { id: row.authorId, name: row.authorName ?? '', email: row.authorEmail ?? '' },
+    startedAt: run.createdAt,
+    finishedAt: run.finishedAt ?? run.createdAt,
+    summary: { mean: s.mean, p10: s.p10, p50: s.p50, p90: s.p90, probLoss: s.probNegative },
+  };
 }

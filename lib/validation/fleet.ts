@@ -96,6 +96,13 @@ export type AssumptionSetInput = z.output<typeof assumptionSetInputSchema>;
 export const displaySettingsSchema = z.strictObject({
   units: z.enum(['metric', 'us'], 'must be "metric" or "us"').optional(),
   negativeStyle: z.enum(['parentheses', 'minus'], 'must be "parentheses" or "minus"').optional(),
+  /** the calendar month (1 = January … 12 = December) the workspace's fiscal year starts in */
+  fiscalYearStartMonth: z
+    .number({ error: 'must be a number' })
+    .int('must be a whole number (1 = January … 12 = December)')
+    .min(1, 'must be a month from 1 (January) to 12 (December)')
+    .max(12, 'must be a month from 1 (January) to 12 (December)')
+    .optional(),
 });
 
 // ---------------------------------------------------------------- case-file upload

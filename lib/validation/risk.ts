@@ -69,6 +69,8 @@ export const monteCarloRequestSchema = z.strictObject({
   seed: z.number().int('must be a whole number').min(0, 'must not be negative').max(2 ** 31 - 1, 'must be below 2,147,483,648'),
   sampleFailures: z.boolean().default(true),
   distributions: z.array(z.strictObject({ driver: driverIdSchema, distribution: distributionSchema })).max(200).default([]),
+  /** the fleet figure the run is read on (lib/risk/measures.ts); default the proposal */
+  measure: z.enum(['proposal', 'fleet-delta', 'fleet-best'], 'must be proposal, fleet-delta or fleet-best').default('proposal'),
 });
 
 export type MetricInput = z.infer<typeof metricSchema>;

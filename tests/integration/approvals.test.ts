@@ -127,7 +127,7 @@ describe.each(backends)('approval workflow with e-mail through a real SMTP sink 
     await call(submit, p(id), { body: {} });
     signInAs(ids['approver@aldervane.test']);
     expect((await call(decide, p(id), { body: { decision: 'approve', comment: 'Approved at the March committee.' } })).status).toBe(200);
-    const before = await k('business_cases').where({ id }).first('frozenCase', 'frozenResult', 'frozenHash');
+    const before = await k('business_cases').where({ id }).first('frozenCase', 'frozenResult', 'frozenRecord', 'frozenHash');
     expect(JSON.parse(before.frozenCase).trucks).toHaveLength(24);
     expect(readFrozenResult(before)?.format).toBe('case-result/1');
 
@@ -137,7 +137,7 @@ describe.each(backends)('approval workflow with e-mail through a real SMTP sink 
     await k('assumption_sets').where({ workspaceId: ws.id }).update({ notes: 'edited' });
     await k('repower_offers').where({ workspaceId: ws.id }).update({ modulePrice: 10 });
 
-    const after = await k('business_cases').where({ id }).first('frozenCase', 'frozenResult', 'frozenHash');
+    const after = await k('business_cases').where({ id }).first('frozenCase', 'frozenResult', 'frozenRecord', 'frozenHash');
     expect(Buffer.from(after.frozenCase).equals(Buffer.from(before.frozenCase))).toBe(true);
     expect(Buffer.from(after.frozenResult).equals(Buffer.from(before.frozenResult))).toBe(true);
     expect(after.frozenHash).toBe(before.frozenHash);

@@ -135,7 +135,7 @@ describe.each([
   it('migration 0013 moves JSON-held values into the columns, and its down() puts them back', async () => {
     const t = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined });
     try {
-      await t.k.migrate.down(); // 0013 only
+      await t.k.migrate.down({ name: '0013_valuation_fields' }); // 0013 only (later migrations stay)
       const ws = (await t.k('workspaces').where({ slug: WS }).first('id')).id;
       const set = await t.k('assumption_sets').where({ workspaceId: ws, name: 'Base' }).first();
       expect(JSON.parse(set.assumptions)).toMatchObject({ valuation: 'expected', lostMarginShare: 1 });

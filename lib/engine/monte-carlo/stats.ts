@@ -172,6 +172,11 @@ export interface MonteCarloResult {
     deltaNpv: Summary;
     /** each truck on its best policy in that iteration */
     bestNpv: Summary;
+    /**
+     * Σ over trucks of npv(the proposal's policy) − npv(rebuild), the policies held
+     * fixed (spec.proposal); absent when the run was given no proposal
+     */
+    proposalNpv?: Summary;
   };
 }
 

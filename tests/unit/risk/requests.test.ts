@@ -28,9 +28,9 @@ function problemsOf(fn: () => unknown) {
 
 describe('risk request checks', () => {
   it('refuses a Monte Carlo run of more iterations × trucks than the server holds, saying the most it takes', () => {
-    const problems = problemsOf(() => checkMonteCarlo(fleet, { iterations: 50_000, seed: 1, sampleFailures: true, distributions: [] }));
+    const problems = problemsOf(() => checkMonteCarlo(fleet, { iterations: 50_000, seed: 1, sampleFailures: true, distributions: [], measure: 'proposal' }));
     expect(problems).toEqual([{ path: 'iterations', message: expect.stringContaining(`at most ${(MAX_TRUCK_ITERATIONS / 100).toLocaleString('en-US')} for 100 trucks`) }]);
-    expect(() => checkMonteCarlo(fleet, { iterations: 10_000, seed: 1, sampleFailures: true, distributions: [] })).not.toThrow();
+    expect(() => checkMonteCarlo(fleet, { iterations: 10_000, seed: 1, sampleFailures: true, distributions: [], measure: 'proposal' })).not.toThrow();
   });
 
   it('refuses tornado ranges outside a driver\'s valid range, with their paths', () => {
