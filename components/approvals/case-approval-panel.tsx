@@ -73,9 +73,16 @@ export function CaseApprovalPanel({ workspace, caseId }: { workspace: string; ca
 
       {data.frozen ? (
         <div className={`mt-3 rounded border px-3 py-2 text-xs ${data.frozen.verifies ? 'border-gain/40 bg-[#eef6f1]' : 'border-loss/40 bg-[#fbeceb]'}`} data-testid="frozen-hash">
-          <div className="font-medium">{data.frozen.verifies ? '✓ Frozen record verifies' : '✗ Frozen record does NOT verify: the stored inputs or results were altered'}</div>
-          <div className="mt-0.5 text-muted">Inputs (case/1) and results (case-result/1) as approved, SHA-256:</div>
-          <code className="block break-all font-mono text-[11px]">{data.frozen.hash}</code>
+          <div className="font-medium" data-testid="frozen-verdict">{data.frozen.verifies ? '✓ Frozen record verifies' : '✗ Frozen record does not verify: the stored record was altered'}</div>
+          <div className="mt-0.5 text-muted">What was approved — the case file, its results, the proposal (budgets, chosen trucks, swap schedule) with its decision summary, and the pinned Monte Carlo run — SHA-256:</div>
+          <code className="block break-all font-mono text-[11px]" data-testid="frozen-hash-value">{data.frozen.hash}</code>
+          <a className="btn mt-2 inline-block" href={`${base}/frozen-record`} download data-testid="download-frozen-record">Download frozen record</a>
+          <p className="mt-1 text-muted">
+            The file holds exactly the bytes hashed. To check it elsewhere, compute its SHA-256 and compare it with the hash above:{' '}
+            <code className="font-mono">sha256sum case-{caseId}-frozen-record.json</code> (Linux),{' '}
+            <code className="font-mono">shasum -a 256 case-{caseId}-frozen-record.json</code> (macOS) or{' '}
+            <code className="font-mono">certutil -hashfile case-{caseId}-frozen-record.json SHA256</code> (Windows).
+          </p>
         </div>
       ) : null}
 

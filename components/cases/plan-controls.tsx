@@ -4,10 +4,11 @@ import { useEffect, useState } from 'react';
 import type { CaseResultDto } from '@/lib/cases/types';
 import { ApiError, sendJson } from '@/lib/fetcher';
 import { planSettingsSchema } from '@/lib/validation/business-case';
+import { periodMonths, periodName } from '@/lib/plan/fiscal-year';
 
 type Problem = { path: string; message: string };
 
-/** Budget per year of spend, swaps a month and the first month; saved with the case (versioned, audited). */
+/** Budget per fiscal year of spend (a plan period, named by the fiscal year it starts in), swaps a month and the first month; saved with the case (versioned, audited). */
 export function PlanControls({ data, slug, canEdit, onSaved }: { data: CaseResultDto; slug: string; canEdit: boolean; onSaved: () => Promise<unknown> }) {
   const years = [...new Set([...data.plan.years.map((y) => y.year), ...data.summary.capitalByYear.map((c) => c.year)])].sort((a, b) => a - b);
   const stored = data.case.plan;
@@ -59,12 +60,13 @@ export function PlanControls({ data, slug, canEdit, onSaved }: { data: CaseResul
 
   return (
     <form onSubmit={save} className="card space-y-3 p-3" aria-label="Capital plan settings" noValidate>
-      <h2 className="text-sm font-semibold">Capital budget per year of spend ({data.currency}) and shop capacity</h2>
+      <h2 className="text-sm font-semibold">Capital budget per fiscal year of spend ({data.currency}) and shop capacity</h2>
       <div className="flex flex-wrap items-start gap-3">
         {years.map((y) => (
           <div key={y}>
-            <label className="label" htmlFor={`budget-${y}`}>{y === 0 ? 'Year 0 (now)' : `Year ${y}`} budget</label>
+            <label className="label" htmlFor={`budget-${y}`}>{periodName(stored.startMonth, y, data.fiscalYearStartMonth)} budget</label>
             <input id={`budget-${y}`} inputMode="decimal" className="field w-36 text-right" placeholder="no limit" disabled={!editable} value={budgets[String(y)] ?? ''} onChange={(e) => setBudgets({ ...budgets, [String(y)]: e.target.value })} aria-invalid={!!err(`budgets.${y}`)} />
+            <p className="mt-0.5 text-xs text-muted">{periodMonths(stored.startMonth, y)}</p>
             <p className="mt-0.5 text-xs text-loss" aria-live="polite">{err(`budgets.${y}`)}</p>
           </div>
         ))}
@@ -74,7 +76,7 @@ export function PlanControls({ data, slug, canEdit, onSaved }: { data: CaseResul
           <p className="mt-0.5 text-xs text-loss" aria-live="polite">{err('swapsPerMonth')}</p>
         </div>
         <div>
-          <label className="label" htmlFor="start-month">First month (year 0)</label>
+          <label className="label" htmlFor="start-month">First month of the plan (now)</label>
           <input id="start-month" type="month" className="field w-40" disabled={!editable} value={start} onChange={(e) => setStart(e.target.value)} aria-invalid={!!err('startMonth')} />
           <p className="mt-0.5 text-xs text-loss" aria-live="polite">{err('startMonth')}</p>
         </div>

@@ -5,6 +5,7 @@ import useSWR from 'swr';
 import type { CaseResultDto } from '@/lib/cases/types';
 import type { ApiError } from '@/lib/fetcher';
 import { formatMoney, formatNumber } from '@/lib/format';
+import { periodMonths, periodName } from '@/lib/plan/fiscal-year';
 import { EvaluationProblems, ResultsSkeleton } from './case-results';
 import { PlanControls } from './plan-controls';
 import { POLICY_LABEL } from './policy';
@@ -17,20 +18,27 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
   const neg = data.negativeStyle;
   const k = (x: number) => formatMoney(x, { scale: 'k', negative: neg });
   const truckLink = (id: string) => <Link className="font-mono text-xs text-accent hover:underline" href={`/${slug}/cases/${caseId}/trucks/${encodeURIComponent(id)}`}>{id}</Link>;
-  const chosen = new Set(data.plan.years.flatMap((y) => y.chosen.map((c) => c.truckId)));
-  const yearName = (y: number | null) => (y === null ? '—' : y === 0 ? 'now' : `year ${y}`);
+  const chosen = new Set(data.proposal.chosenTrucks);
+  const start = data.case.plan.startMonth;
+  const yearName = (y: number | null) => (y === null ? '—' : periodName(start, y, data.fiscalYearStartMonth));
   return (
     <div className="space-y-4">
       <PlanControls data={data} slug={slug} canEdit={canEdit} onSaved={() => mutate()} />
       <section aria-label="Capital plan" className="card p-3" data-testid="capital-plan">
-        <h2 className="text-sm font-semibold">Capital plan: the repowers that maximise total gain within each year&rsquo;s budget</h2>
-        <p className="text-xs text-muted">Solved exactly per year as a 0/1 knapsack (costs counted in whole units of {formatNumber(Math.max(1000, ...data.plan.years.map((y) => y.unit)), 0)} {data.currency}, rounded up, so no plan exceeds its budget). A truck left out waits: it takes its better other policy and forgoes the gain shown. Total gain {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital.</p>
+        <h2 className="text-sm font-semibold">The proposal: the repowers that maximise total gain within each fiscal year&rsquo;s budget</h2>
+        <p className="text-sm" data-testid="plan-proposal">
+          Capital <span className="num font-semibold" data-testid="plan-proposal-capital">{k(data.proposal.totalCapital)}</span> {data.currency} k
+          {data.proposal.capitalByFiscalYear.length ? <> ({data.proposal.capitalByFiscalYear.map((r) => `${r.fiscalYear} ${k(r.capital)}`).join(' · ')})</> : null};
+          expected NPV gain <span className="num font-semibold" data-testid="plan-proposal-gain">{k(data.proposal.gainVsRebuildAll)}</span> {data.currency} k against rebuilding every engine.
+          <span className="text-muted"> Comparisons: unconstrained best mix {k(data.proposal.bestMixGain)}; repower every truck {k(data.proposal.repowerAllGain)}.</span>
+        </p>
+        <p className="text-xs text-muted">Solved exactly per year as a 0/1 knapsack (costs counted in whole units of {formatNumber(Math.max(1000, ...data.plan.years.map((y) => y.unit)), 0)} {data.currency}, rounded up, so no plan exceeds its budget). A truck left out waits: it takes its better other policy and forgoes the gain shown. Gain over each truck&rsquo;s better other policy {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital. A period runs 12 months from the plan&rsquo;s first month and is named by the fiscal year it starts in.</p>
         <table className="data-table mt-2">
-          <thead><tr><th>Year of spend</th><th className="n">Budget ({data.currency} k)</th><th className="n">Spent ({data.currency} k)</th><th className="n">Gain ({data.currency} k)</th><th>Chosen</th><th>Left out: gain forgone · extra budget to add it ({data.currency} k)</th></tr></thead>
+          <thead><tr><th>Fiscal year of spend</th><th className="n">Budget ({data.currency} k)</th><th className="n">Spent ({data.currency} k)</th><th className="n">Gain ({data.currency} k)</th><th>Chosen</th><th>Left out: gain forgone · extra budget to add it ({data.currency} k)</th></tr></thead>
           <tbody>
             {data.plan.years.map((y) => (
               <tr key={y.year} data-year={y.year}>
-                <td>{yearName(y.year)}</td>
+                <td title={periodMonths(start, y.year)}>{yearName(y.year)} <span className="text-xs text-muted">{periodMonths(start, y.year)}</span></td>
                 <td className="n">{y.budget === null ? 'no limit' : k(y.budget)}</td>
                 <td className="n">{k(y.spent)}</td>
                 <td className="n">{k(y.gain)}</td>
@@ -46,10 +54,10 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
         <section aria-label="Ranking" className="card overflow-x-auto p-3">
           <h2 className="text-sm font-semibold">Ranking for repower, by gain over the better other policy</h2>
           <table className="data-table mt-2" data-testid="ranking-table">
-            <thead><tr><th className="n">Rank</th><th>Truck</th><th>Against</th><th className="n">Gain, ΔNPV ({data.currency} k)</th><th className="n">PI</th><th className="n">Capital ({data.currency} k)</th><th>Spend</th><th>In plan</th></tr></thead>
+            <thead><tr><th className="n">Rank</th><th>Truck</th><th>Against</th><th className="n">Gain, ΔNPV ({data.currency} k)</th><th className="n">PI</th><th className="n">Capital ({data.currency} k)</th><th>Spend</th><th>In the proposal</th></tr></thead>
             <tbody>
               {data.ranking.map((r) => (
-                <tr key={r.truckId}>
+                <tr key={r.truckId} data-in-proposal={chosen.has(r.truckId) ? 'yes' : 'no'} className={chosen.has(r.truckId) ? 'bg-accent/5' : ''}>
                   <td className="n">{r.rank}</td>
                   <td>{truckLink(r.truckId)}</td>
                   <td>{POLICY_LABEL[r.bestOther]}</td>
@@ -57,7 +65,7 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
                   <td className="n">{formatNumber(r.profitabilityIndex, 2)}</td>
                   <td className="n">{k(r.capital)}</td>
                   <td>{yearName(r.capitalYear)}</td>
-                  <td>{chosen.has(r.truckId) ? 'yes' : 'no'}</td>
+                  <td>{chosen.has(r.truckId) ? <span className="font-semibold text-accent">proposed</span> : 'no'}</td>
                 </tr>
               ))}
             </tbody>

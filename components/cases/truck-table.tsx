@@ -21,6 +21,8 @@ import { POLICY_COLOUR, POLICY_LABEL } from './policy';
 
 type Row = {
   id: string;
+  /** the truck's policy in the proposal; repower = chosen by the plan */
+  proposal: PolicyKey;
   best: PolicyKey;
   keep: number;
   rebuild: number;
@@ -56,6 +58,7 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
         const delta = t.options.repower.cashFlows.map((x, i) => x - (t.options[other].cashFlows[i] ?? 0));
         return {
           id: t.id,
+          proposal: data.proposal.policies[t.id] ?? 'rebuild',
           best: t.best,
           keep: t.options.keep.npv,
           rebuild: t.options.rebuild.npv,
@@ -85,6 +88,15 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
         header: 'Truck',
         filterFn: 'includesString',
         cell: (i) => <Link className="font-mono text-xs text-accent hover:underline" href={`/${slug}/cases/${data.case.id}/trucks/${encodeURIComponent(i.getValue())}`}>{i.getValue()}</Link>,
+      }),
+      col.accessor('proposal', {
+        header: 'In the proposal',
+        cell: (i) =>
+          i.getValue() === 'repower' ? (
+            <span className="rounded bg-accent/10 px-1.5 py-0.5 text-xs font-semibold text-accent" data-testid="in-proposal">Repower (proposed)</span>
+          ) : (
+            <span className="text-xs text-muted">{POLICY_LABEL[i.getValue()]}</span>
+          ),
       }),
       col.accessor('best', {
         header: 'Best',
@@ -182,7 +194,7 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
           </thead>
           <tbody>
             {shown.map((r) => (
-              <tr key={r.id} data-truck={r.original.id}>
+              <tr key={r.id} data-truck={r.original.id} data-in-proposal={r.original.proposal === 'repower' ? 'yes' : 'no'} className={r.original.proposal === 'repower' ? 'bg-accent/5' : ''}>
                 {r.getVisibleCells().map((c) => (
                   <td key={c.id} className={(c.column.columnDef.meta as { n?: boolean } | undefined)?.n ? 'n whitespace-nowrap' : 'whitespace-nowrap'}>{flexRender(c.column.columnDef.cell, c.getContext())}</td>
                 ))}

@@ -2,6 +2,7 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
+import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { readFrozenResult } from '@/lib/approvals/freeze';
@@ -35,17 +36,16 @@ export default async function ReviewCasePage({ params }: { params: Promise<{ wor
             <dt className="text-muted">Trucks</dt><dd>{summary.truckCount}</dd>
             <dt className="text-muted">Currency</dt><dd>{access.workspace.currency}</dd>
           </dl>
+          <DecisionSummaryPanel slug={workspace} caseId={caseId} negativeStyle={neg} />
           {frozen ? (
             <div className="card overflow-x-auto">
               <table className="data-table" data-testid="frozen-fleet">
-                <caption className="px-2 py-2 text-left text-xs text-muted">Fleet NPV as approved (from the frozen result, {access.workspace.currency} k)</caption>
+                <caption className="px-2 py-2 text-left text-xs text-muted">Fleet NPV of each policy for every truck, as approved (from the frozen result, {access.workspace.currency} k)</caption>
                 <thead><tr>{POLICIES.map((p) => <th key={p} className="n">{p === 'best' ? 'Best per truck' : p[0].toUpperCase() + p.slice(1)}</th>)}</tr></thead>
                 <tbody><tr>{POLICIES.map((p) => <td key={p} className="n">{formatMoney(frozen.fleet.npv[p], { scale: 'k', negative: neg })}</td>)}</tr></tbody>
               </table>
             </div>
-          ) : (
-            <p className="text-sm text-muted">Figures are computed from the live fleet data until the case is approved; open the case for its results.</p>
-          )}
+          ) : null}
         </div>
         <CaseApprovalPanel workspace={workspace} caseId={caseId} />
       </div>

@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { CaseNav } from '@/components/cases/case-nav';
 import { CaseSettings } from '@/components/cases/case-settings';
+import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
 import { CaseResults } from '@/components/cases/case-results';
 import { ExportButtons } from '@/components/export/export-buttons';
 import { PageHeader } from '@/components/ui/page-header';
@@ -23,8 +24,9 @@ export default async function CasePage({ params, searchParams }: Props) {
   if (!c) notFound();
   return (
     <>
-      <PageHeader title={c.name} subtitle="NPV of keep, rebuild and repower for every truck; the best policy; the gain of repowering." action={<ExportButtons slug={workspace} caseId={c.id} />} />
+      <PageHeader title={c.name} subtitle="The proposal the saved plan makes, then NPV of keep, rebuild and repower for every truck, the best policy and the gain of repowering." action={<ExportButtons slug={workspace} caseId={c.id} />} />
       <CaseNav slug={workspace} caseId={c.id} current="results" />
+      <div className="mb-4"><DecisionSummaryPanel slug={workspace} caseId={c.id} negativeStyle={access.workspace.settings.negativeStyle} /></div>
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}
       <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
       <CaseResults slug={workspace} caseId={c.id} />
