@@ -7,41 +7,35 @@ import 'server-only';
  */
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
+import { readFrozenRecord } from '@/lib/approvals/canonical';
 import { fetchCaseApproval } from '@/lib/approvals/queries';
 import type { Access } from '@/lib/auth/access';
+import { fetchDecisionSummary } from '@/lib/cases/decision';
+import { proposalIncrementalFlows, type DecisionSummary } from '@/lib/cases/decision-summary';
 import { evaluateStoredCase, loadValidCase } from '@/lib/cases/evaluate';
-import { proposalPolicies } from '@/lib/cases/proposal';
-import type { CaseResultDto } from '@/lib/cases/types';
+import type { ProposalSwap } from '@/lib/cases/proposal';
 import { VALUATION_LABEL } from '@/lib/cases/valuation';
-import type { CaseFile } from '@/lib/engine';
+import { db } from '@/lib/db';
+import { fetchCase } from '@/lib/db/queries/cases';
+import type { CaseFile, CaseResult } from '@/lib/engine';
 import { formatNumber, formatPercent } from '@/lib/format';
-import { interimDecisionSummary } from './interim-summary';
-import { fiscalYearOfPeriod } from './layout';
+import { notFound } from '@/lib/http';
+import { fiscalLabelOfPeriod, MONTH_NAMES, rankTrucks, type RankedTruck } from '@/lib/plan';
 import type { PackFonts } from './render';
-import type { DecisionPackData, DecisionSummary, PackAssumption, PackChartYear } from './types';
+import type { DecisionPackData, PackAssumption, PackChartYear } from './types';
 
-const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
-
-export function fiscalYearStartMonthOf(access: Access): number {
-  const m = (access.workspace.settings as { fiscalYearStartMonth?: number }).fiscalYearStartMonth;
-  return Number.isInteger(m) && (m as number) >= 1 && (m as number) <= 12 ? (m as number) : 1;
-}
-
-/** The proposal's capital and net cash flow against rebuilding every engine, by fiscal year. */
-export function chartYears(dto: CaseResultDto, fiscalYearStartMonth: number): PackChartYear[] {
-  const policies = proposalPolicies(dto.result, dto.plan);
-  const byFy = new Map<number, PackChartYear>();
-  for (const t of dto.result.trucks) {
-    const p = t.options[policies[t.id] ?? 'rebuild'];
-    p.cashFlows.forEach((cf, y) => {
-      const f = fiscalYearOfPeriod(dto.case.plan.startMonth, y, fiscalYearStartMonth);
-      const e = byFy.get(f) ?? { fiscalYear: f, capital: 0, cashFlow: 0 };
-      e.capital -= p.breakdown[y]?.capital ?? 0;
-      e.cashFlow += cf - (t.options.rebuild.cashFlows[y] ?? 0);
-      byFy.set(f, e);
-    });
-  }
-  return [...byFy.values()].sort((a, b) => a.fiscalYear - b.fiscalYear);
+/** The proposal's capital and net cash flow against rebuilding every engine, by fiscal year (periods sharing a label add up). */
+export function chartYears(result: CaseResult, summary: DecisionSummary): PackChartYear[] {
+  const { delta, capital } = proposalIncrementalFlows(result, summary.policies);
+  const byFy = new Map<string, PackChartYear>();
+  delta.forEach((cf, y) => {
+    const f = fiscalLabelOfPeriod(summary.planStartMonth, y, summary.fiscalYearStartMonth);
+    const e = byFy.get(f) ?? { fiscalYear: f, capital: 0, cashFlow: 0 };
+    e.capital -= capital[y] ?? 0;
+    e.cashFlow += cf;
+    byFy.set(f, e);
+  });
+  return [...byFy.values()].sort((a, b) => a.fiscalYear.localeCompare(b.fiscalYear));
 }
 
 export function keyAssumptions(file: CaseFile, currency: string, fiscalYearStartMonth: number): PackAssumption[] {
@@ -49,7 +43,7 @@ export function keyAssumptions(file: CaseFile, currency: string, fiscalYearStart
   const pct = (x: number) => formatPercent(x, 1);
   return [
     { label: 'Valuation', value: VALUATION_LABEL[a.valuation] },
-    { label: 'Discount rate (real)', value: pct(a.discountRate) },
+    { label: 'Discount rate', value: pct(a.discountRate) },
     { label: 'Cash-flow timing', value: a.timing === 'mid-year' ? 'mid-year' : 'end of year' },
     { label: 'Horizon', value: a.horizonYears === null ? 'each truck’s remaining life' : `${a.horizonYears} years` },
     { label: 'Inflation', value: pct(a.inflation) },
@@ -63,33 +57,52 @@ export function keyAssumptions(file: CaseFile, currency: string, fiscalYearStart
     { label: 'Depreciation', value: a.depreciation.method === 'none' ? 'none' : `${a.depreciation.method}, ${a.depreciation.years} years` },
     { label: 'Rebuild accounting', value: a.rebuildAccounting === 'capitalise' ? 'capitalised' : 'expensed' },
     { label: `Labour rate (${currency}/h)`, value: formatNumber(a.labourRate, 2) },
-    { label: 'Fiscal year starts', value: MONTHS[fiscalYearStartMonth - 1] },
+    { label: 'Fiscal year starts', value: MONTH_NAMES[fiscalYearStartMonth - 1] },
   ];
 }
 
+/**
+ * The pack's data. An approved case is read from its frozen record (its case
+ * file, result, proposal and summary as hashed; never recomputed); any other
+ * case is evaluated as its pages evaluate it (the submitted snapshot while
+ * submitted, the live data for a draft).
+ */
 export async function buildDecisionPackData(access: Access, id: number, now = new Date()): Promise<DecisionPackData> {
-  const dto = await evaluateStoredCase(access, id);
-  const { file } = await loadValidCase(access, id);
+  const row = await fetchCase(access.workspace.id, id);
+  if (!row) throw notFound('No such business case in this workspace.');
+  const stored = await db()('business_cases').where({ id, workspaceId: access.workspace.id }).first('frozenRecord');
+  const record = readFrozenRecord(stored?.frozenRecord);
+  const summary = await fetchDecisionSummary(access, id);
+  let file: CaseFile;
+  let result: CaseResult;
+  let ranking: RankedTruck[];
+  let schedule: ProposalSwap[];
+  if (record) {
+    ({ case: file, result } = record);
+    ranking = rankTrucks(result);
+    schedule = record.proposal.schedule as ProposalSwap[];
+  } else {
+    const dto = await evaluateStoredCase(access, id);
+    ({ file } = await loadValidCase(access, id));
+    ({ result, ranking, schedule } = dto);
+  }
   const approval = await fetchCaseApproval(access, id);
-  const fyStart = fiscalYearStartMonthOf(access);
-  const summary: DecisionSummary = interimDecisionSummary(dto, { discountRate: file.assumptions.discountRate, fiscalYearStartMonth: fyStart });
-  const policies = proposalPolicies(dto.result, dto.plan);
   const chosen = new Set(summary.chosenTrucks);
-  const fy = (period: number | null) => (period === null ? null : fiscalYearOfPeriod(dto.case.plan.startMonth, period, fyStart));
+  const fy = (period: number | null) => (period === null ? null : fiscalLabelOfPeriod(summary.planStartMonth, period, summary.fiscalYearStartMonth));
   return {
     summary,
     workspaceName: access.workspace.name,
-    negativeStyle: dto.negativeStyle,
+    negativeStyle: access.workspace.settings.negativeStyle,
     generatedAt: now.toISOString(),
-    assumptionSetName: dto.case.assumptionSetName,
-    chart: chartYears(dto, fyStart),
-    ranking: dto.ranking.map((r) => ({
-      rank: r.rank, truckId: r.truckId, policy: policies[r.truckId] ?? 'rebuild', gain: r.gain, profitabilityIndex: r.profitabilityIndex,
+    assumptionSetName: row.assumptionSetName,
+    chart: chartYears(result, summary),
+    ranking: ranking.map((r) => ({
+      rank: r.rank, truckId: r.truckId, policy: summary.policies[r.truckId] ?? 'rebuild', gain: r.gain, profitabilityIndex: r.profitabilityIndex,
       capital: r.capital, fiscalYear: fy(r.capitalYear), inProposal: chosen.has(r.truckId),
     })),
-    schedule: dto.schedule.map((s) => ({ truckId: s.truckId, month: s.label, due: s.dueLabel, movedEarlier: s.movedEarlier, late: s.late, fiscalYear: fy(s.capitalYear) })),
-    shopCapacityPerMonth: dto.case.plan.swapsPerMonth,
-    assumptions: keyAssumptions(file, dto.currency, fyStart),
+    schedule: schedule.map((s) => ({ truckId: s.truckId, month: s.label, due: s.dueLabel, movedEarlier: s.movedEarlier, late: s.late, fiscalYear: fy(s.capitalYear) })),
+    shopCapacityPerMonth: record?.proposal.settings.swapsPerMonth ?? row.plan.swapsPerMonth,
+    assumptions: keyAssumptions(file, summary.currency, summary.fiscalYearStartMonth),
     trail: approval.events.map((e) => ({ at: e.at, who: e.who, action: e.action, comment: e.comment })),
     approvalsRequired: approval.approvalsRequired,
     frozen: approval.frozen,

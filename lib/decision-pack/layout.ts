@@ -39,28 +39,8 @@ export const percent = (x: number | null | undefined) => formatPercent(x, 1);
 
 export const years = (x: number | null | undefined) => (x === null || x === undefined ? '—' : `${formatNumber(x, 1)} yr`);
 
-/** "FY2027": the fiscal year named by the calendar year in which it ends. */
-export const fiscalYearLabel = (fy: number | null | undefined) => (fy === null || fy === undefined ? '—' : `FY${fy}`);
-
-/**
- * Fiscal year of a calendar month (`month` 1–12). A fiscal year starting in
- * month s ≠ 1 is named by the year it ends in: with s = 7, July 2026 – June
- * 2027 is FY2027. With s = 1 the fiscal year is the calendar year.
- */
-export function fiscalYearOf(year: number, month: number, startMonth: number): number {
-  return startMonth === 1 || month < startMonth ? year : year + 1;
-}
-
-/**
- * Fiscal year of a plan period: period 0 is the plan's first month ("YYYY-MM"),
- * period p ≥ 1 starts 12(p − 1) months later (as the swap schedule counts).
- */
-export function fiscalYearOfPeriod(planStart: string, period: number, startMonth: number): number {
-  const [y, m] = planStart.split('-').map(Number);
-  const offset = Math.max(0, 12 * (period - 1));
-  const total = y * 12 + (m - 1) + offset;
-  return fiscalYearOf(Math.floor(total / 12), (total % 12) + 1, startMonth);
-}
+/** A fiscal-year label as the plan tables show it ("FY2027"), or a dash. */
+export const fiscalYearLabel = (fy: string | null | undefined) => fy ?? '—';
 
 /** Round axis ticks covering [min, max] (always including 0), about `count` of them. */
 export function niceTicks(min: number, max: number, count = 5): number[] {

@@ -35,6 +35,12 @@ const SOURCE_LINE: Record<DecisionPackData['summary']['source'], string> = {
   live: 'Figures from the live fleet data (a draft: they change as the data changes).',
 };
 
+const NO_RUN: Record<DecisionPackData['summary']['source'], string> = {
+  live: 'No pinned Monte Carlo run: no run is pinned to this case yet.',
+  submitted: 'No pinned run: submitted without a pinned Monte Carlo run.',
+  frozen: 'No pinned run: approved without a pinned Monte Carlo run.',
+};
+
 const ACTION_LABEL: Record<string, string> = { submit: 'Submitted', approve: 'Approved', reject: 'Rejected', return: 'Sent back', revision: 'Revision created' };
 
 type Column = { label: string; width: number; align?: 'left' | 'right' };
@@ -207,12 +213,13 @@ export function renderDecisionPack(data: DecisionPackData, fonts: PackFonts): Pr
     );
     more(shown.length, s.leftOut.length, 'trucks left out');
   }
-  para('Drivers that swing the gain most', { bold: true, size: 10 });
-  if (s.topDrivers.length === 0) para('No driver analysis is available for this case.', { size: 9 });
+  if (s.notWorthIt.length) para(`Not proposed because the repower does not pay against the truck’s better other policy: ${s.notWorthIt.join(', ')}.`, { size: 8.5, colour: COLOUR.muted });
+  para(`What swings the proposal’s gain most (each driver ±20 %, ${cur} k)`, { bold: true, size: 10 });
+  if (s.topDrivers.length === 0) para('Not computed.', { size: 9 });
   else
     table(
-      [{ label: 'Driver', width: 220 }, { label: `At low (${cur} k)`, width: 90, align: 'right' }, { label: `At high (${cur} k)`, width: 90, align: 'right' }, { label: `Swing (${cur} k)`, width: 90, align: 'right' }],
-      s.topDrivers.map((d) => [d.label, k(d.low), k(d.high), k(d.swing)]),
+      [{ label: 'Driver', width: 170 }, { label: 'Low – high value', width: 110, align: 'right' }, { label: 'Gain at low', width: 75, align: 'right' }, { label: 'Gain at high', width: 75, align: 'right' }, { label: 'Swing', width: 70, align: 'right' }],
+      s.topDrivers.map((d) => [d.label, `${formatNumber(d.driverLow, 2)} – ${formatNumber(d.driverHigh, 2)}${d.unit ? ` ${d.unit}` : ''}`, k(d.low), k(d.high), k(d.swing)]),
     );
 
   // ------------------------------------------------------------ fleet chart
@@ -254,12 +261,14 @@ export function renderDecisionPack(data: DecisionPackData, fonts: PackFonts): Pr
 
   // ------------------------------------------------------------ risk
   heading('Risk summary');
-  if (!risk) para('No pinned Monte Carlo run: the chance that the proposal loses money has not been pinned to this case.', { size: 9.5 });
+  if (!risk) para(NO_RUN[s.source], { size: 9.5 });
   else {
+    para(risk.label, { size: 9.5, bold: true });
     facts([
-      ['Run', risk.label],
+      ['Monte Carlo run', risk.runId.slice(0, 8)],
       ['Iterations', formatNumber(risk.iterations)],
       ['Seed', String(risk.seed)],
+      ['Engine failures sampled', risk.sampleFailures ? 'yes' : 'no'],
       ['Run by', risk.author],
       ['Finished', `${risk.finishedAt.slice(0, 16).replace('T', ' ')} UTC`],
       ['Chance of losing money', percent(risk.probabilityOfLoss)],

@@ -3,9 +3,9 @@
  * renderer (`./render.ts`) is a pure function of a `DecisionPackData`; the
  * server builds one in `./build.ts`.
  */
-import type { DecisionSummary } from './summary-types';
+import type { DecisionSummary } from '@/lib/cases/decision-summary';
 
-export type { DecisionSummary } from './summary-types';
+export type { DecisionSummary } from '@/lib/cases/decision-summary';
 
 export type PackRankingRow = {
   rank: number;
@@ -17,16 +17,16 @@ export type PackRankingRow = {
   profitabilityIndex: number | null;
   /** the repower's capital, positive, currency */
   capital: number;
-  /** fiscal year of the repower's spend, or null when there is none */
-  fiscalYear: number | null;
+  /** fiscal year of the repower's spend ("FY2027"), or null when there is none */
+  fiscalYear: string | null;
   /** the proposal repowers it */
   inProposal: boolean;
 };
 
-export type PackSwapRow = { truckId: string; month: string; due: string; movedEarlier: boolean; late: boolean; fiscalYear: number | null };
+export type PackSwapRow = { truckId: string; month: string; due: string; movedEarlier: boolean; late: boolean; fiscalYear: string | null };
 
 /** One bar group of the fleet chart: the proposal's capital and its net cash flow against rebuilding every engine. */
-export type PackChartYear = { fiscalYear: number; capital: number; cashFlow: number };
+export type PackChartYear = { fiscalYear: string; capital: number; cashFlow: number };
 
 export type PackAssumption = { label: string; value: string };
 

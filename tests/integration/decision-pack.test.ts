@@ -2,11 +2,10 @@ import type { Knex } from 'knex';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { GET as decisionPack } from '@/app/api/workspaces/[workspace]/cases/[id]/decision-pack/route';
 import { POST as decide } from '@/app/api/workspaces/[workspace]/cases/[id]/decisions/route';
-import { GET as getResult } from '@/app/api/workspaces/[workspace]/cases/[id]/result/route';
+import { GET as getSummary } from '@/app/api/workspaces/[workspace]/cases/[id]/decision-summary/route';
 import { POST as submit } from '@/app/api/workspaces/[workspace]/cases/[id]/submit/route';
-import { chosenTrucks, proposalGainVsRebuild, proposalPolicies } from '@/lib/cases/proposal';
-import type { CaseResultDto } from '@/lib/cases/types';
-import { formatMoney } from '@/lib/format';
+import type { DecisionSummary } from '@/lib/cases/decision-summary';
+import { formatMoney, formatPercent } from '@/lib/format';
 import { firstPageInkShare, pdfPageCount, pdfToText } from '../support/pdf-text';
 import { call } from './support/call';
 import { openMailDb } from './support/mail-db';
@@ -64,27 +63,21 @@ describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])
     const pdf = Buffer.from(await r.response.arrayBuffer());
     expect(pdf.subarray(0, 5).toString()).toBe('%PDF-');
 
-    const dto = (await call(getResult, p(demoId))).body as CaseResultDto;
+    // the decision summary the case and approval pages show
+    const ds = (await call(getSummary, p(demoId))).body as DecisionSummary;
     const text = pdfToText(pdf);
-    const policies = proposalPolicies(dto.result, dto.plan);
     expect(text).toContain('North Pit fleet — base assumptions');
-    expect(text).toMatch(new RegExp(`Capital asked \\(${dto.currency} k\\)\\s+${esc(k(dto.plan.totalSpent))}`));
-    expect(text).toMatch(new RegExp(`Gain vs rebuilding every engine\\s+${esc(k(proposalGainVsRebuild(dto.result, policies)))}`));
-    expect(text).toMatch(new RegExp(`Trucks repowered\\s+${chosenTrucks(dto.plan).length}`));
-    // capital by fiscal year: the plan starts January 2027 and the fiscal year is the calendar year,
-    // so "now" (period 0) and year 1 (months 0–11) are FY2027, year 2 is FY2028
-    const fyOf = (year: number) => 2027 + Math.max(0, year - 1);
-    const byFy = new Map<number, { capital: number; budget: number }>();
-    for (const y of dto.plan.years) {
-      const e = byFy.get(fyOf(y.year)) ?? { capital: 0, budget: 0 };
-      e.capital += y.spent;
-      e.budget += y.budget ?? 0;
-      byFy.set(fyOf(y.year), e);
-    }
-    expect(byFy.size).toBeGreaterThan(0);
-    for (const [fy, e] of byFy) expect(text).toMatch(new RegExp(`FY${fy}\\s+${esc(k(e.budget))}\\s+${esc(k(e.capital))}`));
+    expect(text).toMatch(new RegExp(`Capital asked \\(${ds.currency} k\\)\\s+${esc(k(ds.totalCapital))}`));
+    expect(text).toMatch(new RegExp(`Gain vs rebuilding every engine\\s+${esc(k(ds.gainVsRebuildAll))}`));
+    expect(text).toMatch(new RegExp(`Trucks repowered\\s+${ds.chosenTrucks.length}`));
+    expect(text).toMatch(new RegExp(`IRR\\s+${esc(formatPercent(ds.irr, 1))}`));
+    // capital by fiscal year with its budget (the demo plan starts January 2027; fiscal years are calendar years)
+    expect(ds.capitalByFiscalYear.map((y) => y.fiscalYear)).toContain('FY2027');
+    for (const y of ds.capitalByFiscalYear) expect(text).toMatch(new RegExp(`${y.fiscalYear}\\s+${y.budget === null ? 'no limit' : esc(k(y.budget))}\\s+${esc(k(y.capital))}`));
+    // the three drivers that swing it most
+    for (const d of ds.topDrivers) expect(text).toContain(d.label);
     // every truck of the ranking, the proposal's marked "yes"
-    for (const t of dto.ranking) expect(text).toMatch(new RegExp(`\\b${esc(t.truckId)}\\s+${chosenTrucks(dto.plan).includes(t.truckId) ? 'yes\\s+repower' : '(keep|rebuild)'}`));
+    for (const [truck, policy] of Object.entries(ds.policies)) expect(text).toMatch(new RegExp(`\\b${esc(truck)}\\s+${ds.chosenTrucks.includes(truck) ? 'yes\\s+repower' : esc(policy)}`));
     expect(text).toContain('No pinned Monte Carlo run');
     expect(text).toContain('Not submitted yet.');
     expect(text).toMatch(/Engine swaps, electrical work and\s+load testing/);
@@ -106,6 +99,11 @@ describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])
     expect(text).toContain(frozenHash);
     expect(text).toContain('The stored record verifies against this hash');
     expect(text).toMatch(/Status\s+Approved/);
+    // the figures of the frozen record's summary
+    const ds = (await call(getSummary, p(id))).body as DecisionSummary;
+    expect(ds.source).toBe('frozen');
+    expect(text).toMatch(new RegExp(`Gain vs rebuilding every engine\\s+${esc(k(ds.gainVsRebuildAll))}`));
+    expect(text).toContain('approved without a pinned Monte Carlo run');
     expect(text).toContain('Figures from the frozen record');
     expect(text).toMatch(/Submitted\s+For the committee/);
     expect(text).toMatch(/Approved\s+Agreed in committee/);

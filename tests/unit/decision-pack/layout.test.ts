@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { fiscalYearLabel, fiscalYearOf, fiscalYearOfPeriod, moneyK, niceTicks, pdfText, tableBreaks } from '@/lib/decision-pack/layout';
+import { fiscalYearLabel, moneyK, packDisposition, niceTicks, pdfText, tableBreaks } from '@/lib/decision-pack/layout';
 import { HEADER_HEIGHT, PAGE, renderDecisionPack, ROW_HEIGHT } from '@/lib/decision-pack/render';
 import { packFixture } from '@/tests/support/decision-pack-fixture';
 import { firstPageInkShare, pdfPageCount, pdfToText } from '@/tests/support/pdf-text';
@@ -21,19 +21,15 @@ describe('decision pack text and figures', () => {
     expect(moneyK(-1_234_567, 'parentheses')).toBe('(1,235)');
     expect(moneyK(34_600_000, 'minus')).toBe('34,600');
     expect(moneyK(null, 'minus')).toBe('—');
+    expect(fiscalYearLabel('FY2027')).toBe('FY2027');
+    expect(fiscalYearLabel(null)).toBe('—');
   });
 
-  it('names a fiscal year by the calendar year it ends in', () => {
-    // common practice: a July–June year that ends in June 2027 is FY2027
-    expect(fiscalYearOf(2026, 7, 7)).toBe(2027);
-    expect(fiscalYearOf(2026, 6, 7)).toBe(2026);
-    expect(fiscalYearOf(2026, 12, 1)).toBe(2026);
-    expect(fiscalYearLabel(2027)).toBe('FY2027');
-    // a plan starting December 2026: period 0 and period 1 start that month; period 2 a year later
-    expect(fiscalYearOfPeriod('2026-12', 0, 7)).toBe(2027);
-    expect(fiscalYearOfPeriod('2026-12', 1, 7)).toBe(2027);
-    expect(fiscalYearOfPeriod('2026-12', 2, 7)).toBe(2028);
-    expect(fiscalYearOfPeriod('2026-12', 2, 1)).toBe(2027);
+  it('names the download "<case name> decision pack.pdf", with an ASCII stand-in for old clients', () => {
+    expect(packDisposition('North Pit — "2027"')).toBe(
+      `attachment; filename="North Pit _ _2027_ decision pack.pdf"; filename*=UTF-8''North%20Pit%20%E2%80%94%20%222027%22%20decision%20pack.pdf`,
+    );
+    expect(packDisposition("Bob's (rev. 2)")).toContain("filename*=UTF-8''Bob%27s%20%28rev.%202%29%20decision%20pack.pdf");
   });
 
   it('chooses round chart ticks that include zero and cover the values', () => {
