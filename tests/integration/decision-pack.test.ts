@@ -87,12 +87,34 @@ describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])
 
   it('carries the approval trail and the frozen hash once approved', async () => {
     const id = await copyDemo('Pack approval check');
+    await kx('mail_sink').del();
     signInAs(ids['analyst@aldervane.test']);
     expect((await call(submit, p(id), { body: { comment: 'For the committee' } })).status).toBe(200);
+    // the submission mail quotes the figures the approval page shows and links to the pack
+    const submitted = (await call(getSummary, p(id))).body as DecisionSummary;
+    expect(submitted.source).toBe('submitted');
+    const [ask] = await kx('mail_sink').orderBy('id');
+    const packPath = `/api/workspaces/${WS}/cases/${id}/decision-pack`;
+    const fyPart = submitted.capitalByFiscalYear.map((y) => `${y.fiscalYear} ${k(y.capital)}`).join('; ');
+    expect(ask.subject).toBe('Approval requested: Pack approval check');
+    expect(ask.text).toContain(`Capital asked: ${k(submitted.totalCapital)} ${submitted.currency} k to repower ${submitted.chosenTrucks.length} trucks (${fyPart}).`);
+    expect(ask.text).toContain(`Expected NPV gain against rebuilding every engine: ${k(submitted.gainVsRebuildAll)} ${submitted.currency} k.`);
+    expect(ask.text).toContain(`/${WS}/approvals/${id}`);
+    expect(ask.text).toContain(`Decision pack (PDF): http://127.0.0.1:3000${packPath}`);
+    expect(ask.html).toContain(`href="http://127.0.0.1:3000${packPath}"`);
+    expect(ask.html).toContain('Download the decision pack (PDF)');
+    await kx('mail_sink').del();
     signInAs(ids['approver@aldervane.test']);
     expect((await call(decide, p(id), { body: { decision: 'approve', comment: 'Agreed in committee' } })).status).toBe(200);
     const { frozenHash } = await kx('business_cases').where({ id }).first('frozenHash');
     expect(frozenHash).toMatch(/^[0-9a-f]{64}$/);
+    // the decision mail to the submitter: the frozen figures and the pack
+    const [told] = await kx('mail_sink').orderBy('id');
+    expect(told.subject).toBe('Approved: Pack approval check');
+    expect(JSON.parse(told.toAddresses)).toEqual(['analyst@aldervane.test']);
+    expect(told.text).toContain(`Capital asked: ${k(submitted.totalCapital)} ${submitted.currency} k`);
+    expect(told.text).toContain(`Expected NPV gain against rebuilding every engine: ${k(submitted.gainVsRebuildAll)} ${submitted.currency} k.`);
+    expect(told.text).toContain(`Decision pack (PDF): http://127.0.0.1:3000${packPath}`);
     signInAs(ids['viewer@aldervane.test']);
     const pdf = Buffer.from(await (await call(decisionPack, p(id))).response.arrayBuffer());
     const text = pdfToText(pdf);
