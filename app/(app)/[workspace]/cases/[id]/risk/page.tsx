@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { CaseNav } from '@/components/cases/case-nav';
 import { RiskWorkbench } from '@/components/risk/risk-workbench';
 import { PageHeader } from '@/components/ui/page-header';
+import { PrintHeader } from '@/components/ui/print-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { db } from '@/lib/db';
@@ -21,6 +22,7 @@ export default async function Page({ params, searchParams }: { params: Promise<{
   if (!row) notFound();
   return (
     <>
+      <PrintHeader caseName={row.name} workspaceName={access.workspace.name} what="Sensitivity and risk" />
       <PageHeader
         title={`Sensitivity and risk — ${row.name}`}
         subtitle="Which drivers matter, where the repower stops paying, and how likely it is to lose money."
