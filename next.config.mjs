@@ -27,7 +27,7 @@ const nextConfig = {
   // A separate build folder lets browser tests build beside a running dev server.
   distDir: process.env.NEXT_DIST_DIR || '.next',
   poweredByHeader: false,
-  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer'],
+  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer', 'pdfkit', 'fontkit'],
   async headers() {
     return [
       { source: '/:path*', headers: securityHeaders },

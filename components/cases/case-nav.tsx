@@ -7,7 +7,7 @@ export function CaseNav({ slug, caseId, current, truckId }: { slug: string; case
     <Link href={href} aria-current={on ? 'page' : undefined} className={`rounded px-2 py-1 text-sm ${on ? 'bg-ink text-paper' : 'text-accent hover:underline'}`}>{label}</Link>
   );
   return (
-    <nav aria-label="Case" className="mb-4 flex flex-wrap items-center gap-2">
+    <nav aria-label="Case" className="mb-4 flex flex-wrap items-center gap-2 print:hidden">
       <Link href={`/${slug}/cases`} className="text-sm text-muted hover:underline">← All cases</Link>
       <span className="text-rule">|</span>
       {tab(base, 'Results', current === 'results')}

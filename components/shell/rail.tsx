@@ -19,7 +19,7 @@ type Props = {
 /** The narrow left rail: workspace switcher, sections, who is signed in. */
 export function Rail({ slug, role, email, workspaces, badges = {}, hidden = [] }: Props) {
   return (
-    <nav aria-label="Workspace" className="flex h-screen w-56 shrink-0 flex-col border-r border-rule bg-panel">
+    <nav aria-label="Workspace" className="flex h-screen w-56 shrink-0 flex-col border-r border-rule bg-panel print:hidden">
       <div className="border-b border-rule px-3 py-3">
         <Link href="/" className="font-mono text-xs uppercase tracking-widest text-policy-repower">Haulcase</Link>
         <WorkspaceSwitcher current={slug} workspaces={workspaces} />

@@ -17,9 +17,9 @@ export default async function WorkspaceLayout({ children, params }: { children: 
     countWaitingForMe(access),
   ]);
   return (
-    <div className="flex min-h-screen">
+    <div className="flex min-h-screen print:block">
       <Rail slug={workspace} role={access.role} email={user?.email ?? ''} workspaces={workspaces} badges={{ '/approvals': waiting }} hidden={outboxEnabled() ? [] : ['/outbox']} />
-      <main className="h-screen min-w-0 flex-1 overflow-y-auto px-6 py-5">
+      <main className="h-screen min-w-0 flex-1 overflow-y-auto px-6 py-5 print:h-auto print:overflow-visible print:p-0">
         <Providers>{children}</Providers>
       </main>
     </div>

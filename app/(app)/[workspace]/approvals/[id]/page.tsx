@@ -3,7 +3,9 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
+import { DecisionPackLink } from '@/components/cases/decision-pack-link';
 import { PageHeader } from '@/components/ui/page-header';
+import { PrintHeader } from '@/components/ui/print-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { readFrozenResult } from '@/lib/approvals/freeze';
 import { fetchCaseSummary } from '@/lib/approvals/summary';
@@ -24,12 +26,13 @@ export default async function ReviewCasePage({ params }: { params: Promise<{ wor
   const neg = access.workspace.settings.negativeStyle;
   return (
     <>
+      <PrintHeader caseName={summary.row.name} workspaceName={access.workspace.name} what="Approval" />
       <PageHeader
         title={summary.row.name}
         subtitle={<>Business case {summary.row.revisionOf ? <>· revision of <Link className="underline" href={`/${workspace}/approvals/${summary.row.revisionOf}`}>case {summary.row.revisionOf}</Link></> : null}</>}
-        action={<Link className="btn" href={`/${workspace}/cases/${caseId}`}>Open the case</Link>}
+        action={<><DecisionPackLink slug={workspace} caseId={caseId} primary /><Link className="btn" href={`/${workspace}/cases/${caseId}`}>Open the case</Link></>}
       />
-      <div className="grid gap-4 lg:grid-cols-[1fr_26rem]">
+      <div className="grid gap-4 lg:grid-cols-[1fr_26rem] print:block">
         <div className="space-y-4">
           <dl className="card grid grid-cols-[12rem_1fr] gap-x-4 gap-y-1 p-4 text-sm">
             <dt className="text-muted">Assumption set</dt><dd>{summary.assumptionSet ?? '—'}</dd>

@@ -5,7 +5,9 @@ import { CaseNav } from '@/components/cases/case-nav';
 import { CaseSettings } from '@/components/cases/case-settings';
 import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
 import { CaseResults } from '@/components/cases/case-results';
+import { DecisionPackLink } from '@/components/cases/decision-pack-link';
 import { ExportButtons } from '@/components/export/export-buttons';
+import { PrintHeader } from '@/components/ui/print-header';
 import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
@@ -24,7 +26,8 @@ export default async function CasePage({ params, searchParams }: Props) {
   if (!c) notFound();
   return (
     <>
-      <PageHeader title={c.name} subtitle="The proposal the saved plan makes, then NPV of keep, rebuild and repower for every truck, the best policy and the gain of repowering." action={<ExportButtons slug={workspace} caseId={c.id} />} />
+      <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Results" />
+      <PageHeader title={c.name} subtitle="The proposal the saved plan makes, then NPV of keep, rebuild and repower for every truck, the best policy and the gain of repowering." action={<><DecisionPackLink slug={workspace} caseId={c.id} /><ExportButtons slug={workspace} caseId={c.id} /></>} />
       <CaseNav slug={workspace} caseId={c.id} current="results" />
       <div className="mb-4"><DecisionSummaryPanel slug={workspace} caseId={c.id} negativeStyle={access.workspace.settings.negativeStyle} /></div>
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}

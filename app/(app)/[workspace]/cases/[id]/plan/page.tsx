@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { CaseNav } from '@/components/cases/case-nav';
 import { PlanView } from '@/components/cases/plan-view';
 import { PageHeader } from '@/components/ui/page-header';
+import { PrintHeader } from '@/components/ui/print-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { hasRole } from '@/lib/auth/access';
 import { getPageAccess } from '@/lib/auth/page-access';
@@ -18,6 +19,7 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
   if (!c) notFound();
   return (
     <>
+      <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Ranking, capital plan and schedule" />
       <PageHeader title={`${c.name}: ranking and plan`} subtitle="The proposal: which trucks to repower within each fiscal year's capital budget, and when the shop swaps them." />
       <CaseNav slug={workspace} caseId={c.id} current="plan" />
       <PlanView slug={workspace} caseId={c.id} canEdit={hasRole(access, CAN.edit)} />

@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { CaseNav } from '@/components/cases/case-nav';
 import { RiskWorkbench } from '@/components/risk/risk-workbench';
 import { PageHeader } from '@/components/ui/page-header';
+import { PrintHeader } from '@/components/ui/print-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { db } from '@/lib/db';
@@ -46,6 +47,7 @@ export default async function Page({ params, searchParams }: { params: Promise<{
   const negative = access.workspace.settings.negativeStyle;
   return (
     <>
+      <PrintHeader caseName={row.name} workspaceName={access.workspace.name} what="Sensitivity and risk" />
       <PageHeader
         title={`Sensitivity and risk — ${row.name}`}
         subtitle={

@@ -3,6 +3,7 @@ import { notFound } from 'next/navigation';
 import { CaseNav } from '@/components/cases/case-nav';
 import { TruckView } from '@/components/cases/truck-view';
 import { PageHeader } from '@/components/ui/page-header';
+import { PrintHeader } from '@/components/ui/print-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { truckIdFromPageSegment } from '@/lib/cases/params';
@@ -19,6 +20,7 @@ export default async function TruckPage({ params }: { params: Promise<{ workspac
   if (!c || unit === null) notFound();
   return (
     <>
+      <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what={`Truck ${unit}`} />
       <PageHeader title={`Truck ${unit}`} subtitle={`In “${c.name}”: cash flows by year and category, engine events, and the case for repowering.`} />
       <CaseNav slug={workspace} caseId={c.id} current="truck" truckId={unit} />
       <TruckView slug={workspace} caseId={c.id} truckId={unit} />

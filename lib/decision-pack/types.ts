@@ -1,0 +1,51 @@
+/**
+ * What the decision pack (the PDF of a case's proposal) is drawn from. The
+ * renderer (`./render.ts`) is a pure function of a `DecisionPackData`; the
+ * server builds one in `./build.ts`.
+ */
+import type { DecisionSummary } from '@/lib/cases/decision-summary';
+
+export type { DecisionSummary } from '@/lib/cases/decision-summary';
+
+export type PackRankingRow = {
+  rank: number;
+  truckId: string;
+  /** the policy the proposal gives this truck */
+  policy: 'keep' | 'rebuild' | 'repower';
+  /** npv(repower) − npv(better of keep and rebuild), currency */
+  gain: number;
+  profitabilityIndex: number | null;
+  /** the repower's capital, positive, currency */
+  capital: number;
+  /** fiscal year of the repower's spend ("FY2027"), or null when there is none */
+  fiscalYear: string | null;
+  /** the proposal repowers it */
+  inProposal: boolean;
+};
+
+export type PackSwapRow = { truckId: string; month: string; due: string; movedEarlier: boolean; late: boolean; fiscalYear: string | null };
+
+/** One bar group of the fleet chart: the proposal's capital and its net cash flow against rebuilding every engine. */
+export type PackChartYear = { fiscalYear: string; capital: number; cashFlow: number };
+
+export type PackAssumption = { label: string; value: string };
+
+export type PackTrailEntry = { at: string; who: string; action: string; comment: string };
+
+export interface DecisionPackData {
+  summary: DecisionSummary;
+  workspaceName: string;
+  negativeStyle: 'parentheses' | 'minus';
+  /** ISO time the pack was made */
+  generatedAt: string;
+  assumptionSetName: string | null;
+  chart: PackChartYear[];
+  ranking: PackRankingRow[];
+  schedule: PackSwapRow[];
+  shopCapacityPerMonth: number;
+  assumptions: PackAssumption[];
+  trail: PackTrailEntry[];
+  approvalsRequired: number;
+  /** the frozen record's hash once approved, and whether it still verifies */
+  frozen: { hash: string; verifies: boolean } | null;
+}

@@ -1,0 +1,115 @@
+/**
+ * The decision pack and print: a viewer reads the decision summary on the case
+ * page, downloads the decision pack and finds the same headline figures in it;
+ * printing the results page of a 28-truck case gives several pages without the
+ * rail, navigation or controls; the approval page offers the pack too.
+ */
+import fs from 'node:fs';
+import type { Knex } from 'knex';
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest';
+import { createKnex } from '@/lib/db/connection';
+import { firstPageInkShare, pdfPageCount, pdfToText } from '../support/pdf-text';
+import { apiHeaders, openBrowser, screenshot, signIn, signOut } from './support/browser';
+import { createSyntheticWorkspace } from './support/synthetic-fleet';
+
+// a workspace of 28 trucks made from the demo's (the demo itself has 24)
+const WS = 'synthetic-twenty-eight';
+const WS_NAME = 'Synthetic fleet (28 trucks)';
+
+const NAVIGATION = ['Fleet register', 'Engine library', 'Audit log', 'Sign out', 'All cases', 'Methodology: how these figures', 'Download workbook', 'Download decision pack', 'Summary CSV'];
+const squash = (s: string) => s.replace(/\s+/g, ' ');
+
+describe('decision pack and print', () => {
+  let b: Awaited<ReturnType<typeof openBrowser>>;
+  let k: Knex;
+  let caseId: number;
+  const name = 'North Pit pack and print';
+
+  beforeAll(async () => {
+    b = await openBrowser();
+    k = createKnex({ ...process.env, HAULCASE_DATA_DIR: inject('e2eDataDir'), DATABASE_URL: '' });
+    await createSyntheticWorkspace(k, WS, 28, 'analyst@aldervane.test');
+    const ws = await k('workspaces').where({ slug: WS }).first('id');
+    const viewer = await k('users').where({ email: 'viewer@aldervane.test' }).first('id');
+    await k('memberships').insert({ workspaceId: ws.id, userId: viewer.id, role: 'viewer', createdAt: new Date().toISOString() });
+    await signIn(b.page, b.baseURL, 'analyst@aldervane.test');
+    const opts = await (await b.page.request.get(`${b.baseURL}/api/workspaces/${WS}/cases/options`)).json();
+    const base = opts.assumptionSets.find((s: { name: string }) => s.name === 'Base');
+    const trucks = opts.trucks.slice(0, 28);
+    expect(trucks).toHaveLength(28);
+    const made = await b.page.request.post(`${b.baseURL}/api/workspaces/${WS}/cases`, {
+      headers: apiHeaders(b.baseURL),
+      data: { name, assumptionSetId: base.id, selection: trucks.map((t: { id: number }) => ({ truckId: t.id, repowerOfferId: null })) },
+    });
+    expect(made.status()).toBe(201);
+    caseId = (await made.json()).case.id;
+    await signOut(b.page);
+  });
+  afterAll(async () => {
+    await k?.('workspaces').where({ slug: WS }).delete();
+    await k?.destroy();
+    await b?.close();
+  });
+
+  it('a viewer downloads the decision pack from the case page and it holds the figures the page shows', async () => {
+    const { page, baseURL } = b;
+    await signIn(page, baseURL, 'viewer@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/cases/${caseId}`);
+    await page.getByRole('heading', { name }).first().waitFor();
+    await page.getByTestId('ds-gain').waitFor();
+    const gain = (await page.getByTestId('ds-gain').innerText()).trim();
+    const capital = (await page.getByTestId('ds-total-capital').innerText()).trim();
+    const fyRows = await page.getByTestId('ds-capital').locator('tbody tr[data-testid^="ds-capital-FY"]').all();
+    const fy: Array<[string, string]> = [];
+    for (const r of fyRows) fy.push([(await r.getAttribute('data-testid'))!.replace('ds-capital-', ''), (await r.getByTestId('ds-capital-amount').innerText()).trim()]);
+    expect(fy.length).toBeGreaterThan(0);
+
+    const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download decision pack (PDF)' }).click()]);
+    expect(download.suggestedFilename()).toBe(`${name} decision pack.pdf`);
+    const pdf = fs.readFileSync(await download.path());
+    const text = pdfToText(pdf);
+    expect(text).toContain(name);
+    expect(text).toMatch(new RegExp(`Capital asked \\(USD k\\)\\s+${capital.replace(/[()]/g, '\\$&')}`));
+    expect(text).toMatch(new RegExp(`Gain vs rebuilding every engine\\s+${gain.replace(/[()]/g, '\\$&')}`));
+    for (const [label, amount] of fy) expect(text).toMatch(new RegExp(`${label}\\s+\\S+( limit)?\\s+${amount.replace(/[()]/g, '\\$&')}`));
+    expect(text).toMatch(/Engine swaps, electrical work and\s+load testing/);
+    expect(firstPageInkShare(pdf)).toBeGreaterThan(0.01);
+    fs.mkdirSync('test-results/screens', { recursive: true });
+    fs.writeFileSync('test-results/screens/decision-pack.pdf', pdf);
+  });
+
+  it('prints the results page of a 28-truck case over several pages without the rail or controls', async () => {
+    const { page, baseURL } = b;
+    await page.goto(`${baseURL}/${WS}/cases/${caseId}`);
+    await page.getByTestId('ds-gain').waitFor();
+    await page.getByRole('link', { name: 'S-028' }).first().waitFor();
+    await page.emulateMedia({ media: 'print' });
+    await screenshot(page, 'case-results-print');
+    const pdf = await page.pdf({ format: 'A4', printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    expect(pdfPageCount(pdf)).toBeGreaterThan(1);
+    const text = pdfToText(pdf, false);
+    const flat = squash(text);
+    for (const n of NAVIGATION) expect(flat).not.toContain(n);
+    // the header line: case, page, workspace, print date
+    expect(flat).toMatch(new RegExp(`${name} · Results · ${WS_NAME.replace(/[()]/g, '\\$&')} Printed \\d{4}-\\d{2}-\\d{2} \\d{2}:\\d{2} UTC`));
+    expect(flat).toContain('Decision summary');
+    // the whole truck table flows over the pages: its last truck is printed too
+    const rows = text.match(/\bS-0\d\d\b/g) ?? [];
+    expect(new Set(rows).size).toBeGreaterThanOrEqual(28);
+  });
+
+  it('the approval page offers the decision pack and prints without its buttons', async () => {
+    const { page, baseURL } = b;
+    await page.goto(`${baseURL}/${WS}/approvals/${caseId}`);
+    await page.getByTestId('ds-gain').waitFor();
+    const link = page.getByRole('link', { name: 'Download decision pack (PDF)' });
+    expect(await link.getAttribute('href')).toBe(`/api/workspaces/${WS}/cases/${caseId}/decision-pack`);
+    await page.emulateMedia({ media: 'print' });
+    const flat = squash(pdfToText(await page.pdf({ format: 'A4' }), false));
+    await page.emulateMedia({ media: 'screen' });
+    expect(flat).toContain(`${name} · Approval`);
+    expect(flat).toContain('Decision summary');
+    for (const n of [...NAVIGATION, 'Open the case']) expect(flat).not.toContain(n);
+  });
+});
