@@ -1,9 +1,15 @@
 import { diffAudit } from '@/lib/audit-diff';
 
-/** Before → after per field; removed values struck through in loss red, new ones in gain green. */
-export function AuditDiff({ before, after }: { before: string | null; after: string | null }) {
+/**
+ * The fields a change touched: old value struck through in loss red, new value
+ * in gain green; a create lists what was set and a delete what was removed,
+ * without book-keeping fields (ids, versions, time stamps).
+ */
+export function AuditDiff({ before, after, action }: { before: string | null; after: string | null; action?: string }) {
   const lines = diffAudit(before, after);
-  if (lines.length === 0) return <span className="text-muted">no field changes recorded</span>;
+  if (lines.length === 0) {
+    return <span className="text-muted">{action === 'update' || action === 'rename' || action === 'update-plan' ? 'saved with no field changed' : 'no field values recorded'}</span>;
+  }
   return (
     <table className="w-full text-xs" data-testid="audit-diff">
       <tbody>

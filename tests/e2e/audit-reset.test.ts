@@ -90,7 +90,7 @@ describe('password reset by e-mail and the audit log', () => {
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download CSV' }).click()]);
     const csv = fs.readFileSync((await download.path()) as string, 'utf8');
     const lines = csv.trim().split('\r\n');
-    expect(lines[0]).toBe('id,at (UTC),who,action,entity,entity id,before,after');
+    expect(lines[0]).toBe('id,at (UTC),who,change,what,action,entity,entity id,before,after');
     expect(lines.length).toBe(texts.length + 1);
     expect(csv).toContain('site.manager@aldervane.test');
 
