@@ -39,7 +39,7 @@ describe('an admin changes a member\'s role and removes them', () => {
     await signIn(admin.page, baseURL, 'admin@aldervane.test');
     await admin.page.goto(`${baseURL}/${WS}/members`);
     const row = admin.page.getByTestId(`member-${CONTRACTOR}`);
-    await row.getByLabel(`Role of ${CONTRACTOR}`).selectOption({ label: 'Analyst' });
+    await row.getByLabel(`Access for ${CONTRACTOR}`).selectOption({ label: 'Analyst' });
     await row.getByRole('button', { name: 'Save role' }).click();
     await row.getByText('Demo contractor is now analyst.').waitFor();
 
@@ -49,9 +49,10 @@ describe('an admin changes a member\'s role and removes them', () => {
 
     // the last admin cannot demote themselves
     const self = admin.page.getByTestId('member-admin@aldervane.test');
-    await self.getByLabel('Role of admin@aldervane.test').selectOption({ label: 'Viewer' });
+    await self.getByLabel('Access for admin@aldervane.test').selectOption({ label: 'Viewer' });
     await self.getByRole('button', { name: 'Save role' }).click();
-    expect(await self.getByTestId('member-message').textContent()).toBe('Demo admin is the only admin of this workspace, so they cannot be made viewer. Make another member an admin first.');
+    await self.getByTestId('member-message').getByText('Demo admin is the only admin of this workspace, so they cannot be made viewer. Make another member an admin first.', { exact: true }).waitFor();
+    await screenshot(admin.page, 'members-last-admin');
     await admin.page.reload();
 
     await row.getByRole('button', { name: `Remove ${CONTRACTOR}` }).click();

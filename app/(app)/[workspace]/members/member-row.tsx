@@ -46,7 +46,7 @@ export function MemberRow({ workspace, member, isSelf }: { workspace: string; me
       <td>{member.name}</td>
       <td>
         <div className="flex items-center gap-2">
-          <label className="sr-only" htmlFor={`role-${member.userId}`}>Role of {member.email}</label>
+          <label className="sr-only" htmlFor={`role-${member.userId}`}>Access for {member.email}</label>
           <select id={`role-${member.userId}`} className="field py-1" value={role} onChange={(e) => setRole(e.target.value as Role)} disabled={busy}>
             {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
           </select>
