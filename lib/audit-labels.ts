@@ -32,7 +32,7 @@ export const ACTION_LABELS: Record<string, string> = {
   submit: 'submitted for approval',
   approve: 'approved',
   reject: 'rejected',
-  return: 'returned for changes',
+  return: 'sent back for changes',
   import: 'imported',
   upload: 'uploaded',
   run: 'run started',
