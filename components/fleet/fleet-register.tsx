@@ -36,6 +36,9 @@ function buildColumns(ws: WorkspaceView, engines: Map<number, EngineRow>, thisMo
     num('engineHours', 'Engine hours (h)'),
     num('remainingLifeHours', 'Remaining life (h)'),
     num('annualHours', 'Annual hours (h/yr)'),
+    num('loadFactor', 'Load factor', 2),
+    num('tonnesPerHour', 'Productivity (t/h)'),
+    num('fuelBurnLitresPerHour', `Fuel burn (${UNIT_LABEL[ws.units].burn})`, DISPLAY_DIGITS[ws.units].burn, (v) => toDisplay('burn', v, ws.units)),
     {
       id: 'hoursToOverhaul',
       accessorFn: (r) => {
@@ -67,9 +70,6 @@ function buildColumns(ws: WorkspaceView, engines: Map<number, EngineRow>, thisMo
       meta: { numeric: true, help: DUE_HELP },
       sortUndefined: 'last',
     },
-    num('loadFactor', 'Load factor', 2),
-    num('tonnesPerHour', 'Productivity (t/h)'),
-    num('fuelBurnLitresPerHour', `Fuel burn (${UNIT_LABEL[ws.units].burn})`, DISPLAY_DIGITS[ws.units].burn, (v) => toDisplay('burn', v, ws.units)),
     { id: 'notes', accessorKey: 'notes', header: 'Notes' },
   ];
 }
@@ -77,7 +77,7 @@ function buildColumns(ws: WorkspaceView, engines: Map<number, EngineRow>, thisMo
 /** The fleet register: sortable, filterable, with a choice of columns; analysts and admins edit. */
 export function FleetRegister({ ws }: { ws: WorkspaceView }) {
   const { data, error, isLoading } = useSWR<{ items: TruckRow[] }>(api(ws.slug, 'trucks'));
-  const { data: engineData } = useSWR<{ items: EngineRow[] }>(api(ws.slug, 'engines'));
+  const { data: engineData, isLoading: enginesLoading } = useSWR<{ items: EngineRow[] }>(api(ws.slug, 'engines'));
   const engines = useMemo(() => new Map((engineData?.items ?? []).map((e) => [e.id, e])), [engineData]);
   const [thisMonth] = useState(() => monthOf(new Date()));
   const columns = useMemo(() => buildColumns(ws, engines, thisMonth), [ws, engines, thisMonth]);
@@ -98,7 +98,8 @@ export function FleetRegister({ ws }: { ws: WorkspaceView }) {
   });
 
   if (error) return <p role="alert" className="text-sm text-loss">Could not load the register: {error.message}</p>;
-  if (isLoading) return <p className="text-sm text-muted">Loading trucks…</p>;
+  // the engine types give the names and planned lives the register shows
+  if (isLoading || enginesLoading) return <p className="text-sm text-muted">Loading trucks…</p>;
   const rows = table.getRowModel().rows;
   if (data?.items.length === 0 && !editing) {
     return (
