@@ -68,6 +68,8 @@ function buildColumns(ws: WorkspaceView, engines: Map<number, EngineRow>, thisMo
         return d.due;
       },
       meta: { numeric: true, help: DUE_HELP },
+      // the first click lists the soonest first
+      sortDescFirst: false,
       sortUndefined: 'last',
     },
     { id: 'notes', accessorKey: 'notes', header: 'Notes' },
