@@ -114,3 +114,18 @@ export function withoutEmails(text: string | null): string | null {
   };
   return JSON.stringify(strip(value));
 }
+
+const FIELD_LABELS: Record<string, string> = {
+  unitNumber: 'Unit', payloadClass: 'Payload class', engineTypeId: 'Engine type (id)', repowerOfferId: 'Repower offer (id)',
+  engineHours: 'Engine hours (h)', remainingLifeHours: 'Remaining life (h)', annualHours: 'Annual hours (h/yr)', loadFactor: 'Load factor',
+  tonnesPerHour: 'Productivity (t/h)', fuelBurnLitresPerHour: 'Fuel burn (L/h)', ratedKw: 'Rated power (kW)', bsfcGPerKwh: 'BSFC (g/kWh)',
+  lifeHours: 'Planned life (h)', assumptionSetId: 'Assumption set (id)', fileName: 'File name', expiresAt: 'Link expires (UTC)',
+};
+
+/** "engineHours" → "Engine hours (h)"; other field codes in words ("failedCoreCredit" → "Failed core credit"). */
+export function fieldLabel(field: string): string {
+  if (FIELD_LABELS[field]) return FIELD_LABELS[field];
+  if (field.startsWith('(')) return field;
+  const words = field.replace(/([a-z0-9])([A-Z])/g, '$1 $2').replace(/[_-]+/g, ' ').toLowerCase();
+  return words ? words[0].toUpperCase() + words.slice(1) : field;
+}

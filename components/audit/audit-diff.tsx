@@ -1,4 +1,7 @@
 import { diffAudit } from '@/lib/audit-diff';
+import { fieldLabel } from '@/lib/audit-labels';
+
+const Value = ({ v }: { v: string }) => (v === '' ? <span className="italic text-muted">(empty)</span> : <>{v}</>);
 
 /**
  * The fields a change touched: old value struck through in loss red, new value
@@ -15,11 +18,11 @@ export function AuditDiff({ before, after, action }: { before: string | null; af
       <tbody>
         {lines.map((l) => (
           <tr key={l.field} className="align-top">
-            <th scope="row" className="w-40 py-0.5 pr-2 text-left font-mono font-normal text-muted">{l.field}</th>
+            <th scope="row" className="w-40 py-0.5 pr-2 text-left font-normal text-muted" title={l.field}>{fieldLabel(l.field)}</th>
             <td className="py-0.5 font-mono break-all">
-              {l.before !== undefined ? <del className="text-loss">{l.before}</del> : null}
+              {l.before !== undefined ? <del className="text-loss"><Value v={l.before} /></del> : null}
               {l.before !== undefined && l.after !== undefined ? <span className="px-1 text-muted">→</span> : null}
-              {l.after !== undefined ? <ins className="text-gain no-underline">{l.after}</ins> : null}
+              {l.after !== undefined ? <ins className="text-gain no-underline"><Value v={l.after} /></ins> : null}
             </td>
           </tr>
         ))}

@@ -41,7 +41,8 @@ describe('reading a change in the audit log', () => {
     expect(cells[2]).toBe('Truck: changed');
     expect(cells[3]).toBe('Truck T3-02');
     const diff = row.getByTestId('audit-diff');
-    expect(await diff.locator('th').allTextContents()).toEqual(['notes']);
+    expect(await diff.locator('th').allTextContents()).toEqual(['Notes']);
+    expect(await diff.locator('del').textContent()).toBe('(empty)');
     expect(await diff.locator('ins').textContent()).toBe('Turbo replaced under warranty');
     expect(await page.getByTestId('audit-table').textContent()).not.toMatch(/@aldervane\.test|workspaceId|createdAt/);
     expect(await page.getByLabel('Person').textContent()).not.toContain('@');

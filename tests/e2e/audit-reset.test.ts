@@ -84,7 +84,7 @@ describe('password reset by e-mail and the audit log', () => {
     expect(texts.length).toBeGreaterThanOrEqual(1);
     for (const t of texts) expect(t).toContain('invite');
     expect(texts.some((t) => t.includes('site.manager@aldervane.test'))).toBe(true);
-    expect(await page.getByTestId('audit-diff').first().textContent()).toContain('role');
+    expect(await page.getByTestId('audit-diff').first().textContent()).toContain('Role');
     await screenshot(page, 'audit-log-filtered');
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download CSV' }).click()]);

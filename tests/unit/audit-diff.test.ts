@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { diffAudit } from '@/lib/audit-diff';
-import { describeEntity, kindLabel, recordedName, withoutEmails } from '@/lib/audit-labels';
+import { describeEntity, fieldLabel, kindLabel, recordedName, withoutEmails } from '@/lib/audit-labels';
 
 const j = (v: unknown) => JSON.stringify(v);
 
@@ -60,5 +60,12 @@ describe('audit labels', () => {
     expect(JSON.parse(withoutEmails(j({ email: 'x@y.test', role: 'viewer', nested: [{ to: ['x@y.test'], ok: 1 }] })) as string)).toEqual({ role: 'viewer', nested: [{ ok: 1 }] });
     expect(withoutEmails('sent to x@y.test today')).toBe('sent to (address hidden) today');
     expect(withoutEmails(null)).toBeNull();
+  });
+
+  it('names fields in words', () => {
+    expect(fieldLabel('engineHours')).toBe('Engine hours (h)');
+    expect(fieldLabel('failedCoreCredit')).toBe('Failed core credit');
+    expect(fieldLabel('role')).toBe('Role');
+    expect(fieldLabel('(value)')).toBe('(value)');
   });
 });

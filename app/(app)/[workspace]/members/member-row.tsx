@@ -47,11 +47,11 @@ export function MemberRow({ workspace, member, isSelf }: { workspace: string; me
       <td>
         <div className="flex items-center gap-2">
           <label className="sr-only" htmlFor={`role-${member.userId}`}>Access for {member.email}</label>
-          <select id={`role-${member.userId}`} className="field py-1" value={role} onChange={(e) => setRole(e.target.value as Role)} disabled={busy}>
+          <select id={`role-${member.userId}`} className="field w-36 py-1" value={role} onChange={(e) => setRole(e.target.value as Role)} disabled={busy}>
             {ROLES.map((r) => <option key={r} value={r}>{ROLE_LABELS[r]}</option>)}
           </select>
           {role !== member.role ? (
-            <button type="button" className="btn btn-primary" onClick={saveRole} disabled={busy}>Save role</button>
+            <button type="button" className="btn btn-primary whitespace-nowrap" onClick={saveRole} disabled={busy}>Save role</button>
           ) : null}
         </div>
       </td>

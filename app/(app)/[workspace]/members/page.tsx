@@ -58,7 +58,8 @@ export default async function MembersPage({ params }: { params: Promise<{ worksp
       ) : null}
       <p className="mt-3 text-xs text-muted">
         Roles: admins manage members and settings; analysts keep the data and build cases; approvers decide on submitted
-        cases; viewers read.
+        cases; viewers read the data and cases. Admins, analysts and approvers can read the audit log; only admins see
+        members&apos; e-mail addresses there.
       </p>
     </>
   );
