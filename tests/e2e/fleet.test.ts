@@ -245,6 +245,8 @@ describe('engine library, assumption sets and display units in the browser', () 
     expect(await display.getByTestId('setting-negative').textContent()).toBe('(1,250)');
     // read-only: nothing to click, not greyed-out radios
     expect(await display.getByRole('radio').count()).toBe(0);
+    expect(await page.getByTestId('approvals-setting').textContent()).toContain('A case needs 1 distinct approval (not counting the person who submitted it).');
+    expect(await page.getByRole('spinbutton').count()).toBe(0);
     expect(await page.getByRole('button', { name: 'Save display settings' }).count()).toBe(0);
     await screenshot(page, 'settings-viewer-read-only');
     await page.goto(`${baseURL}/${WS}/engines`);
