@@ -7,6 +7,9 @@ import { MONTH_NAMES } from '@/lib/plan/fiscal-year';
 
 type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; fiscalYearStartMonth: number };
 
+const UNIT_LABELS: Record<Settings['units'], string> = { metric: 'Metric (kW, L, g/kWh, L/h)', us: 'US customary (hp, US gal, lb/hp-h, gal/h)' };
+const NEGATIVE_LABELS: Record<Settings['negativeStyle'], string> = { parentheses: '(1,250)', minus: '−1,250' };
+
 /** Display units and negative style (admins). Stored values stay metric; the register, the engine library and the truck and engine forms read and take the chosen units. */
 export function DisplaySettings({ slug, initial, canEdit }: { slug: string; initial: Settings; canEdit: boolean }) {
   const router = useRouter();
@@ -22,15 +25,30 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
       setMessage(err instanceof ApiError ? err.message : String(err));
     }
   };
+  if (!canEdit) {
+    // read-only for those who cannot save: the values as text, nothing to click
+    return (
+      <section className="card max-w-xl p-4" data-testid="display-settings" aria-label="Display settings">
+        <h2 className="text-base font-semibold">Display</h2>
+        <dl className="mt-2 grid grid-cols-[10rem_1fr] gap-y-1 text-sm">
+          <dt className="text-muted">Units</dt>
+          <dd data-testid="setting-units">{UNIT_LABELS[initial.units]}</dd>
+          <dt className="text-muted">Negative amounts</dt>
+          <dd data-testid="setting-negative">{NEGATIVE_LABELS[initial.negativeStyle]}</dd>
+        </dl>
+        <p className="mt-3 text-xs text-muted" data-testid="settings-who-changes">Only a workspace admin can change these settings; ask one of your admins.</p>
+      </section>
+    );
+  }
   return (
     <form onSubmit={save} className="card max-w-xl p-4" data-testid="display-settings">
-      <fieldset disabled={!canEdit}>
+      <fieldset>
         <legend className="text-base font-semibold">Display</legend>
         <p className="label mt-2">Units</p>
         {(['metric', 'us'] as const).map((u) => (
           <label key={u} className="mr-4 text-sm">
             <input type="radio" name="units" value={u} checked={values.units === u} onChange={() => setValues({ ...values, units: u })} />{' '}
-            {u === 'metric' ? 'Metric (kW, L, g/kWh, L/h)' : 'US customary (hp, US gal, lb/hp-h, gal/h)'}
+            {UNIT_LABELS[u]}
           </label>
         ))}
         <p className="mt-1 text-xs text-muted">The fleet register, the engine library and the truck and engine forms use these units. Everything is stored and computed in metric; case results (litres), assumption prices (per litre), risk drivers, fleet files and case files stay metric, and their labels say so.</p>
@@ -38,7 +56,7 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
         {(['parentheses', 'minus'] as const).map((s) => (
           <label key={s} className="mr-4 text-sm">
             <input type="radio" name="negativeStyle" value={s} checked={values.negativeStyle === s} onChange={() => setValues({ ...values, negativeStyle: s })} />{' '}
-            {s === 'parentheses' ? '(1,250)' : '−1,250'}
+            {NEGATIVE_LABELS[s]}
           </label>
         ))}
         <label className="label mt-3 block" htmlFor="fiscal-year-start">Fiscal year starts in</label>
@@ -59,7 +77,7 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
             : ` (${MONTH_NAMES[values.fiscalYearStartMonth - 1]} start: FY2027 runs from ${MONTH_NAMES[values.fiscalYearStartMonth - 1]} 2026 to ${MONTH_NAMES[values.fiscalYearStartMonth - 2]} 2027).`}
         </p>
       </fieldset>
-      {canEdit ? <button type="submit" className="btn btn-primary mt-3">Save display settings</button> : <p className="mt-3 text-xs text-muted">Only a workspace admin can change these.</p>}
+      <button type="submit" className="btn btn-primary mt-3">Save display settings</button>
       {message ? <p role="status" className="mt-2 text-sm">{message}</p> : null}
     </form>
   );

@@ -9,13 +9,17 @@ import { useMemo, useState } from 'react';
 import useSWR from 'swr';
 import { DISPLAY_DIGITS, toDisplay, UNIT_LABEL } from '@/lib/display-units';
 import { formatNumber } from '@/lib/format';
+import { monthOf, overhaulDue } from '@/lib/overhaul-due';
 import { EmptyState } from '@/components/ui/empty-state';
 import { TruckForm } from './truck-form';
-import { api, type TruckRow, type WorkspaceView } from './types';
+import { api, type EngineRow, type TruckRow, type WorkspaceView } from './types';
 
-type Col = ColumnDef<TruckRow> & { meta?: { numeric?: boolean } };
+type Col = ColumnDef<TruckRow> & { meta?: { numeric?: boolean; help?: string } };
 
-function buildColumns(ws: WorkspaceView): Col[] {
+const HOURS_HELP = 'The engine type’s planned life minus the engine’s hours; 0 when it is at or past its planned life.';
+const DUE_HELP = 'This month plus the hours to planned overhaul at the truck’s annual hours (12 · hours ÷ annual hours, rounded down to whole months, as in a case’s swap schedule). “Now” when the engine is at or past its planned life; “—” when the truck’s remaining life ends first.';
+
+function buildColumns(ws: WorkspaceView, engines: Map<number, EngineRow>, thisMonth: string): Col[] {
   const num = (id: keyof TruckRow, header: string, digits = 0, convert?: (v: number | null) => number | null): Col => ({
     id: String(id),
     accessorFn: (r) => (convert ? convert(r[id] as number | null) : r[id]),
@@ -27,7 +31,7 @@ function buildColumns(ws: WorkspaceView): Col[] {
   return [
     { id: 'unitNumber', accessorKey: 'unitNumber', header: 'Unit' },
     { id: 'payloadClass', accessorKey: 'payloadClass', header: 'Payload class' },
-    { id: 'engineKey', accessorKey: 'engineKey', header: 'Engine type' },
+    { id: 'engine', accessorFn: (r) => engines.get(r.engineTypeId)?.name || r.engineKey, header: 'Engine type' },
     { id: 'offerKey', accessorFn: (r) => r.offerKey ?? '', header: 'Repower offer' },
     num('engineHours', 'Engine hours (h)'),
     num('remainingLifeHours', 'Remaining life (h)'),
@@ -35,6 +39,39 @@ function buildColumns(ws: WorkspaceView): Col[] {
     num('loadFactor', 'Load factor', 2),
     num('tonnesPerHour', 'Productivity (t/h)'),
     num('fuelBurnLitresPerHour', `Fuel burn (${UNIT_LABEL[ws.units].burn})`, DISPLAY_DIGITS[ws.units].burn, (v) => toDisplay('burn', v, ws.units)),
+    {
+      id: 'hoursToOverhaul',
+      accessorFn: (r) => {
+        const e = engines.get(r.engineTypeId);
+        return e ? overhaulDue(r, e.lifeHours, thisMonth).hoursToOverhaul : undefined;
+      },
+      header: 'Hours to planned overhaul (h)',
+      cell: (c) => formatNumber((c.getValue() as number | undefined) ?? null, 0),
+      meta: { numeric: true, help: HOURS_HELP },
+      sortUndefined: 'last',
+    },
+    {
+      id: 'overhaulDue',
+      // sorts by months ahead; a truck that retires first sorts last
+      accessorFn: (r) => {
+        const e = engines.get(r.engineTypeId);
+        const d = e ? overhaulDue(r, e.lifeHours, thisMonth) : null;
+        return d && !d.retiresFirst ? d.monthsAhead : undefined;
+      },
+      header: 'Overhaul due (month)',
+      cell: (c) => {
+        const e = engines.get(c.row.original.engineTypeId);
+        if (!e) return '';
+        const d = overhaulDue(c.row.original, e.lifeHours, thisMonth);
+        if (d.retiresFirst) return <span title="The truck’s remaining life ends before its engine reaches its planned life.">—</span>;
+        if (d.overdue) return <span className="text-loss" title="At or past its planned life: the overhaul (or a repower) is due now.">Now</span>;
+        return d.due;
+      },
+      meta: { numeric: true, help: DUE_HELP },
+      // the first click lists the soonest first
+      sortDescFirst: false,
+      sortUndefined: 'last',
+    },
     { id: 'notes', accessorKey: 'notes', header: 'Notes' },
   ];
 }
@@ -42,7 +79,10 @@ function buildColumns(ws: WorkspaceView): Col[] {
 /** The fleet register: sortable, filterable, with a choice of columns; analysts and admins edit. */
 export function FleetRegister({ ws }: { ws: WorkspaceView }) {
   const { data, error, isLoading } = useSWR<{ items: TruckRow[] }>(api(ws.slug, 'trucks'));
-  const columns = useMemo(() => buildColumns(ws), [ws]);
+  const { data: engineData, isLoading: enginesLoading } = useSWR<{ items: EngineRow[] }>(api(ws.slug, 'engines'));
+  const engines = useMemo(() => new Map((engineData?.items ?? []).map((e) => [e.id, e])), [engineData]);
+  const [thisMonth] = useState(() => monthOf(new Date()));
+  const columns = useMemo(() => buildColumns(ws, engines, thisMonth), [ws, engines, thisMonth]);
   const [sorting, setSorting] = useState<SortingState>([]);
   const [filter, setFilter] = useState('');
   const [visibility, setVisibility] = useState<VisibilityState>({ notes: false });
@@ -60,7 +100,8 @@ export function FleetRegister({ ws }: { ws: WorkspaceView }) {
   });
 
   if (error) return <p role="alert" className="text-sm text-loss">Could not load the register: {error.message}</p>;
-  if (isLoading) return <p className="text-sm text-muted">Loading trucks…</p>;
+  // the engine types give the names and planned lives the register shows
+  if (isLoading || enginesLoading) return <p className="text-sm text-muted">Loading trucks…</p>;
   const rows = table.getRowModel().rows;
   if (data?.items.length === 0 && !editing) {
     return (
@@ -109,7 +150,7 @@ export function FleetRegister({ ws }: { ws: WorkspaceView }) {
                   const sorted = h.column.getIsSorted();
                   return (
                     <th key={h.id} className={numeric ? 'n' : undefined} aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : 'none'}>
-                      <button type="button" className="font-medium hover:text-ink" onClick={h.column.getToggleSortingHandler()}>
+                      <button type="button" className="font-medium hover:text-ink" onClick={h.column.getToggleSortingHandler()} title={(h.column.columnDef as Col).meta?.help}>
                         {flexRender(h.column.columnDef.header, h.getContext())}
                         {sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}
                       </button>
@@ -141,6 +182,9 @@ export function FleetRegister({ ws }: { ws: WorkspaceView }) {
           </tbody>
         </table>
       </div>
+      <p className="mt-2 text-xs text-muted" data-testid="overhaul-help">
+        Hours to planned overhaul: {HOURS_HELP} Overhaul due: {DUE_HELP} This month is {thisMonth} (UTC).
+      </p>
     </section>
   );
 }

@@ -1,4 +1,4 @@
-import type { Role } from '@/lib/auth/roles';
+import { CAN, type Role } from '@/lib/auth/roles';
 
 export type NavItem = { href: string; label: string; roles?: readonly Role[] };
 
@@ -11,7 +11,7 @@ export const NAV: NavItem[] = [
   { href: '/assumptions', label: 'Assumptions' },
   { href: '/cases', label: 'Business cases' },
   { href: '/approvals', label: 'Approvals' },
-  { href: '/audit', label: 'Audit log' },
+  { href: '/audit', label: 'Audit log', roles: CAN.audit },
   { href: '/settings', label: 'Settings' },
   { href: '/members', label: 'Members', roles: ['admin'] },
   // Only listed while mail goes to the local sink (the layout hides it otherwise).

@@ -11,6 +11,7 @@ import * as m0012 from './0012_auth_guard';
 import * as m0013 from './0013_valuation_fields';
 import * as m0014 from './0014_pinned_run';
 import * as m0015 from './0015_frozen_proposal';
+import * as m0016 from './0016_membership_version';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -30,6 +31,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0013_valuation_fields': m0013,
   '0014_pinned_run': m0014,
   '0015_frozen_proposal': m0015,
+  '0016_membership_version': m0016,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

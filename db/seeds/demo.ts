@@ -31,6 +31,81 @@ const SUPPLIERS: Record<string, string> = {
   'brannock-bd2000': 'Brannock Drive Systems (invented)',
 };
 
+/**
+ * The second demo site, "Corrin Flats Iron" (invented, AUD): a small fleet of
+ * its own so that a consultant who serves both sites switches between two real
+ * workspaces. 180 t class trucks on one in-service engine type, one repower
+ * offer, one assumption set, one draft case over the whole fleet. Every figure
+ * is invented for the demo; the Weibull figures follow the same reasoning as
+ * the first site's (β ≈ 3, "from memory": wear-out failures of large diesels;
+ * η giving about 15 % in-service failures before the planned life, "common
+ * practice": a planned life near the B10–B20 life).
+ */
+const CORRIN = {
+  engines: [
+    {
+      key: 'cf-1600-inservice', name: 'In-service 1,600 kW (180 t class)', ratedKw: 1600, bsfcGPerKwh: 214, lifeHours: 17000,
+      weibullShape: 3.0, weibullScaleHours: 31000, overhaulCost: 610000, overhaulDowntimeDays: 8, failureCost: 930000, failureDowntimeDays: 24,
+      serviceIntervalHours: 250, sumpLitres: 190, serviceKitCost: 640, serviceLabourHours: 4, topUpLitresPerHour: 0.1,
+    },
+    {
+      key: 'cf-1700-module', name: 'Module 1,700 kW, extended service interval', ratedKw: 1700, bsfcGPerKwh: 201, lifeHours: 22000,
+      weibullShape: 3.2, weibullScaleHours: 42000, overhaulCost: 650000, overhaulDowntimeDays: 7, failureCost: 960000, failureDowntimeDays: 22,
+      serviceIntervalHours: 500, sumpLitres: 190, serviceKitCost: 820, serviceLabourHours: 4.5, topUpLitresPerHour: 0.06,
+    },
+  ],
+  offer: {
+    key: 'wyndell-cf1700', supplier: 'Wyndell Engine Works (invented)', engineKey: 'cf-1700-module', modulePrice: 1_480_000, installCost: 115_000,
+    coreCredit: 80_000, failedCoreCredit: 45_000, downtimeDays: 2, productivityGain: 0.008, timing: 'at-overhaul',
+  },
+  // unit, engine hours, remaining life (h), annual hours, load factor, t/h, measured fuel burn (L/h, null = from BSFC)
+  trucks: [
+    ['CF-101', 14200, 2800, 5900, 0.52, 520, 206.5],
+    ['CF-102', 9800, 7200, 6000, 0.5, 505, null],
+    ['CF-103', 16100, 900, 5800, 0.55, 535, 213.8],
+    ['CF-104', 4200, 12800, 6100, 0.49, 498, null],
+    ['CF-105', 12600, 4400, 5700, 0.51, 512, 201.2],
+    ['CF-106', 7300, 9700, 6050, 0.53, 526, null],
+    ['CF-107', 15400, 1600, 5850, 0.54, 530, 210.9],
+  ] as Array<[string, number, number, number, number, number, number | null]>,
+  assumptions: {
+    discountRate: 0.09, timing: 'end-of-year', horizonYears: null, inflation: 0.03, fuelPrice: 1.62, fuelEscalation: 0.03,
+    fuelDensityKgPerL: 0.835, co2KgPerLitre: 2.697, lubePrice: 6.1, labourRate: 145, carbonPrice: 0, carbonEscalation: 0,
+    marginPerTonne: 3.1, taxRate: 0.3, depreciation: { method: 'straight-line', years: 8 }, rebuildAccounting: 'expense',
+    valuation: 'expected', lostMarginShare: 1,
+  } as Record<string, unknown>,
+};
+
+async function seedSecondSite(trx: Knex.Transaction, ws: number, userId: number, now: string) {
+  const audit = { version: 1, createdBy: userId, updatedBy: userId, createdAt: now, updatedAt: now };
+  const engineIds: Record<string, number> = {};
+  for (const e of CORRIN.engines) engineIds[e.key] = await insertId(trx, 'engine_types', { workspaceId: ws, ...e, ...audit });
+  const { engineKey, ...offer } = CORRIN.offer;
+  const offerId = await insertId(trx, 'repower_offers', { workspaceId: ws, ...offer, engineTypeId: engineIds[engineKey], ...audit });
+  const truckIds: number[] = [];
+  for (const [unitNumber, engineHours, remainingLifeHours, annualHours, loadFactor, tonnesPerHour, fuelBurnLitresPerHour] of CORRIN.trucks) {
+    truckIds.push(await insertId(trx, 'trucks', {
+      workspaceId: ws, unitNumber, payloadClass: '180 t', engineTypeId: engineIds['cf-1600-inservice'], repowerOfferId: offerId,
+      engineHours, remainingLifeHours, annualHours, loadFactor, tonnesPerHour, fuelBurnLitresPerHour, ...audit,
+    }));
+  }
+  const setId = await insertId(trx, 'assumption_sets', { workspaceId: ws, name: 'Base', ...assumptionSetColumns(CORRIN.assumptions), notes: 'Invented demo figures, AUD.', ...audit });
+  await trx('business_cases').insert({
+    workspaceId: ws,
+    name: 'Corrin Flats haul fleet — base',
+    assumptionSetId: setId,
+    selection: JSON.stringify(truckIds.map((truckId) => ({ truckId, repowerOfferId: null }))),
+    plan: '{}',
+    status: 'draft',
+    version: 1,
+    createdBy: userId,
+    updatedBy: userId,
+    createdAt: now,
+    updatedAt: now,
+  });
+  await trx('audit_log').insert({ workspaceId: ws, userId: null, action: 'seed', entity: 'workspace', entityId: String(ws), before: null, after: JSON.stringify({ slug: OTHER_WORKSPACE }), at: now });
+}
+
 async function createUser(knex: Knex, email: string, name: string, passwordHash: string): Promise<number> {
   const now = nowIso();
   const [row] = await knex('users').insert({ email, name, passwordHash, createdAt: now, updatedAt: now }).returning('id');
@@ -47,7 +122,8 @@ async function insertId(knex: Knex, table: string, values: Record<string, unknow
  * scenarios/aldervane-north-pit.json, assumption sets from
  * scenarios/aldervane-assumption-sets.json), a draft business case over the
  * whole fleet, one user per role, and a second
- * small workspace so that workspace separation can be seen and tested.
+ * small workspace with a fleet of its own ("Corrin Flats Iron", see CORRIN)
+ * so that workspace separation can be seen and tested.
  * Does nothing when the demo workspace already exists.
  *
  * The demo engines' Weibull figures (scenarios/aldervane-north-pit.json) are
@@ -87,6 +163,7 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
     await trx('memberships').insert({ workspaceId: other, userId: users.analyst, role: 'analyst', createdAt: now });
     const corrinAdmin = await createUser(trx, 'admin@corrin.test', 'Demo admin (Corrin Flats)', hash);
     await trx('memberships').insert({ workspaceId: other, userId: corrinAdmin, role: 'admin', createdAt: now });
+    await seedSecondSite(trx, other, corrinAdmin, now);
 
     const audit = { version: 1, createdBy: users.admin, updatedBy: users.admin, createdAt: now, updatedAt: now };
     const engineIds: Record<string, number> = {};

@@ -1,7 +1,7 @@
 import 'server-only';
 import type { Access } from '@/lib/auth/access';
 import { hashPassword } from '@/lib/auth/password';
-import type { Role } from '@/lib/auth/roles';
+import { ROLE_LABELS, type Role } from '@/lib/auth/roles';
 import { writeAudit } from '@/lib/audit';
 import { db } from '@/lib/db';
 import { HttpError, invalid } from '@/lib/http';
@@ -19,8 +19,14 @@ export async function createInvitation(access: Access, input: { email: string; r
   const token = newToken();
   const expiresAt = addMinutes(new Date(), INVITATION_DAYS * 24 * 60);
   const id = await k.transaction(async (trx) => {
-    const member = await trx('memberships as m').join('users as u', 'u.id', 'm.userId').where({ 'm.workspaceId': access.workspace.id, 'u.email': input.email }).first('m.id');
-    if (member) throw invalid([{ path: 'email', message: `${input.email} is already a member of this workspace.` }]);
+    const member = await trx('memberships as m').join('users as u', 'u.id', 'm.userId').where({ 'm.workspaceId': access.workspace.id, 'u.email': input.email }).first('m.id', 'm.role');
+    if (member) {
+      const now = ROLE_LABELS[member.role as Role] ?? member.role;
+      const message = member.role === input.role
+        ? `${input.email} is already a member of this workspace (${now}).`
+        : `${input.email} is already a member of this workspace (${now}). To make them ${ROLE_LABELS[input.role].toLowerCase()}, change their role in the members table instead of inviting them.`;
+      throw invalid([{ path: 'email', message }], message);
+    }
     const [row] = await trx('invitations')
       .insert({ workspaceId: access.workspace.id, email: input.email, role: input.role, tokenHash: hashToken(token), expiresAt, invitedBy: access.userId, createdAt: nowIso() })
       .returning('id');

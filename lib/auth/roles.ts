@@ -11,6 +11,12 @@ export const CAN = {
   edit: ['admin', 'analyst'],
   /** Approve, reject or return a submitted case. */
   decide: ['approver', 'admin'],
+  /**
+   * Read the audit log: who changed what, when. Admins, approvers (who judge a
+   * case on the data behind it) and analysts (who keep that data); not viewers.
+   * Only admins see members' e-mail addresses in it; the others see names.
+   */
+  audit: ['admin', 'approver', 'analyst'],
   /** Members, invitations, workspace settings, outbox. */
   administer: ['admin'],
 } as const satisfies Record<string, readonly Role[]>;

@@ -84,13 +84,13 @@ describe('password reset by e-mail and the audit log', () => {
     expect(texts.length).toBeGreaterThanOrEqual(1);
     for (const t of texts) expect(t).toContain('invite');
     expect(texts.some((t) => t.includes('site.manager@aldervane.test'))).toBe(true);
-    expect(await page.getByTestId('audit-diff').first().textContent()).toContain('role');
+    expect(await page.getByTestId('audit-diff').first().textContent()).toContain('Role');
     await screenshot(page, 'audit-log-filtered');
 
     const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Download CSV' }).click()]);
     const csv = fs.readFileSync((await download.path()) as string, 'utf8');
     const lines = csv.trim().split('\r\n');
-    expect(lines[0]).toBe('id,at (UTC),who,action,entity,entity id,before,after');
+    expect(lines[0]).toBe('id,at (UTC),who,change,what,action,entity,entity id,before,after');
     expect(lines.length).toBe(texts.length + 1);
     expect(csv).toContain('site.manager@aldervane.test');
 

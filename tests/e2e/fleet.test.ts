@@ -239,8 +239,16 @@ describe('engine library, assumption sets and display units in the browser', () 
   it('a viewer sees the settings but cannot change them', async () => {
     await signIn(page, baseURL, 'viewer@aldervane.test');
     await page.goto(`${baseURL}/${WS}/settings`);
-    await page.getByText('Only a workspace admin can change these.').waitFor();
+    const display = page.getByTestId('display-settings');
+    expect(await display.getByTestId('settings-who-changes').textContent()).toBe('Only a workspace admin can change these settings; ask one of your admins.');
+    expect(await display.getByTestId('setting-units').textContent()).toBe('Metric (kW, L, g/kWh, L/h)');
+    expect(await display.getByTestId('setting-negative').textContent()).toBe('(1,250)');
+    // read-only: nothing to click, not greyed-out radios
+    expect(await display.getByRole('radio').count()).toBe(0);
+    expect(await page.getByTestId('approvals-setting').textContent()).toContain('A case needs 1 distinct approval (not counting the person who submitted it).');
+    expect(await page.getByRole('spinbutton').count()).toBe(0);
     expect(await page.getByRole('button', { name: 'Save display settings' }).count()).toBe(0);
+    await screenshot(page, 'settings-viewer-read-only');
     await page.goto(`${baseURL}/${WS}/engines`);
     await page.getByTestId('engine-table').waitFor();
     expect(await page.getByRole('button', { name: 'Add engine type' }).count()).toBe(0);

@@ -39,8 +39,46 @@ describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
     await close();
   });
 
-  it('filters by person, kind and date range, within this workspace only', async () => {
+  it('lets admins, approvers and analysts read it, not viewers; addresses only for admins, names for the others', async () => {
     signInAs(ids['viewer@aldervane.test']);
+    expect((await call(auditJson, WS, { url: url('') })).status).toBe(403);
+    expect((await call(auditCsv, WS, { url: url('') })).status).toBe(403);
+    await writeAudit(k, { workspaceId: wsId, userId: ids['admin@aldervane.test'], action: 'change-role', entity: 'membership', entityId: ids['viewer@aldervane.test'], before: { email: 'viewer@aldervane.test', role: 'viewer' }, after: { email: 'viewer@aldervane.test', role: 'analyst' } });
+    for (const role of ['approver', 'analyst']) {
+      signInAs(ids[`${role}@aldervane.test`]);
+      const r = await call(auditJson, WS, { url: url('kind=membership:change-role') });
+      expect(r.status).toBe(200);
+      expect(JSON.stringify(r.body)).not.toMatch(/@aldervane\.test/);
+      expect(r.body.rows[0]).toMatchObject({ who: 'Demo admin', what: 'Member Demo viewer', kind: 'Member: role changed', before: '{"role":"viewer"}', after: '{"role":"analyst"}' });
+      const csv = await call(auditCsv, WS, { url: url('kind=membership') });
+      expect(csv.status).toBe(200);
+      expect(csv.body).not.toMatch(/@aldervane\.test/);
+    }
+    signInAs(ids['admin@aldervane.test']);
+    const admin = await call(auditJson, WS, { url: url('kind=membership:change-role') });
+    expect(admin.body.rows[0]).toMatchObject({ who: 'admin@aldervane.test', what: 'Member Demo viewer' });
+    expect(admin.body.rows[0].after).toContain('viewer@aldervane.test');
+    await k('audit_log').where({ action: 'change-role' }).delete();
+  });
+
+  it('names the truck and case a row is about, from the register when it is still there', async () => {
+    signInAs(ids['analyst@aldervane.test']);
+    const truck = await k('trucks').where({ workspaceId: wsId }).orderBy('unitNumber').first('id', 'unitNumber');
+    const kase = await k('business_cases').where({ workspaceId: wsId }).first('id', 'name');
+    await writeAudit(k, { workspaceId: wsId, userId: ids['analyst@aldervane.test'], action: 'update', entity: 'truck', entityId: truck.id, before: { unitNumber: truck.unitNumber, engineHours: 1 }, after: { unitNumber: truck.unitNumber, engineHours: 2 } });
+    await writeAudit(k, { workspaceId: wsId, userId: ids['analyst@aldervane.test'], action: 'update-plan', entity: 'business_case', entityId: kase.id, before: { name: kase.name, plan: {} }, after: { name: kase.name, plan: { swapsPerMonth: 1 } } });
+    await writeAudit(k, { workspaceId: wsId, userId: ids['analyst@aldervane.test'], action: 'delete', entity: 'truck', entityId: 987654, before: { unitNumber: 'GONE-1' } });
+    const r = await call(auditJson, WS, { url: url('') });
+    expect(r.body.rows.slice(0, 3).map((x: { what: string; kind: string }) => `${x.kind} / ${x.what}`)).toEqual([
+      'Truck: deleted / Truck GONE-1',
+      `Business case: plan changed / Business case “${kase.name}”`,
+      `Truck: changed / Truck ${truck.unitNumber}`,
+    ]);
+    await k('audit_log').whereIn('entityId', [String(truck.id), String(kase.id), '987654']).delete();
+  });
+
+  it('filters by person, kind and date range, within this workspace only', async () => {
+    signInAs(ids['approver@aldervane.test']);
     const all = await call(auditJson, WS, { url: url('') });
     expect(all.status).toBe(200);
     expect(JSON.stringify(all.body)).not.toContain('corrin only');
@@ -67,11 +105,11 @@ describe.each(backends)('audit log and outbox on $name', ({ pg }) => {
     expect(r.response.headers.get('content-type')).toMatch(/text\/csv/);
     expect(r.response.headers.get('content-disposition')).toMatch(/attachment; filename="haulcase-audit-aldervane-north-pit-/);
     const lines = (r.body as string).trim().split('\r\n');
-    expect(lines[0]).toBe('id,at (UTC),who,action,entity,entity id,before,after');
+    expect(lines[0]).toBe('id,at (UTC),who,change,what,action,entity,entity id,before,after');
     expect(lines).toHaveLength(3);
     // An entity id typed as "=1+cmd" comes out as inert text.
-    expect(lines[1]).toContain(",delete,truck,'=1+cmd,");
-    expect(lines[2]).toContain('analyst@aldervane.test,update,truck,T301');
+    expect(lines[1]).toContain(",Truck: deleted,Truck #=1+cmd,delete,truck,'=1+cmd,");
+    expect(lines[2]).toContain('analyst@aldervane.test,Truck: changed,Truck #T301,update,truck,T301');
     // The after cell is JSON starting with "{", so not a formula; a raw "=..." value would be prefixed.
     expect(lines[2]).toContain('"{""notes"":""=HYPERLINK(\\""http://evil.test\\"")""}"');
   });

@@ -135,7 +135,9 @@ describe.each([
   it('migration 0013 moves JSON-held values into the columns, and its down() puts them back', async () => {
     const t = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined });
     try {
-      await t.k.migrate.down({ name: '0013_valuation_fields' }); // 0013 only (later migrations stay)
+      // back to just before 0013 (later migrations first, one at a time)
+      const done = async () => ((await t.k.migrate.list())[0] as Array<string | { name: string }>).map((m) => (typeof m === 'string' ? m : m.name));
+      while ((await done()).includes('0013_valuation_fields')) await t.k.migrate.down();
       const ws = (await t.k('workspaces').where({ slug: WS }).first('id')).id;
       const set = await t.k('assumption_sets').where({ workspaceId: ws, name: 'Base' }).first();
       expect(JSON.parse(set.assumptions)).toMatchObject({ valuation: 'expected', lostMarginShare: 1 });

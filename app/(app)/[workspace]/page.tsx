@@ -2,14 +2,17 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { PageHeader } from '@/components/ui/page-header';
 import { getPageAccess } from '@/lib/auth/page-access';
+import { fetchOverview } from '@/lib/db/queries/overview';
 import { fetchWorkspaceCounts } from '@/lib/db/queries/workspace';
+import { outboxEnabled } from '@/lib/mail/outbox';
+import { ForYou } from './for-you';
 
 export const metadata: Metadata = { title: 'Overview' };
 
 export default async function OverviewPage({ params }: { params: Promise<{ workspace: string }> }) {
   const { workspace } = await params;
   const access = await getPageAccess(workspace);
-  const counts = await fetchWorkspaceCounts(access.workspace.id);
+  const [counts, overview] = await Promise.all([fetchWorkspaceCounts(access.workspace.id), fetchOverview(access)]);
   const tiles = [
     { label: 'Trucks in the register', value: counts.trucks, href: 'fleet' },
     { label: 'Engine types', value: counts.engines, href: 'engines' },
@@ -20,6 +23,7 @@ export default async function OverviewPage({ params }: { params: Promise<{ works
   return (
     <>
       <PageHeader title={access.workspace.name} subtitle={`Reporting in ${access.workspace.currency}. Keep, rebuild or repower, truck by truck.`} />
+      <ForYou slug={workspace} overview={overview} outboxShown={outboxEnabled()} />
       <dl className="grid grid-cols-2 gap-3 md:grid-cols-5" data-testid="overview-counts">
         {tiles.map((t) => (
           <Link key={t.href} href={`/${workspace}/${t.href}`} className="card block p-4 hover:border-muted">

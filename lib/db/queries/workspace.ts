@@ -13,12 +13,12 @@ export async function fetchWorkspaceCounts(workspaceId: number) {
   return { trucks, engines, offers, assumptionSets, cases };
 }
 
-export type MemberRow = { userId: number; email: string; name: string; role: string; since: string };
+export type MemberRow = { userId: number; email: string; name: string; role: string; since: string; version: number };
 
 export async function fetchMembers(workspaceId: number): Promise<MemberRow[]> {
   return db()('memberships as m')
     .join('users as u', 'u.id', 'm.userId')
     .where('m.workspaceId', workspaceId)
     .orderBy('u.email')
-    .select('u.id as userId', 'u.email', 'u.name', 'm.role', 'm.createdAt as since');
+    .select('u.id as userId', 'u.email', 'u.name', 'm.role', 'm.createdAt as since', 'm.version');
 }

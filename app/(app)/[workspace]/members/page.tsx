@@ -7,6 +7,7 @@ import { CAN, ROLE_LABELS, type Role } from '@/lib/auth/roles';
 import { fetchMembers } from '@/lib/db/queries/workspace';
 import { fetchPendingInvitations } from '@/lib/accounts/invitations';
 import { InviteForm } from './invite-form';
+import { MemberRow } from './member-row';
 
 export const metadata: Metadata = { title: 'Members' };
 
@@ -26,20 +27,21 @@ export default async function MembersPage({ params }: { params: Promise<{ worksp
               <th>Name</th>
               <th>Role</th>
               <th>Member since</th>
+              <th><span className="sr-only">Actions</span></th>
             </tr>
           </thead>
           <tbody>
             {members.map((m) => (
-              <tr key={m.userId}>
-                <td className="font-mono text-xs">{m.email}</td>
-                <td>{m.name}</td>
-                <td>{ROLE_LABELS[m.role as Role]}</td>
-                <td>{m.since.slice(0, 10)}</td>
-              </tr>
+              <MemberRow key={`${m.userId}-${m.version}`} workspace={workspace} member={{ ...m, role: m.role as Role }} isSelf={m.userId === access.userId} />
             ))}
           </tbody>
         </table>
       </div>
+      <p className="mt-2 text-xs text-muted">
+        A role change or removal takes effect on the person&apos;s next click: their role is checked on every request, so
+        a removed member&apos;s open session can no longer read or change anything here (their account and other
+        workspaces stay). A workspace always keeps at least one admin.
+      </p>
       <h2 className="mb-2 mt-6 text-sm font-semibold">Invite someone</h2>
       <InviteForm workspace={workspace} />
       {invitations.length ? (
@@ -56,7 +58,8 @@ export default async function MembersPage({ params }: { params: Promise<{ worksp
       ) : null}
       <p className="mt-3 text-xs text-muted">
         Roles: admins manage members and settings; analysts keep the data and build cases; approvers decide on submitted
-        cases; viewers read.
+        cases; viewers read the data and cases. Admins, analysts and approvers can read the audit log; only admins see
+        members&apos; e-mail addresses there.
       </p>
     </>
   );

@@ -15,7 +15,14 @@ export default async function Page({ params }: { params: Promise<{ workspace: st
       <PageHeader title="Settings" subtitle={`Currency ${access.workspace.currency}; display units, how negative amounts are shown and the month the fiscal year starts; approval rule.`} />
       <DisplaySettings slug={workspace} initial={{ units, negativeStyle, fiscalYearStartMonth }} canEdit={access.role === 'admin'} />
       <h2 className="mb-2 mt-6 text-sm font-semibold">Approvals</h2>
-      <ApprovalsSettingForm workspace={workspace} current={approvalsRequired} canEdit={access.role === 'admin'} />
+      {access.role === 'admin' ? (
+        <ApprovalsSettingForm workspace={workspace} current={approvalsRequired} canEdit />
+      ) : (
+        <p className="card p-4 text-sm" data-testid="approvals-setting">
+          A case needs {approvalsRequired} distinct approval{approvalsRequired === 1 ? '' : 's'} (not counting the person who submitted it).
+          <span className="mt-1 block text-xs text-muted">Only a workspace admin can change this.</span>
+        </p>
+      )}
     </>
   );
 }
