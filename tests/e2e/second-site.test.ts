@@ -17,7 +17,8 @@ describe('the second demo site', () => {
     await page.goto(`${baseURL}/${WS}`);
     await page.getByRole('combobox', { name: 'Workspace' }).selectOption({ label: 'Corrin Flats Iron (second demo site)' });
     await page.waitForURL(`${baseURL}/corrin-flats`);
-    expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Corrin Flats Iron (second demo site)');
+    // the page may still show the previous site for a moment after the URL changed
+    await page.getByRole('heading', { level: 1, name: 'Corrin Flats Iron (second demo site)' }).waitFor();
     const counts = await page.getByTestId('overview-counts').locator('dd').allTextContents();
     expect(counts).toEqual(['7', '2', '1', '1', '1']);
     await page.getByTestId('drafts-list').getByRole('link', { name: 'Corrin Flats haul fleet — base' }).waitFor();
@@ -33,6 +34,7 @@ describe('the second demo site', () => {
 
     await page.getByRole('combobox', { name: 'Workspace' }).selectOption({ label: 'Aldervane Copper — North Pit' });
     await page.waitForURL(`${baseURL}/${WS}`);
+    await page.getByRole('heading', { level: 1, name: 'Aldervane Copper — North Pit' }).waitFor();
     expect(await page.getByTestId('overview-counts').locator('dd').first().textContent()).not.toBe('7');
     await signOut(page);
   });
