@@ -76,7 +76,7 @@ const CORRIN = {
   } as Record<string, unknown>,
 };
 
-async function seedSecondSite(trx: Knex.Transaction, ws: number, userId: number, now: string) {
+async function seedSecondSite(trx: Knex.Transaction, ws: number, userId: number, consultantId: number, now: string) {
   const audit = { version: 1, createdBy: userId, updatedBy: userId, createdAt: now, updatedAt: now };
   const engineIds: Record<string, number> = {};
   for (const e of CORRIN.engines) engineIds[e.key] = await insertId(trx, 'engine_types', { workspaceId: ws, ...e, ...audit });
@@ -98,8 +98,9 @@ async function seedSecondSite(trx: Knex.Transaction, ws: number, userId: number,
     plan: '{}',
     status: 'draft',
     version: 1,
-    createdBy: userId,
-    updatedBy: userId,
+    // the consultant (the first site's analyst, a member of both) builds the case
+    createdBy: consultantId,
+    updatedBy: consultantId,
     createdAt: now,
     updatedAt: now,
   });
@@ -163,7 +164,7 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
     await trx('memberships').insert({ workspaceId: other, userId: users.analyst, role: 'analyst', createdAt: now });
     const corrinAdmin = await createUser(trx, 'admin@corrin.test', 'Demo admin (Corrin Flats)', hash);
     await trx('memberships').insert({ workspaceId: other, userId: corrinAdmin, role: 'admin', createdAt: now });
-    await seedSecondSite(trx, other, corrinAdmin, now);
+    await seedSecondSite(trx, other, corrinAdmin, users.analyst, now);
 
     const audit = { version: 1, createdBy: users.admin, updatedBy: users.admin, createdAt: now, updatedAt: now };
     const engineIds: Record<string, number> = {};

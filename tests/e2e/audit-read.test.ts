@@ -30,6 +30,8 @@ describe('reading a change in the audit log', () => {
     await page.getByRole('link', { name: 'Audit log' }).click();
     await page.waitForURL(`${baseURL}/${WS}/audit`);
     const kind = page.getByLabel('Kind');
+    // the page may still show its loading state after the URL changed: wait for the filter's options
+    await kind.locator('option', { hasText: 'Truck: changed' }).waitFor({ state: 'attached' });
     expect(await kind.locator('option').allTextContents()).toContain('Truck: changed');
     expect((await kind.textContent()) ?? '').not.toContain('business_case');
     await kind.selectOption({ label: 'Truck: changed' });

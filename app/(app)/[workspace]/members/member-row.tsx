@@ -38,7 +38,11 @@ export function MemberRow({ workspace, member, isSelf }: { workspace: string; me
   }
 
   const saveRole = () => act(() => sendJson(url, 'PATCH', { role, version: member.version }), `${who} is now ${ROLE_LABELS[role].toLowerCase()}.`);
-  const remove = () => act(() => sendJson(`${url}?version=${member.version}`, 'DELETE'), `${who} was removed.`);
+  const remove = () => act(async () => {
+    await sendJson(`${url}?version=${member.version}`, 'DELETE');
+    // you removed yourself: this workspace is no longer yours to see
+    if (isSelf) window.location.assign('/');
+  }, `${who} was removed.`);
 
   return (
     <tr data-testid={`member-${member.email}`} className="align-top">
