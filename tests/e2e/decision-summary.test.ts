@@ -20,6 +20,7 @@ describe('the decision summary and the frozen record', () => {
   let baseURL: string;
   let close: () => Promise<void>;
   let caseId: number;
+  let runId = '';
   const figures: Record<string, { capital: string; gain: string }> = {};
 
   beforeAll(async () => {
@@ -54,6 +55,7 @@ describe('the decision summary and the frozen record', () => {
     expect(Number(chosen)).toBeGreaterThan(0);
     expect(await page.getByTestId('truck-table').locator('tr[data-in-proposal="yes"]').count()).toBe(Number(chosen));
     expect(await text(page, 'ds-no-run')).toContain('No Monte Carlo run is pinned');
+    expect((await page.getByTestId('decision-summary').textContent()) ?? '').not.toContain('Submitted without');
     expect(await page.getByTestId('ds-drivers').locator('tbody tr').count()).toBe(3);
     await screenshot(page, 'decision-summary-case-page');
 
@@ -64,6 +66,23 @@ describe('the decision summary and the frozen record', () => {
     expect(await page.getByTestId('ranking-table').locator('tr[data-in-proposal="yes"]').count()).toBe(Number(chosen));
     expect(await page.getByTestId('capital-plan').textContent()).toContain('FY2027 (now)');
     await screenshot(page, 'decision-summary-plan-page');
+
+    // a Monte Carlo run on the proposal, pinned before submission (the risk page's own flow is tested in risk.test.ts)
+    const started = await context.request.post(`${baseURL}/api/workspaces/${WS}/cases/${caseId}/monte-carlo`, {
+      headers: apiHeaders(baseURL),
+      data: { iterations: 200, seed: 2027, sampleFailures: true, distributions: [{ driver: 'fuelPrice', distribution: { kind: 'uniform', min: 0.9, max: 1.3 } }], measure: 'proposal' },
+    });
+    expect(started.status()).toBe(202);
+    runId = (await started.json()).run.id;
+    let status = 'running';
+    for (let i = 0; i < 240 && status === 'running'; i++) {
+      await page.waitForTimeout(250);
+      status = (await (await context.request.get(`${baseURL}/api/workspaces/${WS}/cases/${caseId}/monte-carlo/${runId}`)).json()).run.status;
+    }
+    expect(status).toBe('done');
+    const version = (await (await context.request.get(`${baseURL}/api/workspaces/${WS}/cases/${caseId}`)).json()).case.version;
+    const pinned = await context.request.put(`${baseURL}/api/workspaces/${WS}/cases/${caseId}/pinned-run`, { headers: apiHeaders(baseURL), data: { runId, version } });
+    expect(pinned.status()).toBe(200);
 
     // submitted: the summary is the snapshot's
     await page.goto(`${baseURL}/${WS}/cases/${caseId}`);
@@ -85,7 +104,12 @@ describe('the decision summary and the frozen record', () => {
     figures.approval = { capital: await text(page, 'ds-total-capital'), gain: await text(page, 'ds-gain') };
     expect(figures.approval).toEqual(figures.summary);
     expect(await page.getByTestId('ds-capital-FY2027').count()).toBe(1);
-    expect(await text(page, 'ds-no-run')).toBe('Submitted without a pinned Monte Carlo run.');
+    // the run pinned before submission, named with its settings, seed, author and time
+    const run = await text(page, 'ds-risk-run');
+    expect(run).toContain(`Monte Carlo run ${runId.slice(0, 8)}`);
+    expect(run).toContain('200 iterations, seed 2027');
+    expect(run).toContain('by Demo analyst');
+    expect(await text(page, 'ds-prob-loss')).toMatch(/^\d+\.\d %$/);
     for (const id of ['ds-irr', 'ds-mirr', 'ds-payback', 'ds-discounted-payback', 'ds-fuel', 'ds-co2']) expect(await text(page, id)).not.toBe('');
     await screenshot(page, 'decision-summary-approval-submitted');
 
@@ -107,14 +131,16 @@ describe('the decision summary and the frozen record', () => {
     expect(record.format).toBe('frozen-record/1');
     expect(record.proposal.settings.budgets).toEqual({ '0': 3_000_000, '1': 12_000_000, '2': 10_000_000 });
     expect(record.proposal.chosenTrucks).toHaveLength(Number(((await text(page, 'ds-chosen')).match(/\((\d+)\)/) ?? [])[1]));
-    expect(record.pinnedRun).toBeNull();
+    expect(record.pinnedRun.id).toBe(runId);
+    expect(record.pinnedRun.seed).toBe(2027);
+    expect(record.summary.risk.runId).toBe(runId);
 
     // approved: the summary comes from the frozen record, with the same figures
     await page.reload();
     await summary.waitFor();
     expect(await summary.getAttribute('data-source')).toBe('frozen');
     expect({ capital: await text(page, 'ds-total-capital'), gain: await text(page, 'ds-gain') }).toEqual(figures.summary);
-    expect(await text(page, 'ds-no-run')).toBe('Approved without a pinned Monte Carlo run.');
+    expect(await text(page, 'ds-risk-run')).toContain(`Monte Carlo run ${runId.slice(0, 8)}`);
     await screenshot(page, 'decision-summary-approval-approved');
   });
 
