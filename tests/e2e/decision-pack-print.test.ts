@@ -74,6 +74,15 @@ describe('decision pack and print', () => {
     for (const [label, amount] of fy) expect(text).toMatch(new RegExp(`${label}\\s+\\S+( limit)?\\s+${amount.replace(/[()]/g, '\\$&')}`));
     expect(text).toMatch(/Engine swaps, electrical work and\s+load testing/);
     expect(firstPageInkShare(pdf)).toBeGreaterThan(0.01);
+    // the plan and approval pages quote the same proposal
+    await page.goto(`${baseURL}/${WS}/cases/${caseId}/plan`);
+    await page.getByTestId('plan-proposal-gain').waitFor();
+    expect((await page.getByTestId('plan-proposal-gain').innerText()).trim()).toBe(gain);
+    expect((await page.getByTestId('plan-proposal-capital').innerText()).trim()).toBe(capital);
+    await page.goto(`${baseURL}/${WS}/approvals/${caseId}`);
+    await page.getByTestId('ds-gain').waitFor();
+    expect((await page.getByTestId('ds-gain').innerText()).trim()).toBe(gain);
+    expect((await page.getByTestId('ds-total-capital').innerText()).trim()).toBe(capital);
     fs.mkdirSync('test-results/screens', { recursive: true });
     fs.writeFileSync('test-results/screens/decision-pack.pdf', pdf);
   });
