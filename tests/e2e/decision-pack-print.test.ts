@@ -110,6 +110,13 @@ describe('decision pack and print', () => {
     expect(new Set(rows).size).toBe(28);
     // the truck table's column headings (sort buttons on screen) are printed
     expect(flat).toMatch(/Truck\s.*Best\s/);
+    // printed at twice the size the truck table runs over a page break: its heading row is printed again on each page
+    await page.emulateMedia({ media: 'print' });
+    const portrait = await page.pdf({ preferCSSPageSize: true, scale: 2, printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    const pagesWithRows = pdfToText(portrait, false).split('\f').filter((p) => /Repower \(proposed\)/.test(p)); // the truck table's policy cells
+    expect(pagesWithRows.length).toBeGreaterThan(1);
+    for (const p of pagesWithRows) expect(squash(p)).toMatch(/Fails before overhaul, rebuild NPV keep \(USD k\)/);
   });
 
   it('the approval page offers the decision pack and prints without its buttons', async () => {
