@@ -43,11 +43,12 @@ export function DecisionSummaryView({ summary: s, negativeStyle }: { summary: De
       <div>
         <h2 id="decision-summary-heading" className="text-base font-semibold">Decision summary: the proposal</h2>
         <p className="text-xs text-muted" data-testid="decision-source">
+          {s.recordVerifies === false ? <strong className="text-loss" data-testid="ds-not-verified">The frozen record does not verify: these figures may have been altered since approval. </strong> : null}
           {SOURCE_NOTE[s.source]} {s.valuation === 'expected' ? 'Expected values over engine failures.' : 'Median failure path.'} Fiscal years start in {fyStart}; amounts in {cur} k.
         </p>
       </div>
 
-      <div className="grid gap-3 md:grid-cols-2 xl:grid-cols-4">
+      <div className="grid gap-3 md:grid-cols-2 2xl:grid-cols-4">
         <div className="rounded border border-rule p-3">
           <h3 className="text-xs font-medium text-muted">Capital asked by fiscal year ({cur} k)</h3>
           <table className="mt-1 w-full text-sm" data-testid="ds-capital">
@@ -56,9 +57,9 @@ export function DecisionSummaryView({ summary: s, negativeStyle }: { summary: De
               {s.capitalByFiscalYear.length === 0 ? <tr><td colSpan={3} className="text-muted">No repower capital asked.</td></tr> : null}
               {s.capitalByFiscalYear.map((r) => (
                 <tr key={r.fiscalYear} data-testid={`ds-capital-${r.fiscalYear}`} title={r.trucks.join(', ')}>
-                  <th scope="row" className="text-left font-normal">{r.fiscalYear} <span className="text-xs text-muted">({r.trucks.length} truck{r.trucks.length === 1 ? '' : 's'})</span></th>
-                  <td className="num text-right" data-testid="ds-capital-amount">{k(r.capital)}</td>
-                  <td className="num text-right text-muted">{r.budget === null ? 'no limit' : k(r.budget)}</td>
+                  <th scope="row" className="whitespace-nowrap text-left font-normal">{r.fiscalYear} <span className="text-xs text-muted">({r.trucks.length} truck{r.trucks.length === 1 ? '' : 's'})</span></th>
+                  <td className="num pl-2 text-right" data-testid="ds-capital-amount">{k(r.capital)}</td>
+                  <td className="num pl-2 text-right text-muted">{r.budget === null ? 'no limit' : k(r.budget)}</td>
                 </tr>
               ))}
               <tr className="border-t border-rule font-semibold"><th scope="row" className="text-left">Total</th><td className="num text-right" data-testid="ds-total-capital">{k(s.totalCapital)}</td><td /></tr>
@@ -123,10 +124,10 @@ export function DecisionSummaryView({ summary: s, negativeStyle }: { summary: De
             <p className="text-sm text-muted" data-testid="ds-left-out-none">No paying repower is left out.</p>
           ) : (
             <table className="data-table mt-1" data-testid="ds-left-out">
-              <thead><tr><th>Truck</th><th className="n">Capital</th><th className="n">Gain forgone</th><th>Why</th></tr></thead>
+              <thead><tr><th>Truck</th><th className="n">Capital</th><th className="n">Gain forgone</th><th>Why</th><th className="n">Extra budget to add it</th></tr></thead>
               <tbody>
                 {s.leftOut.map((l) => (
-                  <tr key={l.truckId}><td className="font-mono text-xs">{l.truckId}</td><td className="n">{k(l.capital)}</td><td className="n">{k(l.gainForgone)}</td><td className="text-xs">{l.reason}</td></tr>
+                  <tr key={l.truckId}><td className="whitespace-nowrap font-mono text-xs">{l.truckId}</td><td className="n">{k(l.capital)}</td><td className="n">{k(l.gainForgone)}</td><td className="text-xs">{l.reason}</td><td className="n">{k(l.extraBudget)}</td></tr>
                 ))}
               </tbody>
             </table>

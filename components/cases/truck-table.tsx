@@ -89,15 +89,6 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
         filterFn: 'includesString',
         cell: (i) => <Link className="font-mono text-xs text-accent hover:underline" href={`/${slug}/cases/${data.case.id}/trucks/${encodeURIComponent(i.getValue())}`}>{i.getValue()}</Link>,
       }),
-      col.accessor('proposal', {
-        header: 'In the proposal',
-        cell: (i) =>
-          i.getValue() === 'repower' ? (
-            <span className="rounded bg-accent/10 px-1.5 py-0.5 text-xs font-semibold text-accent" data-testid="in-proposal">Repower (proposed)</span>
-          ) : (
-            <span className="text-xs text-muted">{POLICY_LABEL[i.getValue()]}</span>
-          ),
-      }),
       col.accessor('best', {
         header: 'Best',
         filterFn: 'equalsString',
@@ -139,6 +130,15 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
       col.accessor('fuelLph', { header: 'Fuel, best (L/h)', cell: (i) => formatNumber(i.getValue(), 1), meta: { n: true } }),
       col.accessor('costPerHour', { header: `Cost, best (${cur}/h)`, cell: (i) => formatNumber(i.getValue(), 2, neg), meta: { n: true } }),
       col.accessor('costPerTonne', { header: `Cost, best (${cur}/t)`, cell: (i) => formatNumber(i.getValue(), 3, neg), meta: { n: true } }),
+      col.accessor('proposal', {
+        header: 'In the proposal',
+        cell: (i) =>
+          i.getValue() === 'repower' ? (
+            <span className="rounded bg-accent/10 px-1.5 py-0.5 text-xs font-semibold text-accent" data-testid="in-proposal">Repower (proposed)</span>
+          ) : (
+            <span className="text-xs text-muted">{POLICY_LABEL[i.getValue()]}</span>
+          ),
+      }),
     ],
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [cur, neg, slug, data.case.id],

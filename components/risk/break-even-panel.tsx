@@ -4,21 +4,31 @@ import { driverValue, money, moneyScale } from './format';
 import type { BreakEven, DriverView, MetricInput } from './types';
 import { usePost } from './use-post';
 
-/** For each driver, where the repower stops paying (ΔNPV = 0), or a plain "none within the range". */
+/**
+ * For each driver, where the repower (or the proposal) stops paying (ΔNPV = 0), or a plain "none within the range".
+ * The best mix has no break-even of its own (it is not a Δ), so it shows the proposal's.
+ */
 export function BreakEvenPanel(props: { base: string; metric: MetricInput; drivers: DriverView[]; currency: string; negative: NegativeStyle }) {
   const fleet = props.metric.kind !== 'truck-delta';
-  const metric = props.metric.kind === 'fleet-best' ? ({ kind: 'fleet-delta' } as const) : props.metric;
+  const metric = props.metric.kind === 'fleet-best' ? ({ kind: 'proposal' } as const) : props.metric;
+  const subject = metric.kind === 'proposal' ? 'the proposal' : 'the repower';
+  const what =
+    metric.kind === 'proposal'
+      ? 'ΔNPV of the proposal against rebuilding every engine'
+      : metric.kind === 'fleet-delta'
+        ? 'ΔNPV of repowering every truck against rebuilding (a comparison)'
+        : 'ΔNPV of repower against rebuild';
   const { data, error } = usePost<{ baseValue: number; rows: BreakEven[] }>(`${props.base}/break-even`, { metric });
   const byId = new Map(props.drivers.map((d) => [d.id, d]));
   const pays = data ? data.baseValue > 0 : true;
   const rows = data ? [...data.rows].sort((a, b) => Number(a.kind === 'none') - Number(b.kind === 'none')) : [];
   return (
     <section aria-labelledby="break-even-title" className="card p-4">
-      <h2 id="break-even-title" className="text-base font-semibold">Where the repower stops paying</h2>
+      <h2 id="break-even-title" className="text-base font-semibold">Where {subject} stops paying</h2>
       <p className="mb-2 text-sm text-muted">
-        The value of each driver, the others as in the case, at which ΔNPV of repower against rebuild
-        {fleet ? ' (every truck)' : ''} is zero. Today it is {data ? `${money(data.baseValue, fleet, props.negative)} ${props.currency} ${moneyScale(fleet).suffix}` : '…'}
-        {data ? (pays ? ': the repower pays.' : ': the repower does not pay.') : ''}
+        The value of each driver, the others as in the case, at which {what} is zero. Today it is{' '}
+        {data ? `${money(data.baseValue, fleet, props.negative)} ${props.currency} ${moneyScale(fleet).suffix}` : '…'}
+        {data ? (pays ? `: ${subject} pays.` : `: ${subject} does not pay.`) : ''}
       </p>
       {error ? <p role="alert" className="text-sm text-loss">{error.message}</p> : null}
       {data ? (
@@ -47,7 +57,7 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
                     <td className="n whitespace-nowrap font-medium">{r.kind === 'none' ? '—' : driverValue(d, r.value)}</td>
                     <td className="n whitespace-nowrap">{change === null ? '' : `${change > 0 ? '+' : ''}${(change * 100).toFixed(1)} %`}</td>
                     <td className="text-xs text-muted">{driverValue(d, r.rangeLow)} to {driverValue(d, r.rangeHigh)}</td>
-                    <td className="text-xs">{reading(r)}</td>
+                    <td className="text-xs">{reading(r, subject)}</td>
                   </tr>
                 );
               })}
@@ -59,10 +69,10 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
   );
 }
 
-function reading(r: BreakEven): string {
-  if (r.kind === 'none') return r.signThroughout && r.signThroughout > 0 ? 'None within the range: the repower pays throughout.' : 'None within the range: the repower loses throughout.';
+function reading(r: BreakEven, subject: string): string {
+  if (r.kind === 'none') return r.signThroughout && r.signThroughout > 0 ? `None within the range: ${subject} pays throughout.` : `None within the range: ${subject} loses throughout.`;
   const side = r.value !== null && r.value > r.base ? 'above' : 'below';
   const turns = r.baseMetric > 0 ? 'stops paying' : 'starts paying';
-  if (r.kind === 'step') return `The answer jumps across zero here (an overhaul or failure moves in or out of the horizon); the repower ${turns} ${side} this value.`;
-  return `The repower ${turns} ${side} this value.`;
+  if (r.kind === 'step') return `The answer jumps across zero here (an overhaul or failure moves in or out of the horizon); ${subject} ${turns} ${side} this value.`;
+  return `${subject[0].toUpperCase()}${subject.slice(1)} ${turns} ${side} this value.`;
 }

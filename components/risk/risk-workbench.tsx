@@ -8,14 +8,21 @@ import { MonteCarloPanel } from './monte-carlo-panel';
 import { SpiderPanel } from './spider-chart';
 import { TornadoPanel } from './tornado-panel';
 import { TwoWayPanel } from './two-way-panel';
+import { MEASURE_LABELS, type FleetMeasure } from '@/lib/risk/measures';
 import type { DriversAnswer, MetricInput, TornadoRow } from './types';
 
-type Choice = 'fleet-delta' | 'fleet-best' | `truck:${string}`;
+/** A fleet measure, or one truck's ΔNPV repower vs rebuild. */
+export type Choice = FleetMeasure | `truck:${string}`;
 
-/** The risk page's client side: one metric chosen at the top drives every panel below. */
+/**
+ * The risk page's client side: one measure chosen at the top drives every
+ * panel below; a fleet analysis reads the proposal by default, repowering
+ * every truck and the best mix are comparisons. Opening a Monte Carlo run
+ * sets the measure to the one that run was read on.
+ */
 export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: { slug: string; caseId: number; initialTruck: string | null; negative: NegativeStyle; canRun: boolean }) {
   const base = `/api/workspaces/${slug}/cases/${caseId}`;
-  const [choice, setChoice] = useState<Choice>(initialTruck ? `truck:${initialTruck}` : 'fleet-delta');
+  const [choice, setChoice] = useState<Choice>(initialTruck ? `truck:${initialTruck}` : 'proposal');
   const truckId = choice.startsWith('truck:') ? choice.slice(6) : null;
   const { data: fleetDrivers, error } = useSWR<DriversAnswer, ApiError>(`${base}/drivers`, fetcher);
   const { data: truckDrivers } = useSWR<DriversAnswer, ApiError>(truckId ? `${base}/drivers?truck=${encodeURIComponent(truckId)}` : null, fetcher);
@@ -30,8 +37,10 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
 
   const answer = truckId ? truckDrivers! : fleetDrivers;
   const currency = answer.case.currency;
-  const metric: MetricInput = truckId ? { kind: 'truck-delta', truckId } : choice === 'fleet-best' ? { kind: 'fleet-best' } : { kind: 'fleet-delta' };
-  const metricLabel = truckId ? `ΔNPV repower vs rebuild, truck ${truckId}` : choice === 'fleet-best' ? 'Fleet NPV, each truck on its best policy' : 'ΔNPV repower vs rebuild, every truck';
+  const fleetChoice = truckId ? null : (choice as FleetMeasure);
+  const metric: MetricInput = truckId ? { kind: 'truck-delta', truckId } : { kind: fleetChoice! };
+  const metricLabel = truckId ? `ΔNPV repower vs rebuild, truck ${truckId}` : MEASURE_LABELS[fleetChoice!];
+  const p = fleetDrivers.proposal;
   const key = JSON.stringify(metric);
   const firstOffer = answer.drivers.find((d) => d.id.startsWith('modulePrice@'))?.id ?? 'discountRate';
 
@@ -41,8 +50,9 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
         <label className="text-sm">
           <span className="label">Measure</span>
           <select className="field w-96" value={choice} onChange={(e) => { setChoice(e.target.value as Choice); setTop([]); }} aria-label="Measure">
-            <option value="fleet-delta">Fleet: ΔNPV of repowering every truck vs rebuilding</option>
-            <option value="fleet-best">Fleet: NPV with each truck on its best policy</option>
+            <option value="proposal">Fleet: {MEASURE_LABELS.proposal}</option>
+            <option value="fleet-delta">{MEASURE_LABELS['fleet-delta']}</option>
+            <option value="fleet-best">{MEASURE_LABELS['fleet-best']}</option>
             {fleetDrivers.trucks.map((t) => (
               <option key={t.id} value={`truck:${t.id}`}>Truck {t.id}: ΔNPV repower vs rebuild</option>
             ))}
@@ -50,11 +60,29 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
         </label>
         <p className="pb-1.5 text-xs text-muted">Figures come from the case as stored{answer.case.status === 'approved' ? ' (the approved, frozen numbers)' : ''}; every point is a full re-run of the engine.</p>
       </div>
+      <p className="-mt-2 text-xs text-muted" data-testid="risk-proposal">
+        The proposal is the case&rsquo;s saved plan: it repowers {plural(p.repower, 'truck')} the plan chooses; the other{' '}
+        {p.keep + p.rebuild === 1 ? 'truck follows' : `${p.keep + p.rebuild} trucks follow`} the better of keep ({p.keep}) and rebuild ({p.rebuild}). Each truck&rsquo;s policy is held fixed while the inputs vary.
+      </p>
       <TornadoPanel key={`t${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} onRows={onRows} />
       <SpiderPanel key={`s${key}`} base={base} metric={metric} metricLabel={metricLabel} driverIds={top} drivers={answer.drivers} currency={currency} negative={negative} />
       <BreakEvenPanel key={`b${key}`} base={base} metric={metric} drivers={answer.drivers} currency={currency} negative={negative} />
       <TwoWayPanel key={`w${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} initial={['fuelPrice', firstOffer]} />
-      <MonteCarloPanel base={base} drivers={fleetDrivers.drivers} truckId={truckId} currency={currency} negative={negative} canRun={canRun} headline={fleetDrivers.headline} />
+      <MonteCarloPanel
+        base={base}
+        drivers={fleetDrivers.drivers}
+        choice={choice}
+        onChoice={(c) => { if (c !== choice) { setChoice(c); setTop([]); } }}
+        currency={currency}
+        negative={negative}
+        canRun={canRun}
+        headline={fleetDrivers.headline}
+        initialTruck={initialTruck}
+      />
     </div>
   );
+}
+
+function plural(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? '' : 's'}`;
 }

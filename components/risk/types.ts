@@ -21,6 +21,8 @@ export interface Headline {
   /** Σ over trucks of ΔNPV repower vs rebuild */
   fleetDeltaNpv: number;
   fleetBestNpv: number;
+  /** Σ over trucks of npv(the proposal's policy) − npv(rebuild) */
+  proposalDeltaNpv: number;
   /** ΔNPV repower vs rebuild by truck */
   trucks: Record<string, number>;
 }
@@ -31,17 +33,26 @@ export interface DriversAnswer {
   trucks: { id: string; engineId: string; repowerOfferId: string }[];
   truckId: string | null;
   drivers: DriverView[];
+  proposal: { policies: Record<string, 'keep' | 'rebuild' | 'repower'>; repower: number; keep: number; rebuild: number };
 }
 
 export interface RunView {
   id: string;
+  author: { name: string; email: string } | null;
   status: 'running' | 'done' | 'cancelled' | 'timed-out' | 'failed';
   iterations: number;
   done: number;
   createdAt: string;
   finishedAt: string | null;
   error: string | null;
-  /** what the run was asked: failures sampled or not, the drivers drawn */
-  spec?: Pick<MonteCarloRequest, 'sampleFailures' | 'distributions' | 'seed'>;
+  /** what the run was asked: iterations, seed, failures sampled or not, the drivers drawn, the measure it is read on (older runs name none) */
+  spec?: Omit<MonteCarloRequest, 'measure'> & { measure?: MonteCarloRequest['measure'] };
   result: MonteCarloResult | null;
+}
+
+export interface RunsAnswer {
+  runs: Omit<RunView, 'result'>[];
+  pinnedRunId: string | null;
+  caseVersion: number;
+  caseStatus: string;
 }

@@ -31,9 +31,7 @@
  */
 import { comparePolicies } from '@/lib/engine/results';
 import { buildYearTables, resolveAssumptions } from '@/lib/engine/setup';
-import { evaluateNpvs } from '@/lib/engine/evaluate';
-import { cloneCase, driverLabel, getDriver, listDrivers, setDriver, tornado, DRIVER_CATALOGUE, type DriverRef, type Evaluator, type Override } from '@/lib/engine/sensitivity';
-import type { CaseNpvs } from '@/lib/engine/npv-only';
+import { driverLabel, getDriver, listDrivers, makeEvaluator, tornado, DRIVER_CATALOGUE, type DriverRef, type Evaluator } from '@/lib/engine/sensitivity';
 import type { CaseResult, PolicyKey } from '@/lib/engine/types';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { fiscalLabelOfPeriod, type CapitalPlan } from '@/lib/plan';
@@ -102,7 +100,7 @@ export interface DecisionSummary {
   co2SavedTonnesPerYear: number;
   risk: null | DecisionRisk;
   /** left out of the proposal by a budget: the gain each forgoes */
-  leftOut: { truckId: string; capital: number; gainForgone: number; reason: string }[];
+  leftOut: { truckId: string; capital: number; gainForgone: number; reason: string; extraBudget: number; fiscalYear: string }[];
   /** trucks whose repower does not pay against their better other policy (never proposed) */
   notWorthIt: string[];
   /** three largest swings of the proposal's gain */
@@ -110,6 +108,8 @@ export interface DecisionSummary {
   chosenTrucks: string[];
   /** the policy of every truck in the proposal */
   policies: ProposalPolicies;
+  /** read from a frozen record: whether its hash still verifies (absent otherwise) */
+  recordVerifies?: boolean;
 }
 
 export interface DecisionSummaryInput {
@@ -197,7 +197,10 @@ export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSumma
       truckId: l.truckId,
       capital: l.capital,
       gainForgone: l.gain,
-      reason: `over the ${label} budget: adding it needs ${Math.round(l.extraBudget).toLocaleString('en-US')} ${input.currency} more`,
+      reason: `over the ${label} budget`,
+      /** what adding it to the chosen set would take on top of that budget */
+      extraBudget: l.extraBudget,
+      fiscalYear: label,
     }));
   });
   leftOut.sort((x, y) => y.gainForgone - x.gainForgone || x.truckId.localeCompare(y.truckId));
@@ -232,34 +235,13 @@ export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSumma
   };
 }
 
-/** Σ_trucks npv(policy) − npv(rebuild) read from the lean evaluation: the proposal's gain, policies held fixed. */
-export function readProposalGain(n: CaseNpvs, policies: ProposalPolicies): number {
-  let sum = 0;
-  for (let i = 0; i < n.truckIds.length; i++) {
-    const p = policies[n.truckIds[i]] ?? 'rebuild';
-    sum += n[p][i] - n.rebuild[i];
-  }
-  return sum;
-}
-
 /**
- * An evaluator of the proposal's gain (the sensitivity module's `Evaluator`
- * shape, so `tornado` runs on it): the case re-run with the drivers changed,
- * each truck kept on its policy in the proposal.
+ * An evaluator of the proposal's gain: the engine's `proposal` metric (each
+ * truck kept on its policy in the proposal while the drivers change), so the
+ * summary's drivers and the risk pages measure the same thing.
  */
 export function makeProposalEvaluator(validCase: CaseFileInput, policies: ProposalPolicies): Evaluator {
-  const base = validCase;
-  const work = cloneCase(base);
-  const at = (overrides: readonly Override[]): number => {
-    const saved = overrides.map(([d]) => getDriver(work, d));
-    for (const [d, v] of overrides) setDriver(work, base, d, v);
-    try {
-      return readProposalGain(evaluateNpvs(work, { trusted: true }), policies);
-    } finally {
-      for (let i = overrides.length - 1; i >= 0; i--) setDriver(work, base, overrides[i][0], saved[i]);
-    }
-  };
-  return { base, at, baseValue: at([]) };
+  return makeEvaluator(validCase, { kind: 'proposal', policies });
 }
 
 /**

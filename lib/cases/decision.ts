@@ -12,7 +12,7 @@ import { evaluateCaseDetailed, type CaseFile, type CaseResult } from '@/lib/engi
 import { fetchPinnedRun, type PinnedRun } from '@/lib/risk/runs';
 import { db } from '@/lib/db';
 import { notFound } from '@/lib/http';
-import { readFrozenRecord } from '@/lib/approvals/canonical';
+import { readFrozenRecord, verifyFrozen } from '@/lib/approvals/canonical';
 import { buildDecisionSummary, proposalTopDrivers, type DecisionRisk, type DecisionSummary } from './decision-summary';
 import { loadValidCase } from './evaluate';
 import { buildProposal, timingFromDetails, type PlanSettingsLike, type Proposal } from './proposal';
@@ -70,10 +70,10 @@ export function decideFigures(file: CaseFile, ctx: DecisionContext): { result: C
 
 /** The decision summary to show for a case (see the module comment). */
 export async function fetchDecisionSummary(access: Access, caseId: number, k: Knex = db()): Promise<DecisionSummary> {
-  const raw = await k('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('frozenRecord', 'status');
+  const raw = await k('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('frozenRecord', 'frozenCase', 'frozenResult', 'frozenHash', 'status');
   if (!raw) throw notFound('No such business case in this workspace.');
   const frozen = readFrozenRecord(raw.frozenRecord);
-  if (frozen) return { ...frozen.summary, status: raw.status, source: 'frozen' };
+  if (frozen) return { ...frozen.summary, status: raw.status, source: 'frozen', recordVerifies: verifyFrozen(raw) };
   const { row, file } = await loadValidCase(access, caseId);
   const source: DecisionSummary['source'] = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';
   return decideFigures(file, {

@@ -5,7 +5,8 @@ import 'server-only';
  * case page builds it from stored data (lib/cases/evaluate.ts); validated.
  */
 import type { Access } from '@/lib/auth/access';
-import { loadValidCase } from '@/lib/cases/evaluate';
+import { evaluateStoredCase, loadValidCase } from '@/lib/cases/evaluate';
+import { proposalPolicies, type ProposalPolicies } from '@/lib/cases/proposal';
 import { db } from '@/lib/db';
 import { invalid, notFound } from '@/lib/http';
 import { validateCase, type CaseFile } from '@/lib/validation/case';
@@ -35,4 +36,14 @@ export async function loadRiskCase(access: Access, caseId: number): Promise<Risk
   const v = validateCase(JSON.parse(row.frozenCase));
   if (!v.ok) throw invalid(v.problems.map((p) => ({ path: `case.${p.path}`, message: p.message })), 'The frozen case is not valid.');
   return { id: row.id, name: row.name, status: row.status, caseFile: v.value };
+}
+
+/**
+ * The case's proposal (lib/cases/proposal.ts): the trucks its saved plan
+ * chooses are repowered, every other truck follows the better of keep and
+ * rebuild, from the same case the page evaluates (frozen, submitted or live).
+ */
+export async function loadProposal(access: Access, risk: RiskCase): Promise<ProposalPolicies> {
+  const evaluated = await evaluateStoredCase(access, risk.id);
+  return proposalPolicies(evaluated.result, evaluated.plan);
 }

@@ -264,6 +264,7 @@ export function runInWorkers(
           ask(worker, {
             type: 'summarise', truckIds, npvs: out, length: at,
             trucksFrom: Math.floor((trucks * w) / count), trucksTo: Math.floor((trucks * (w + 1)) / count), fleet: w === 0,
+            proposal: spec.proposal ?? null,
           }),
         ),
       );

@@ -19,6 +19,7 @@ import {
   type DriverRef,
   type Metric,
 } from '@/lib/engine/sensitivity';
+import type { PolicyKey } from '@/lib/engine/types';
 import type { CaseFile } from '@/lib/validation/case';
 import type { MetricInput } from '@/lib/validation/risk';
 import type { z } from 'zod';
@@ -41,9 +42,21 @@ function checkInRange(d: DriverRef, value: number, path: string, problems: Probl
   if (value < min || value > max) problems.push({ path, message: `must be between ${min} and ${max} for ${driverLabel(d)}` });
 }
 
-function checkMetric(c: CaseFile, m: MetricInput, problems: Problem[]): Metric {
+/** The policy of each truck in the case's proposal (lib/cases/proposal.ts), given to the `proposal` metric. */
+export type Proposal = Readonly<Record<string, PolicyKey>>;
+
+/** Does the request's metric need the case's proposal (so the route evaluates the plan first)? */
+export function needsProposal(m: MetricInput): boolean {
+  return m.kind === 'proposal';
+}
+
+function checkMetric(c: CaseFile, m: MetricInput, problems: Problem[], proposal: Proposal | null): Metric {
   if (m.kind === 'truck-delta' && !c.trucks.some((t) => t.id === m.truckId)) {
     problems.push({ path: 'metric.truckId', message: `no truck "${m.truckId}" in this case` });
+  }
+  if (m.kind === 'proposal') {
+    if (!proposal) throw new Error('the proposal metric needs the case\'s proposal'); // a route that forgot needsProposal
+    return { kind: 'proposal', policies: proposal };
   }
   return m;
 }
@@ -69,9 +82,9 @@ export function describeDrivers(c: CaseFile, truckId?: string) {
   }));
 }
 
-export function runTornado(c: CaseFile, body: z.infer<typeof tornadoRequestSchema>) {
+export function runTornado(c: CaseFile, proposal: Proposal | null, body: z.infer<typeof tornadoRequestSchema>) {
   const problems: Problem[] = [];
-  const metric = checkMetric(c, body.metric, problems);
+  const metric = checkMetric(c, body.metric, problems, proposal);
   const drivers = driversOf(c, metric, body.drivers, problems);
   for (const [id, r] of Object.entries(body.ranges)) {
     const d = resolveDriver(c, id, `ranges.${id}`, problems);
@@ -85,18 +98,18 @@ export function runTornado(c: CaseFile, body: z.infer<typeof tornadoRequestSchem
   return { metric, baseValue: ev.baseValue, rows: tornado(ev, drivers, body.ranges, body.relative) };
 }
 
-export function runSpider(c: CaseFile, body: z.infer<typeof spiderRequestSchema>) {
+export function runSpider(c: CaseFile, proposal: Proposal | null, body: z.infer<typeof spiderRequestSchema>) {
   const problems: Problem[] = [];
-  const metric = checkMetric(c, body.metric, problems);
+  const metric = checkMetric(c, body.metric, problems, proposal);
   const drivers = driversOf(c, metric, body.drivers, problems);
   done(problems);
   const ev = makeEvaluator(c, metric);
   return { metric, baseValue: ev.baseValue, lines: spider(ev, drivers, body.changes) };
 }
 
-export function runBreakEven(c: CaseFile, body: z.infer<typeof breakEvenRequestSchema>) {
+export function runBreakEven(c: CaseFile, proposal: Proposal | null, body: z.infer<typeof breakEvenRequestSchema>) {
   const problems: Problem[] = [];
-  const metric = checkMetric(c, body.metric, problems);
+  const metric = checkMetric(c, body.metric, problems, proposal);
   const drivers = driversOf(c, metric, body.drivers, problems);
   const ranges: Record<string, [number, number]> = {};
   for (const [id, r] of Object.entries(body.ranges)) {
@@ -112,9 +125,9 @@ export function runBreakEven(c: CaseFile, body: z.infer<typeof breakEvenRequestS
   return { metric, baseValue: ev.baseValue, rows: breakEvens(ev, drivers, ranges) };
 }
 
-export function runTwoWay(c: CaseFile, body: z.infer<typeof twoWayRequestSchema>) {
+export function runTwoWay(c: CaseFile, proposal: Proposal | null, body: z.infer<typeof twoWayRequestSchema>) {
   const problems: Problem[] = [];
-  const metric = checkMetric(c, body.metric, problems);
+  const metric = checkMetric(c, body.metric, problems, proposal);
   const row = resolveDriver(c, body.row, 'row', problems);
   const column = resolveDriver(c, body.column, 'column', problems);
   if (row && column && driverId(row) === driverId(column)) problems.push({ path: 'column', message: 'choose two different drivers' });
@@ -131,6 +144,9 @@ export const MAX_TRUCK_ITERATIONS = 3_000_000;
 /** Checks a Monte Carlo request against the case: known drivers, each once, bounds inside the driver's range, a size the server can hold. */
 export function checkMonteCarlo(c: CaseFile, body: z.infer<typeof monteCarloRequestSchema>): void {
   const problems: Problem[] = [];
+  if (body.measure === 'truck-delta' && body.truckId !== undefined && !c.trucks.some((t) => t.id === body.truckId)) {
+    problems.push({ path: 'truckId', message: `no truck "${body.truckId}" in this case` });
+  }
   if (body.iterations * c.trucks.length > MAX_TRUCK_ITERATIONS) {
     const most = Math.floor(MAX_TRUCK_ITERATIONS / c.trucks.length);
     problems.push({ path: 'iterations', message: `must be at most ${most.toLocaleString('en-US')} for ${c.trucks.length} trucks (iterations × trucks up to ${MAX_TRUCK_ITERATIONS.toLocaleString('en-US')})` });

@@ -14,7 +14,7 @@
  *   by side and off the request thread.
  */
 import { parentPort } from 'node:worker_threads';
-import { IterationRunner, summariseFleet, type RunControl, summariseTrucks, type MonteCarloResult, type MonteCarloSpec, type TruckRisk } from '@/lib/engine/monte-carlo';
+import { IterationRunner, proposalSlots, summariseFleet, type RunControl, summariseTrucks, type MonteCarloResult, type MonteCarloSpec, type TruckRisk } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
 
 export interface RunRequest {
@@ -44,6 +44,8 @@ export interface SummariseRequest {
   trucksFrom: number;
   trucksTo: number;
   fleet: boolean;
+  /** the run's proposal (spec.proposal), for the fleet's proposal figure */
+  proposal?: MonteCarloSpec['proposal'];
 }
 
 export type WorkerRequest = RunRequest | SummariseRequest;
@@ -94,7 +96,7 @@ function handle(m: WorkerRequest): WorkerMessage {
   return {
     type: 'summary',
     trucks: summariseTrucks(m.truckIds, npvs, m.trucksFrom, m.trucksTo),
-    fleet: m.fleet ? summariseFleet(m.truckIds.length, npvs) : null,
+    fleet: m.fleet ? summariseFleet(m.truckIds.length, npvs, m.proposal ? proposalSlots(m.truckIds, m.proposal) : null) : null,
   };
 }
 

@@ -16,6 +16,8 @@ export const metricSchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('truck-delta'), truckId: z.string().min(1, 'choose a truck') }),
   z.strictObject({ kind: z.literal('fleet-delta') }),
   z.strictObject({ kind: z.literal('fleet-best') }),
+  // the case's proposal against rebuilding every engine; the server fills in its policies from the saved plan
+  z.strictObject({ kind: z.literal('proposal') }),
 ]);
 
 const driverIdSchema = z.string().min(1).max(200);
@@ -36,7 +38,7 @@ export const spiderRequestSchema = z.strictObject({
 });
 
 export const breakEvenRequestSchema = z.strictObject({
-  metric: metricSchema.refine((m) => m.kind !== 'fleet-best', 'break-even needs a ΔNPV metric (truck-delta or fleet-delta)'),
+  metric: metricSchema.refine((m) => m.kind !== 'fleet-best', 'break-even needs a ΔNPV metric (proposal, fleet-delta or truck-delta)'),
   drivers: z.array(driverIdSchema).max(200).optional(),
   ranges: z
     .record(driverIdSchema, z.tuple([finite(), finite()]).refine(([a, b]) => a < b, 'the range must run from a lower to a higher value'))
@@ -64,15 +66,24 @@ export const distributionSchema = z.discriminatedUnion('kind', [
 
 export const MAX_ITERATIONS = 100_000;
 
-export const monteCarloRequestSchema = z.strictObject({
-  iterations: z.number().int('must be a whole number').min(10, 'must be at least 10').max(MAX_ITERATIONS, `must be at most ${MAX_ITERATIONS}`),
-  seed: z.number().int('must be a whole number').min(0, 'must not be negative').max(2 ** 31 - 1, 'must be below 2,147,483,648'),
-  sampleFailures: z.boolean().default(true),
-  distributions: z.array(z.strictObject({ driver: driverIdSchema, distribution: distributionSchema })).max(200).default([]),
-  /** the fleet figure the run is read on (lib/risk/measures.ts); default the proposal */
-  measure: z.enum(['proposal', 'fleet-delta', 'fleet-best'], 'must be proposal, fleet-delta or fleet-best').default('proposal'),
-});
+export const monteCarloRequestSchema = z
+  .strictObject({
+    iterations: z.number().int('must be a whole number').min(10, 'must be at least 10').max(MAX_ITERATIONS, `must be at most ${MAX_ITERATIONS}`),
+    seed: z.number().int('must be a whole number').min(0, 'must not be negative').max(2 ** 31 - 1, 'must be below 2,147,483,648'),
+    sampleFailures: z.boolean().default(true),
+    distributions: z.array(z.strictObject({ driver: driverIdSchema, distribution: distributionSchema })).max(200).default([]),
+    /** the figure the run is read on (lib/risk/measures.ts); default the proposal; truck-delta names its truck */
+    measure: z.enum(['proposal', 'fleet-delta', 'fleet-best', 'truck-delta'], 'must be proposal, fleet-delta, fleet-best or truck-delta').default('proposal'),
+    truckId: z.string().min(1).max(200).optional(),
+  })
+  .refine((r) => (r.measure === 'truck-delta') === (r.truckId !== undefined), { path: ['truckId'], message: 'name a truck for the truck-delta measure, and only for it' });
 
 export type MetricInput = z.infer<typeof metricSchema>;
 export type MonteCarloRequest = z.infer<typeof monteCarloRequestSchema>;
 export type DistributionInput = z.infer<typeof distributionSchema>;
+
+/** PUT …/pinned-run: the run to pin and the case version the caller loaded. */
+export const pinRunSchema = z.strictObject({
+  runId: z.string('must be a run id').min(1, 'choose a run').max(36, 'must be a run id'),
+  version: z.number('must be the version you loaded').int('must be a whole number').min(1, 'must be at least 1').max(1e12, 'must be at most 1,000,000,000,000'),
+});

@@ -114,6 +114,7 @@ describe.each(backends)('the frozen record on $name', ({ pg }) => {
     // the approved summary is read from the record
     const frozenSummary = await call(decisionSummary, p(id));
     expect(frozenSummary.body.source).toBe('frozen');
+    expect(frozenSummary.body.recordVerifies).toBe(true);
     expect(frozenSummary.body.gainVsRebuildAll).toBe(record.summary.gainVsRebuildAll);
 
     // the download: the exact bytes, as an attachment, hashing to the stored hash
@@ -131,6 +132,7 @@ describe.each(backends)('the frozen record on $name', ({ pg }) => {
     expect(tampered).not.toBe(row.frozenRecord);
     await k('business_cases').where({ id }).update({ frozenRecord: tampered });
     expect((await call(history, p(id))).body.frozen).toEqual({ hash: row.frozenHash, verifies: false });
+    expect((await call(decisionSummary, p(id))).body.recordVerifies).toBe(false);
     const dl2 = await call(frozenRecord, p(id));
     expect(createHash('sha256').update(Buffer.from(await dl2.response.arrayBuffer())).digest('hex')).not.toBe(row.frozenHash);
     // the separate case and result texts must be the record's own

@@ -24,6 +24,12 @@ export interface MonteCarloSpec {
   distributions: { driver: string; distribution: Distribution }[];
   /** draw each engine life's failure age from its Weibull law (else the median path) */
   sampleFailures: boolean;
+  /**
+   * the case's proposal, a policy per truck (lib/cases/proposal.ts): the
+   * summaries then add its Δnpv against rebuilding every engine, the policies
+   * held fixed in every iteration; the iterations themselves do not read it
+   */
+  proposal?: Readonly<Record<string, PolicyKey>> | null;
 }
 
 /** Per iteration and truck, the npvs of keep, rebuild and repower: index (i·trucks + t)·3 + policy. */

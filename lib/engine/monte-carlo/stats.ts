@@ -3,6 +3,7 @@
  * loss, a histogram and the running mean (to show convergence).
  */
 import { bestPolicyIndex } from '../results';
+import type { PolicyKey } from '../types';
 import { POLICY_SLOTS } from './iterations';
 
 export interface Summary {
@@ -180,14 +181,26 @@ export interface MonteCarloResult {
   };
 }
 
-/** Summaries from the npvs of `runIterations` (concatenated in iteration order). */
-export function summariseRun(truckIds: readonly string[], npvs: Float64Array): MonteCarloResult {
+/** Summaries from the npvs of `runIterations` (concatenated in iteration order); with a proposal, its figure too. */
+export function summariseRun(truckIds: readonly string[], npvs: Float64Array, proposal?: Readonly<Record<string, PolicyKey>> | null): MonteCarloResult {
   const iterations = runLength(truckIds.length, npvs);
   return {
     iterations,
     trucks: summariseTrucks(truckIds, npvs, 0, truckIds.length),
-    fleet: summariseFleet(truckIds.length, npvs),
+    fleet: summariseFleet(truckIds.length, npvs, proposal ? proposalSlots(truckIds, proposal) : null),
   };
+}
+
+/**
+ * A proposal's policy of each truck as its npv slot (keep 0, rebuild 1,
+ * repower 2), in truck order; a truck the proposal does not name is rebuilt.
+ *
+ * @example proposalSlots(['A', 'B', 'C'], { A: 'repower', B: 'keep' }) // = [2, 0, 1]
+ */
+export function proposalSlots(truckIds: readonly string[], policies: Readonly<Record<string, PolicyKey>>): Int8Array {
+  const slots = new Int8Array(truckIds.length);
+  truckIds.forEach((id, t) => (slots[t] = policies[id] === 'keep' ? 0 : policies[id] === 'repower' ? 2 : 1));
+  return slots;
 }
 
 /** Whole iterations held in `npvs` for a fleet of `trucks`. */
@@ -228,14 +241,21 @@ export function summariseTrucks(truckIds: readonly string[], npvs: Float64Array,
   }));
 }
 
-/** The fleet's figures: per iteration, Σ over trucks (in truck order) of Δnpv and of the best policy's npv. */
-export function summariseFleet(trucks: number, npvs: Float64Array): MonteCarloResult['fleet'] {
+/**
+ * The fleet's figures: per iteration, Σ over trucks (in truck order) of Δnpv
+ * and of the best policy's npv; with `proposal` (a slot per truck, from
+ * `proposalSlots`), also Σ npv(the truck's slot) − npv(rebuild), the policies
+ * held fixed in every iteration.
+ */
+export function summariseFleet(trucks: number, npvs: Float64Array, proposal?: ArrayLike<number> | null): MonteCarloResult['fleet'] {
   const iterations = runLength(trucks, npvs);
   const fleetDelta = new Float64Array(iterations);
   const fleetBest = new Float64Array(iterations);
+  const fleetProposal = proposal ? new Float64Array(iterations) : null;
   for (let i = 0; i < iterations; i++) {
     let d = 0;
     let b = 0;
+    let p = 0;
     for (let t = 0; t < trucks; t++) {
       const o = (i * trucks + t) * POLICY_SLOTS;
       const keep = npvs[o];
@@ -244,9 +264,13 @@ export function summariseFleet(trucks: number, npvs: Float64Array): MonteCarloRe
       d += repower - rebuild;
       const k = bestPolicyIndex(keep, rebuild, repower);
       b += k === 0 ? keep : k === 1 ? rebuild : repower;
+      if (proposal) p += npvs[o + proposal[t]] - rebuild;
     }
     fleetDelta[i] = d;
     fleetBest[i] = b;
+    if (fleetProposal) fleetProposal[i] = p;
   }
-  return { deltaNpv: summarise(fleetDelta), bestNpv: summarise(fleetBest) };
+  const out: MonteCarloResult['fleet'] = { deltaNpv: summarise(fleetDelta), bestNpv: summarise(fleetBest) };
+  if (fleetProposal) out.proposalNpv = summarise(fleetProposal);
+  return out;
 }

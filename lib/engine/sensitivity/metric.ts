@@ -4,23 +4,49 @@
  */
 import type { CaseFileInput } from '@/lib/validation/case';
 import { evaluateNpvs } from '../evaluate';
+import type { PolicyKey } from '../types';
 import { fleetBestNpv, type CaseNpvs } from '../npv-only';
 import { cloneCase, getDriver, setDriver, type DriverRef } from './drivers';
 
 /**
  * - `truck-delta`: one truck's Δnpv of repower against rebuild (USD);
  * - `fleet-delta`: the same summed over the fleet (repower every truck vs rebuild every truck);
- * - `fleet-best`: the fleet's npv with each truck on its best policy.
+ * - `fleet-best`: the fleet's npv with each truck on its best policy (chosen again in each run);
+ * - `proposal`: Σ over trucks of npv(policies[truck]) − npv(rebuild), the case's
+ *   proposal against rebuilding every engine. The policy of each truck is
+ *   held fixed while the inputs vary (what is proposed is tested, not the best
+ *   answer to each changed input); a truck the map does not name counts as
+ *   rebuilt (adds 0). Zero: the proposal just breaks even against rebuilding.
+ *
+ * @example
+ * // npvs (keep, rebuild, repower) A: (10, 8, 12), B: (5, 7, 4), C: (0, 3, 9);
+ * // proposal { A: repower, B: keep, C: rebuild } = (12 − 8) + (5 − 7) + (3 − 3) = 2
  */
-export type Metric = { kind: 'truck-delta'; truckId: string } | { kind: 'fleet-delta' } | { kind: 'fleet-best' };
+export type Metric =
+  | { kind: 'truck-delta'; truckId: string }
+  | { kind: 'fleet-delta' }
+  | { kind: 'fleet-best' }
+  | { kind: 'proposal'; policies: Readonly<Record<string, PolicyKey>> };
 
-/** Δnpv metrics: zero means the repower just breaks even. */
+/** Δnpv metrics: zero means the repower (or the proposal) just breaks even against rebuilding. */
 export function isDeltaMetric(m: Metric): boolean {
   return m.kind !== 'fleet-best';
 }
 
+/** npv(policy) − npv(rebuild) of truck i. */
+function gainOverRebuild(n: CaseNpvs, i: number, policy: PolicyKey | undefined): number {
+  if (policy === 'repower') return n.repower[i] - n.rebuild[i];
+  if (policy === 'keep') return n.keep[i] - n.rebuild[i];
+  return 0;
+}
+
 export function readMetric(n: CaseNpvs, m: Metric): number {
   if (m.kind === 'fleet-best') return fleetBestNpv(n);
+  if (m.kind === 'proposal') {
+    let sum = 0;
+    for (let i = 0; i < n.truckIds.length; i++) sum += gainOverRebuild(n, i, m.policies[n.truckIds[i]]);
+    return sum;
+  }
   if (m.kind === 'fleet-delta') {
     let sum = 0;
     for (let i = 0; i < n.truckIds.length; i++) sum += n.repower[i] - n.rebuild[i];
@@ -40,11 +66,24 @@ export interface Evaluator {
   baseValue: number;
 }
 
+/** The policies of a proposal, checked: every truck named is in the case, every policy is one of the three. */
+export function checkProposalPolicies(validCase: CaseFileInput, policies: Readonly<Record<string, PolicyKey>>): void {
+  const ids = new Set(validCase.trucks.map((t) => t.id));
+  for (const [id, p] of Object.entries(policies)) {
+    if (!ids.has(id)) throw new RangeError(`the proposal names truck "${id}", which is not in the case`);
+    if (p !== 'keep' && p !== 'rebuild' && p !== 'repower') throw new RangeError(`the proposal gives truck "${id}" an unknown policy "${String(p)}"`);
+  }
+}
+
 /**
  * An evaluator over a validated case. For a one-truck metric only that truck
- * is evaluated (the others do not change it).
+ * is evaluated (the others do not change it). A proposal evaluates the whole
+ * fleet, as the fleet metrics do: a rebuilt truck adds 0, but an all-trucks
+ * driver ("annualHours@*") is the fleet's mean and scales every truck, so the
+ * same driver must mean the same on every fleet metric.
  */
 export function makeEvaluator(validCase: CaseFileInput, metric: Metric): Evaluator {
+  if (metric.kind === 'proposal') checkProposalPolicies(validCase, metric.policies);
   const base =
     metric.kind === 'truck-delta' ? { ...validCase, trucks: validCase.trucks.filter((t) => t.id === metric.truckId) } : validCase;
   if (base.trucks.length === 0) throw new RangeError(`no truck with id "${(metric as { truckId: string }).truckId}"`);

@@ -50,6 +50,15 @@ describe('runInWorkers', () => {
     }
   });
 
+  it('adds the proposal\'s figure (its policies fixed) exactly as one thread sums it', async () => {
+    const proposal = Object.fromEntries(ids.map((id, i) => [id, i % 3 === 0 ? 'repower' : i % 3 === 1 ? 'keep' : 'rebuild'] as const));
+    const withProposal: MonteCarloSpec = { ...spec, iterations: 120, proposal };
+    const inProcess = runIterations(demo, withProposal, 0, withProposal.iterations);
+    const { result } = await runInWorkers(bundle, demo, withProposal, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
+    expect(result!.fleet.proposalNpv).toBeDefined();
+    expect(result).toEqual(summariseRun(ids, inProcess.npvs, proposal));
+  });
+
   it('keeps, in iteration order, what the workers finished when the run is stopped', async () => {
     const stop = new SharedArrayBuffer(4);
     const flag = new Int32Array(stop);

@@ -35,7 +35,7 @@ describe('risk request checks', () => {
 
   it('refuses tornado ranges outside a driver\'s valid range, with their paths', () => {
     const problems = problemsOf(() =>
-      runTornado(fleet, { metric: { kind: 'fleet-best' }, relative: 0.2, ranges: { loadFactor: { low: 0.4, high: 1.2 }, 'lifeHours@ac-2600-legacy': { low: 10, high: 30000 } } }),
+      runTornado(fleet, null, { metric: { kind: 'fleet-best' }, relative: 0.2, ranges: { loadFactor: { low: 0.4, high: 1.2 }, 'lifeHours@ac-2600-legacy': { low: 10, high: 30000 } } }),
     );
     expect(problems.map((p) => p.path)).toEqual(['ranges.loadFactor', 'ranges.lifeHours@ac-2600-legacy.low']);
   });
