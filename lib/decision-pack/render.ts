@@ -208,8 +208,8 @@ export function renderDecisionPack(data: DecisionPackData, fonts: PackFonts): Pr
   else {
     const shown = s.leftOut.slice(0, MAX_TABLE_ROWS);
     table(
-      [{ label: 'Truck', width: 70 }, { label: `Capital (${cur} k)`, width: 90, align: 'right' }, { label: `Gain forgone (${cur} k)`, width: 100, align: 'right' }, { label: 'Why', width: 240 }],
-      shown.map((l) => [l.truckId, k(l.capital), k(l.gainForgone), l.reason]),
+      [{ label: 'Truck', width: 70 }, { label: `Capital (${cur} k)`, width: 85, align: 'right' }, { label: `Gain forgone (${cur} k)`, width: 95, align: 'right' }, { label: `Extra budget to add it (${cur} k)`, width: 115, align: 'right' }, { label: 'Why', width: 135 }],
+      shown.map((l) => [l.truckId, k(l.capital), k(l.gainForgone), k(l.extraBudget), l.reason]),
     );
     more(shown.length, s.leftOut.length, 'trucks left out');
   }

@@ -81,6 +81,8 @@ describe('page breaks of a table', () => {
     expect(text).toMatch(/Run by\s+Ana Analyst/);
     expect(text).toMatch(/Chance of losing money\s+8\.7 %/);
     expect(text).toMatch(/P10 \(AUD k\)\s+−120/);
+    // a truck left out: its capital, the gain it forgoes and the extra budget that would add it
+    expect(text).toMatch(/HT-008\s+1,100\s+90\s+1,000\s+over the FY2027 budget/);
     expect(text).toMatch(/manufacturer’s\s+procedures/);
   });
 
