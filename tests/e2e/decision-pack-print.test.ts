@@ -114,7 +114,7 @@ describe('decision pack and print', () => {
     await page.emulateMedia({ media: 'print' });
     const portrait = await page.pdf({ preferCSSPageSize: true, scale: 2, printBackground: true });
     await page.emulateMedia({ media: 'screen' });
-    const pagesWithRows = pdfToText(portrait, false).split('\f').filter((p) => /Repower \(proposed\)/.test(p)); // the truck table's policy cells
+    const pagesWithRows = pdfToText(portrait, false).split('\f').filter((p) => /\bS-0\d\d (Keep|Rebuild|Repower) /.test(squash(p))); // a truck row: unit, then its best policy
     expect(pagesWithRows.length).toBeGreaterThan(1);
     for (const p of pagesWithRows) expect(squash(p)).toMatch(/Fails before overhaul, rebuild NPV keep \(USD k\)/);
   });
