@@ -208,8 +208,8 @@ export function renderDecisionPack(data: DecisionPackData, fonts: PackFonts): Pr
   else {
     const shown = s.leftOut.slice(0, MAX_TABLE_ROWS);
     table(
-      [{ label: 'Truck', width: 70 }, { label: `Capital (${cur} k)`, width: 90, align: 'right' }, { label: `Gain forgone (${cur} k)`, width: 100, align: 'right' }, { label: 'Why', width: 240 }],
-      shown.map((l) => [l.truckId, k(l.capital), k(l.gainForgone), l.reason]),
+      [{ label: 'Truck', width: 70 }, { label: `Capital (${cur} k)`, width: 85, align: 'right' }, { label: `Gain forgone (${cur} k)`, width: 95, align: 'right' }, { label: `Extra budget to add it (${cur} k)`, width: 115, align: 'right' }, { label: 'Why', width: 135 }],
+      shown.map((l) => [l.truckId, k(l.capital), k(l.gainForgone), k(l.extraBudget), l.reason]),
     );
     more(shown.length, s.leftOut.length, 'trucks left out');
   }
@@ -336,7 +336,7 @@ function drawChart(doc: PDFKit.PDFDocument, data: DecisionPackData, t: (s: strin
   const plotLeft = PAGE.left + 52;
   const plotRight = PAGE.left + CONTENT_WIDTH - 4;
   doc.font('regular').fontSize(8).fillColor(COLOUR.muted);
-  doc.text(t(`${cur} k. Capital asked is drawn as spend (below zero); cash flow is the proposal’s net cash flow against rebuilding every engine, after tax, undiscounted.`), PAGE.left, top, { width: CONTENT_WIDTH });
+  doc.text(t(`${cur} k. Capital is drawn as spend (below zero) in the years the engine's trace spends it (the summary above books each repower's capital in the year of its first spend); cash flow is the proposal’s net cash flow against rebuilding every engine, after tax, undiscounted.`), PAGE.left, top, { width: CONTENT_WIDTH });
   const plotTop = doc.y + 10;
   const plotBottom = top + height - 26;
   if (years.length === 0) {
@@ -372,7 +372,7 @@ function drawChart(doc: PDFKit.PDFDocument, data: DecisionPackData, t: (s: strin
   // legend
   const ly = plotBottom + 16;
   doc.rect(plotLeft, ly + 1, 8, 6).fill(COLOUR.repower);
-  doc.font('regular').fontSize(7.5).fillColor(COLOUR.ink).text('Capital asked', plotLeft + 11, ly, { lineBreak: false });
+  doc.font('regular').fontSize(7.5).fillColor(COLOUR.ink).text('Capital spent', plotLeft + 11, ly, { lineBreak: false });
   doc.rect(plotLeft + 90, ly + 1, 8, 6).fill(COLOUR.gain);
   doc.fillColor(COLOUR.ink).text('Net cash flow vs rebuild (loss in red)', plotLeft + 101, ly, { lineBreak: false });
   doc.x = PAGE.left;

@@ -74,6 +74,15 @@ describe('decision pack and print', () => {
     for (const [label, amount] of fy) expect(text).toMatch(new RegExp(`${label}\\s+\\S+( limit)?\\s+${amount.replace(/[()]/g, '\\$&')}`));
     expect(text).toMatch(/Engine swaps, electrical work and\s+load testing/);
     expect(firstPageInkShare(pdf)).toBeGreaterThan(0.01);
+    // the plan and approval pages quote the same proposal
+    await page.goto(`${baseURL}/${WS}/cases/${caseId}/plan`);
+    await page.getByTestId('plan-proposal-gain').waitFor();
+    expect((await page.getByTestId('plan-proposal-gain').innerText()).trim()).toBe(gain);
+    expect((await page.getByTestId('plan-proposal-capital').innerText()).trim()).toBe(capital);
+    await page.goto(`${baseURL}/${WS}/approvals/${caseId}`);
+    await page.getByTestId('ds-gain').waitFor();
+    expect((await page.getByTestId('ds-gain').innerText()).trim()).toBe(gain);
+    expect((await page.getByTestId('ds-total-capital').innerText()).trim()).toBe(capital);
     fs.mkdirSync('test-results/screens', { recursive: true });
     fs.writeFileSync('test-results/screens/decision-pack.pdf', pdf);
   });
@@ -85,8 +94,10 @@ describe('decision pack and print', () => {
     await page.getByRole('link', { name: 'S-028' }).first().waitFor();
     await page.emulateMedia({ media: 'print' });
     await screenshot(page, 'case-results-print');
-    const pdf = await page.pdf({ format: 'A4', printBackground: true });
+    // as a person prints it: the stylesheet's page size (A4 landscape)
+    const pdf = await page.pdf({ preferCSSPageSize: true, printBackground: true });
     await page.emulateMedia({ media: 'screen' });
+    fs.writeFileSync('test-results/screens/case-results-print.pdf', pdf);
     expect(pdfPageCount(pdf)).toBeGreaterThan(1);
     const text = pdfToText(pdf, false);
     const flat = squash(text);
@@ -96,7 +107,16 @@ describe('decision pack and print', () => {
     expect(flat).toContain('Decision summary');
     // the whole truck table flows over the pages: its last truck is printed too
     const rows = text.match(/\bS-0\d\d\b/g) ?? [];
-    expect(new Set(rows).size).toBeGreaterThanOrEqual(28);
+    expect(new Set(rows).size).toBe(28);
+    // the truck table's column headings (sort buttons on screen) are printed
+    expect(flat).toMatch(/Truck\s.*Best\s/);
+    // printed at twice the size the truck table runs over a page break: its heading row is printed again on each page
+    await page.emulateMedia({ media: 'print' });
+    const portrait = await page.pdf({ preferCSSPageSize: true, scale: 2, printBackground: true });
+    await page.emulateMedia({ media: 'screen' });
+    const pagesWithRows = pdfToText(portrait, false).split('\f').filter((p) => /\bS-0\d\d (Keep|Rebuild|Repower) /.test(squash(p))); // a truck row: unit, then its best policy
+    expect(pagesWithRows.length).toBeGreaterThan(1);
+    for (const p of pagesWithRows) expect(squash(p)).toMatch(/Fails before overhaul, rebuild NPV keep \(USD k\)/);
   });
 
   it('the approval page offers the decision pack and prints without its buttons', async () => {
@@ -106,10 +126,31 @@ describe('decision pack and print', () => {
     const link = page.getByRole('link', { name: 'Download decision pack (PDF)' });
     expect(await link.getAttribute('href')).toBe(`/api/workspaces/${WS}/cases/${caseId}/decision-pack`);
     await page.emulateMedia({ media: 'print' });
-    const flat = squash(pdfToText(await page.pdf({ format: 'A4' }), false));
+    const flat = squash(pdfToText(await page.pdf({ preferCSSPageSize: true }), false));
     await page.emulateMedia({ media: 'screen' });
     expect(flat).toContain(`${name} · Approval`);
     expect(flat).toContain('Decision summary');
     for (const n of [...NAVIGATION, 'Open the case']) expect(flat).not.toContain(n);
   });
+  it('prints the plan, truck and risk pages with the header line and without navigation or controls', async () => {
+    const { page, baseURL } = b;
+    const pages: Array<[string, string, string]> = [
+      [`/${WS}/cases/${caseId}/plan`, 'Ranking, capital plan and schedule', 'plan'],
+      [`/${WS}/cases/${caseId}/trucks/S-001`, 'Truck S-001', 'truck'],
+      [`/${WS}/cases/${caseId}/risk`, 'Sensitivity and risk', 'risk'],
+    ];
+    for (const [path, what, shot] of pages) {
+      await page.goto(`${baseURL}${path}`, { timeout: 60_000 });
+      await page.getByRole('main').getByRole('heading').first().waitFor();
+      // the page's data has loaded (no panel still busy)
+      await page.waitForFunction(() => document.querySelectorAll('[aria-busy="true"]').length === 0, undefined, { timeout: 60_000 });
+      await page.emulateMedia({ media: 'print' });
+      await screenshot(page, `case-${shot}-print`);
+      const flat = squash(pdfToText(await page.pdf({ preferCSSPageSize: true }), false));
+      await page.emulateMedia({ media: 'screen' });
+      expect(flat).toContain(`${name} · ${what} ·`);
+      for (const n of NAVIGATION.filter((x) => !x.startsWith('Download'))) expect(flat).not.toContain(n);
+    }
+  });
+
 });

@@ -15,7 +15,7 @@ export function packFixture(o: { trucks?: number; approved?: boolean } = {}): De
       totalCapital: 3_600_000, gainVsRebuildAll: 1_234_500, gainVsBestMix: -150_000, bestMixGain: 1_384_500, repowerAllGain: -420_000,
       irr: 0.1834, mirr: 0.121, payback: 3.4, discountedPayback: 4.6, fuelSavedLitresPerYear: 812_000, co2SavedTonnesPerYear: 2_180,
       risk: o.approved ? { runId: '3f2a9c0e-77aa-4c1e-9d1b-0a1b2c3d4e5f', label: 'ΔNPV of the proposal against rebuilding every engine', sampleFailures: true, startedAt: '2026-11-30T09:14:00.000Z', iterations: 2000, seed: 42, author: 'Ana Analyst', finishedAt: '2026-11-30T09:15:00.000Z', probabilityOfLoss: 0.087, p10: -120_000, p50: 1_150_000, p90: 2_400_000 } : null,
-      leftOut: [{ truckId: ids[n - 1], capital: 1_100_000, gainForgone: 90_000, reason: 'over the FY2027 budget: needs 1,000 k more' }],
+      leftOut: [{ truckId: ids[n - 1], capital: 1_100_000, gainForgone: 90_000, reason: 'over the FY2027 budget', extraBudget: 1_000_000, fiscalYear: 'FY2027' }],
       notWorthIt: [],
       topDrivers: [{ label: 'Fuel price', low: 300_000, high: 2_100_000, swing: 1_800_000, driver: 'fuelPrice', unit: 'AUD/L', base: 1.45, driverLow: 1.16, driverHigh: 1.74 }],
       chosenTrucks: ids.slice(0, 3),

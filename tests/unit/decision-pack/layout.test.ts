@@ -75,6 +75,14 @@ describe('page breaks of a table', () => {
     expect(firstPageInkShare(pdf)).toBeGreaterThan(0.01);
     expect(text).toContain('−150'); // the minus sign survives embedding
     expect(text).toContain('a'.repeat(64));
+    // the pinned run's provenance and figures
+    expect(text).toMatch(/Monte Carlo run\s+3f2a9c0e/);
+    expect(text).toMatch(/Seed\s+42/);
+    expect(text).toMatch(/Run by\s+Ana Analyst/);
+    expect(text).toMatch(/Chance of losing money\s+8\.7 %/);
+    expect(text).toMatch(/P10 \(AUD k\)\s+−120/);
+    // a truck left out: its capital, the gain it forgoes and the extra budget that would add it
+    expect(text).toMatch(/HT-008\s+1,100\s+90\s+1,000\s+over the FY2027 budget/);
     expect(text).toMatch(/manufacturer’s\s+procedures/);
   });
 
@@ -82,5 +90,6 @@ describe('page breaks of a table', () => {
     const text = pdfToText(await renderDecisionPack(packFixture(), null));
     expect(text).toMatch(/Gain vs the unconstrained best\s+-150/);
     expect(text).not.toContain('−');
+    expect(text).toContain('No pinned run: submitted without a pinned Monte Carlo run.');
   });
 });
