@@ -8,7 +8,7 @@ import { usePost } from './use-post';
  * For each driver, where the repower (or the proposal) stops paying (ΔNPV = 0), or a plain "none within the range".
  * The best mix has no break-even of its own (it is not a Δ), so it shows the proposal's.
  */
-export function BreakEvenPanel(props: { base: string; metric: MetricInput; drivers: DriverView[]; currency: string; negative: NegativeStyle }) {
+export function BreakEvenPanel(props: { base: string; metric: MetricInput; drivers: DriverView[]; currency: string; negative: NegativeStyle; ready?: boolean }) {
   const fleet = props.metric.kind !== 'truck-delta';
   const metric = props.metric.kind === 'fleet-best' ? ({ kind: 'proposal' } as const) : props.metric;
   const subject = metric.kind === 'proposal' ? 'the proposal' : 'the repower';
@@ -18,7 +18,7 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
       : metric.kind === 'fleet-delta'
         ? 'ΔNPV of repowering every truck against rebuilding (a comparison)'
         : 'ΔNPV of repower against rebuild';
-  const { data, error } = usePost<{ baseValue: number; rows: BreakEven[] }>(`${props.base}/break-even`, { metric });
+  const { data, error } = usePost<{ baseValue: number; rows: BreakEven[] }>(props.ready === false ? null : `${props.base}/break-even`, { metric });
   const byId = new Map(props.drivers.map((d) => [d.id, d]));
   const pays = data ? data.baseValue > 0 : true;
   const rows = data ? [...data.rows].sort((a, b) => Number(a.kind === 'none') - Number(b.kind === 'none')) : [];
@@ -31,6 +31,7 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
         {data ? (pays ? `: ${subject} pays.` : `: ${subject} does not pay.`) : ''}
       </p>
       {error ? <p role="alert" className="text-sm text-loss">{error.message}</p> : null}
+      {!data && !error ? <p className="text-sm text-muted" aria-live="polite">Searching each driver for its break-even…</p> : null}
       {data ? (
         <div className="max-h-96 overflow-y-auto">
           <table className="data-table" data-testid="break-even-table">

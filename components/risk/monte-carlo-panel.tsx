@@ -21,7 +21,7 @@ function measureOf(choice: Choice): { measure: RunMeasure; truckId?: string } {
 }
 
 /** The workbench choice a run was read on. */
-function choiceOf(spec: Spec): Choice {
+export function choiceOfSpec(spec: Spec): Choice {
   const m = runMeasure(spec);
   return m === 'truck-delta' ? `truck:${spec.truckId ?? ''}` : m;
 }
@@ -97,7 +97,7 @@ export function MonteCarloPanel(props: {
   // a run opened: its settings go into the form (during render, so the form never shows other settings beside it)
   if (run?.spec && restored?.id !== run.id) {
     const spec = run.spec;
-    setRestored({ id: run.id, choice: choiceOf(spec) });
+    setRestored({ id: run.id, choice: choiceOfSpec(spec) });
     setDists(distributionsOf(spec));
     setIterations(spec.iterations);
     setSeed(spec.seed);
@@ -106,12 +106,13 @@ export function MonteCarloPanel(props: {
     setError(null);
   }
   // …and its measure into the workbench's measure (another component: after render)
+  // (formKey counts the restores: opening the shown run again restores its measure too)
   const restoredChoice = restored?.choice;
   useEffect(() => {
     if (restoredChoice) onChoice(restoredChoice);
-    // only when another run is opened, not when the reader changes the measure afterwards
+    // only when a run's settings are taken, not when the reader changes the measure afterwards
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [restored?.id]);
+  }, [formKey]);
 
   const problems = useMemo(() => {
     const m = new Map<string, string>();
@@ -179,7 +180,7 @@ export function MonteCarloPanel(props: {
   const mark = h && headlineValue !== undefined ? { value: headlineValue, label: HEADLINE_LABEL[h.valuation] } : undefined;
   const changed =
     !!spec &&
-    (spec.iterations !== iterations || spec.seed !== seed || spec.sampleFailures !== sampleFailures || choiceOf(spec) !== choice || drawnKey(distributionsOf(spec)) !== drawnKey(dists));
+    (spec.iterations !== iterations || spec.seed !== seed || spec.sampleFailures !== sampleFailures || choiceOfSpec(spec) !== choice || drawnKey(distributionsOf(spec)) !== drawnKey(dists));
   const pinnedId = list?.pinnedRunId ?? null;
   const caseOpen = list ? list.caseStatus === 'draft' || list.caseStatus === 'returned' : false;
 

@@ -1,15 +1,15 @@
 'use client';
 import { useCallback, useState } from 'react';
-import useSWR from 'swr';
+import useSWR, { preload } from 'swr';
 import { fetcher, type ApiError } from '@/lib/fetcher';
 import type { NegativeStyle } from '@/lib/format';
 import { BreakEvenPanel } from './break-even-panel';
-import { MonteCarloPanel } from './monte-carlo-panel';
+import { choiceOfSpec, MonteCarloPanel } from './monte-carlo-panel';
 import { SpiderPanel } from './spider-chart';
 import { TornadoPanel } from './tornado-panel';
 import { TwoWayPanel } from './two-way-panel';
 import { MEASURE_LABELS, type FleetMeasure } from '@/lib/risk/measures';
-import type { DriversAnswer, MetricInput, TornadoRow } from './types';
+import type { DriversAnswer, MetricInput, RunsAnswer, TornadoRow } from './types';
 
 /** A fleet measure, or one truck's ΔNPV repower vs rebuild. */
 export type Choice = FleetMeasure | `truck:${string}`;
@@ -22,7 +22,18 @@ export type Choice = FleetMeasure | `truck:${string}`;
  */
 export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: { slug: string; caseId: number; initialTruck: string | null; negative: NegativeStyle; canRun: boolean }) {
   const base = `/api/workspaces/${slug}/cases/${caseId}`;
-  const [choice, setChoice] = useState<Choice>(initialTruck ? `truck:${initialTruck}` : 'proposal');
+  // the measure: on a truck's page that truck; otherwise the one the latest Monte Carlo run was read on (the panel
+  // opens that run), else the proposal — decided before any analysis is asked for, so none is computed twice
+  const { data: runs } = useSWR<RunsAnswer, ApiError>(`${base}/monte-carlo`, fetcher, {
+    // the latest run's figures are asked for at once, ahead of the sensitivity analyses, which take the server longer
+    onSuccess: (d) => {
+      if (d.runs[0]) void preload(`${base}/monte-carlo/${d.runs[0].id}`, fetcher);
+    },
+  });
+  const [picked, setChoice] = useState<Choice | null>(initialTruck ? `truck:${initialTruck}` : null);
+  const latest = runs?.runs[0]?.spec;
+  if (picked === null && runs) setChoice(latest ? choiceOfSpec(latest) : 'proposal'); // once, when the runs arrive
+  const choice: Choice = picked ?? (latest ? choiceOfSpec(latest) : 'proposal');
   const truckId = choice.startsWith('truck:') ? choice.slice(6) : null;
   const { data: fleetDrivers, error } = useSWR<DriversAnswer, ApiError>(`${base}/drivers`, fetcher);
   const { data: truckDrivers } = useSWR<DriversAnswer, ApiError>(truckId ? `${base}/drivers?truck=${encodeURIComponent(truckId)}` : null, fetcher);
@@ -33,7 +44,7 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
   }, []);
 
   if (error) return <p role="alert" className="card p-4 text-sm text-loss">{error.message} {error.problems.map((p) => `${p.path}: ${p.message}`).join('; ')}</p>;
-  if (!fleetDrivers || (truckId && !truckDrivers)) return <p className="text-sm text-muted" aria-live="polite">Loading the case…</p>;
+  if (!fleetDrivers || !runs || (truckId && !truckDrivers)) return <p className="text-sm text-muted" aria-live="polite">Loading the case…</p>;
 
   const answer = truckId ? truckDrivers! : fleetDrivers;
   const currency = answer.case.currency;
@@ -66,7 +77,8 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
       </p>
       <TornadoPanel key={`t${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} onRows={onRows} />
       <SpiderPanel key={`s${key}`} base={base} metric={metric} metricLabel={metricLabel} driverIds={top} drivers={answer.drivers} currency={currency} negative={negative} />
-      <BreakEvenPanel key={`b${key}`} base={base} metric={metric} drivers={answer.drivers} currency={currency} negative={negative} />
+      {/* asked for once the tornado is in: a fleet break-even is hundreds of engine runs, and would hold the tornado and the Monte Carlo answers behind it */}
+      <BreakEvenPanel key={`b${key}`} base={base} metric={metric} drivers={answer.drivers} currency={currency} negative={negative} ready={top.length > 0} />
       <TwoWayPanel key={`w${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} initial={['fuelPrice', firstOffer]} />
       <MonteCarloPanel
         base={base}
