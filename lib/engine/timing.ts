@@ -327,10 +327,14 @@ function lifeLaws(setup: TruckSetup, k: number, delay: number, grid: Grid): Life
       addFailures(fail.cells, grid, at.t, lam, at.p, F);
       plan.atoms.push({ t: at.t + lam, p: at.p * survive });
     }
+    // from a cell (its mass at the centre): the same kernel for every cell, kernel_i = F((i + ½)g ∧ λ) − F((i − ½)g ∧ λ)
+    const kernel: number[] = [];
+    for (let i = 0; (i - 0.5) * g < lam; i++) kernel.push(F(Math.min((i + 0.5) * g, lam)) - (i === 0 ? 0 : F(Math.min((i - 0.5) * g, lam))));
     for (let c = 0; c < grid.n; c++) {
       const m = start.cells[c];
       if (m === 0) continue;
-      addFailures(fail.cells, grid, (c + 0.5) * g, lam, m, F);
+      const top = Math.min(kernel.length, grid.n - c);
+      for (let i = 0; i < top; i++) fail.cells[c + i] += m * kernel[i];
     }
     addShifted(plan.cells, start.cells, lam / g, survive);
     starts.push(start);

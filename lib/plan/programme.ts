@@ -112,6 +112,8 @@ export interface ProgrammeResult {
 
 export const BUDGET_STEP = 1_000_000;
 const SLACK = 1e-6;
+/** The solver stops when its bound is within this of the best plan found: one unit of money (the npvs are whole-money figures). */
+export const ABS_GAP = 1;
 
 type Highs = Awaited<ReturnType<typeof highsLoader>>;
 let loading: Promise<Highs> | null = null;
@@ -253,7 +255,7 @@ const STATUS_NAMES: Record<number, string> = {
 function solveLp(highs: Highs, built: Built): Solved {
   const model = highs.createModel({ format: 'lp', data: built.text });
   try {
-    model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: 1e-7 });
+    model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: ABS_GAP });
     model.run();
     const code = model.getModelStatus() as number;
     const status = STATUS_NAMES[code] ?? `status ${code}`;
