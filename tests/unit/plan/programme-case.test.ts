@@ -27,5 +27,5 @@ describe('the programme of a case', () => {
     const free = await planProgramme(demo, { budgets: [null], capacity: [], maxK: 2, maxDelayMonths: 2 });
     free.result.choices.forEach((c) => expect(c.cost).toBe(0));
     expect(free.result.objective).toBeGreaterThanOrEqual(p.result.objective);
-  });
+  }, 120_000); // valuing ~20 options for each of 24 trucks and solving: a few seconds on a shared machine
 });
