@@ -141,6 +141,9 @@ interface Built {
   truckOf: number[];
   optionOf: number[];
   offset: number;
+  /** row index of each fiscal year's budget row and each month's capacity row (absent: no row) */
+  budgetRow: Map<number, number>;
+  capacityRow: Map<number, number>;
 }
 
 /** The CPLEX LP text of the programme; npvs are offset by each truck's lowest npv (a constant) to keep coefficients small. */
@@ -160,6 +163,8 @@ export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capa
     });
   });
   const rows: string[] = [];
+  const budgetRow = new Map<number, number>();
+  const capacityRow = new Map<number, number>();
   let r = 0;
   // long rows continue on following lines (the LP reader joins them)
   const wrap = (parts: string[]) => parts.reduce((acc, p, i) => acc + (i > 0 && i % 20 === 0 ? '\n ' : ' ') + p, '');
@@ -177,12 +182,18 @@ export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capa
       const amount = input.trucks[truckOf[c]].options[optionOf[c]].capitalByYear[y] ?? 0;
       if (Math.abs(amount) > 0) terms.push(`+ ${num(amount)} x${c}`);
     }
-    if (terms.length > 0) rows.push(row(terms, `<= ${num(b)}`));
+    if (terms.length > 0) {
+      budgetRow.set(y, r);
+      rows.push(row(terms, `<= ${num(b)}`));
+    }
   });
   capacity.forEach((cap, m) => {
     const terms: string[] = [];
     for (let c = 0; c < truckOf.length; c++) if (input.trucks[truckOf[c]].options[optionOf[c]].month === m) terms.push(`+ x${c}`);
-    if (terms.length > 0) rows.push(row(terms, `<= ${num(cap)}`));
+    if (terms.length > 0) {
+      capacityRow.set(m, r);
+      rows.push(row(terms, `<= ${num(cap)}`));
+    }
   });
   const cols = truckOf.map((_, c) => `x${c}`);
   const text = [
@@ -194,7 +205,7 @@ export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capa
     ...Array.from({ length: Math.ceil(cols.length / 20) }, (_, i) => ' ' + cols.slice(i * 20, i * 20 + 20).join(' ')),
     'End',
   ].join('\n');
-  return { text, truckOf, optionOf, offset };
+  return { text, truckOf, optionOf, offset, budgetRow, capacityRow };
 }
 
 function checkInput(input: ProgrammeInput): string | null {
@@ -238,6 +249,21 @@ function whyInfeasible(input: ProgrammeInput): string {
   return 'No plan fits every budget and the shop capacity together: the trucks that must swap need more capital in some fiscal year, or more swaps in some months, than allowed. Raise a budget, add shop capacity, or allow later timings.';
 }
 
+/**
+ * The options no optimal plan needs: an option is dominated by another of the
+ * same truck that has at least its npv, no more capital in any year, and
+ * either no swap month or the same one (it uses nothing the first does not).
+ * Of equals the first listed stays. Dropping them leaves the optimum's value
+ * unchanged and makes the model smaller.
+ */
+export function undominated(options: ProgrammeOption[]): ProgrammeOption[] {
+  const years = Math.max(0, ...options.map((o) => o.capitalByYear.length));
+  const covers = (b: ProgrammeOption, a: ProgrammeOption) =>
+    b.npv >= a.npv && (b.month === null || b.month === a.month) &&
+    Array.from({ length: years }, (_, y) => (b.capitalByYear[y] ?? 0) <= (a.capitalByYear[y] ?? 0)).every(Boolean);
+  return options.filter((a, i) => !options.some((b, j) => j !== i && covers(b, a) && (!covers(a, b) || j < i)));
+}
+
 interface Solved {
   status: string;
   objective: number;
@@ -252,17 +278,26 @@ const STATUS_NAMES: Record<number, string> = {
   13: 'time limit', 14: 'iteration limit', 15: 'unknown', 16: 'solution limit', 17: 'interrupted',
 };
 
-function solveLp(highs: Highs, built: Built): Solved {
+type Model = ReturnType<Highs['createModel']>;
+
+function runModel(model: Model, built: Built): Solved {
+  model.run();
+  const code = model.getModelStatus() as number;
+  const status = STATUS_NAMES[code] ?? `status ${code}`;
+  const seconds = model.getRunTime();
+  if (code !== 7) return { status, objective: Number.NaN, gap: Number.NaN, seconds, x: null };
+  const gap = Number(model.info.get('mip_gap'));
+  return { status, objective: model.getObjectiveValue() + built.offset, gap, seconds, x: model.getSolution().colValue.slice() };
+}
+
+/** Solve the LP text; `then` reads the model's first solution before the model is freed. */
+function solveLp(highs: Highs, built: Built, then?: (first: Solved) => void): Solved {
   const model = highs.createModel({ format: 'lp', data: built.text });
   try {
     model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: ABS_GAP });
-    model.run();
-    const code = model.getModelStatus() as number;
-    const status = STATUS_NAMES[code] ?? `status ${code}`;
-    const seconds = model.getRunTime();
-    if (code !== 7) return { status, objective: Number.NaN, gap: Number.NaN, seconds, x: null };
-    const gap = Number(model.info.get('mip_gap'));
-    return { status, objective: model.getObjectiveValue() + built.offset, gap, seconds, x: model.getSolution().colValue.slice() };
+    const first = runModel(model, built);
+    if (first.x && then) then(first);
+    return first;
   } finally {
     model.dispose();
   }
@@ -285,50 +320,54 @@ export async function solveProgramme(input: ProgrammeInput, highs?: Highs): Prom
   const problem = checkInput(input);
   if (problem) return empty(problem, 'not solved');
   const solver = highs ?? (await loadHighs());
-  const built = programmeLp(input);
-  const solved = solveLp(solver, built);
-  if (!solved.x) {
-    if (solved.status === 'infeasible') return { ...empty(whyInfeasible(input), solved.status), seconds: solved.seconds };
-    return { ...empty(`The solver stopped without a plan (${solved.status}).`, solved.status), seconds: solved.seconds };
-  }
-  const x = solved.x;
-  const objective = objectiveOf(input, built, x);
-  const chosen = new Array<number>(input.trucks.length).fill(-1);
-  for (let c = 0; c < x.length; c++) if (x[c] > 0.5) chosen[built.truckOf[c]] = built.optionOf[c];
-  const years = input.budgets.length;
-  const capitalByYear = new Array<number>(years).fill(0);
-  const months = Math.max(input.capacity.length, ...input.trucks.flatMap((t) => t.options.map((o) => (o.month ?? -1) + 1)));
-  const swapsByMonth = new Array<number>(months).fill(0);
-  const choices: TruckChoice[] = input.trucks.map((t, ti) => {
-    const option = t.options[chosen[ti]];
-    const best = t.options.reduce((a, b) => (b.npv > a.npv ? b : a));
-    for (let y = 0; y < years; y++) capitalByYear[y] += option.capitalByYear[y] ?? 0;
-    if (option.month !== null) swapsByMonth[option.month] += 1;
-    const cost = Math.max(0, best.npv - option.npv);
-    return { truckId: t.id, option, best, cost, forcedDelay: option.delayMonths > 0 && cost > 0 };
-  });
-  const binding: ConstraintValue[] = [];
-  input.budgets.forEach((b, y) => {
-    if (b === null) return;
-    if (b - capitalByYear[y] <= SLACK * Math.max(1, b)) {
-      binding.push({ kind: 'budget', index: y, label: yearLabel(input, y), limit: b, used: capitalByYear[y], relaxBy: BUDGET_STEP, gain: Number.NaN });
+  // the model without dominated options; `input` keeps every option (each truck's best)
+  const model: ProgrammeInput = { ...input, trucks: input.trucks.map((t) => ({ id: t.id, options: undominated(t.options) })) };
+  const built = programmeLp(model);
+  let result: ProgrammeResult | null = null;
+  const solved = solveLp(solver, built, (first) => {
+    const x = first.x as Float64Array;
+    const objective = objectiveOf(model, built, x);
+    const chosen = new Array<number>(model.trucks.length).fill(-1);
+    for (let c = 0; c < x.length; c++) if (x[c] > 0.5) chosen[built.truckOf[c]] = built.optionOf[c];
+    const years = model.budgets.length;
+    const capitalByYear = new Array<number>(years).fill(0);
+    const months = Math.max(model.capacity.length, ...model.trucks.flatMap((t) => t.options.map((o) => (o.month ?? -1) + 1)));
+    const swapsByMonth = new Array<number>(months).fill(0);
+    const choices: TruckChoice[] = model.trucks.map((t, ti) => {
+      const option = t.options[chosen[ti]];
+      const best = input.trucks[ti].options.reduce((a, b) => (b.npv > a.npv ? b : a));
+      for (let y = 0; y < years; y++) capitalByYear[y] += option.capitalByYear[y] ?? 0;
+      if (option.month !== null) swapsByMonth[option.month] += 1;
+      const cost = Math.max(0, best.npv - option.npv);
+      return { truckId: t.id, option, best, cost, forcedDelay: option.delayMonths > 0 && cost > 0 };
+    });
+    const binding: ConstraintValue[] = [];
+    model.budgets.forEach((b, y) => {
+      if (b === null || !built.budgetRow.has(y)) return;
+      if (b - capitalByYear[y] <= SLACK * Math.max(1, b)) {
+        binding.push({ kind: 'budget', index: y, label: yearLabel(model, y), limit: b, used: capitalByYear[y], relaxBy: BUDGET_STEP, gain: Number.NaN });
+      }
+    });
+    model.capacity.forEach((cap, m) => {
+      if (built.capacityRow.has(m) && swapsByMonth[m] >= cap) {
+        binding.push({ kind: 'capacity', index: m, label: `month ${m + 1}`, limit: cap, used: swapsByMonth[m], relaxBy: 1, gain: Number.NaN });
+      }
+    });
+    let seconds = first.seconds;
+    if (model.marginals !== false) {
+      for (const b of binding) {
+        // a fresh model each time: re-running the solved model with a bound changed (and the optimum as a start) was slower
+        const budgets = b.kind === 'budget' ? model.budgets.map((v, y) => (y === b.index && v !== null ? v + b.relaxBy : v)) : model.budgets;
+        const capacity = b.kind === 'capacity' ? model.capacity.map((v, m) => (m === b.index ? v + b.relaxBy : v)) : model.capacity;
+        const again = programmeLp(model, budgets, capacity);
+        const s = solveLp(solver, again);
+        seconds += s.seconds;
+        b.gain = s.x ? Math.max(0, objectiveOf(model, again, s.x) - objective) : 0;
+      }
     }
+    result = { ok: true, message: null, status: first.status, objective, gap: first.gap, seconds, choices, binding, capitalByYear, swapsByMonth };
   });
-  input.capacity.forEach((cap, m) => {
-    if (swapsByMonth[m] >= cap && input.trucks.some((t) => t.options.some((o) => o.month === m))) {
-      binding.push({ kind: 'capacity', index: m, label: `month ${m + 1}`, limit: cap, used: swapsByMonth[m], relaxBy: 1, gain: Number.NaN });
-    }
-  });
-  let seconds = solved.seconds;
-  if (input.marginals !== false) {
-    for (const b of binding) {
-      const budgets = b.kind === 'budget' ? input.budgets.map((v, y) => (y === b.index && v !== null ? v + BUDGET_STEP : v)) : input.budgets;
-      const capacity = b.kind === 'capacity' ? input.capacity.map((v, m) => (m === b.index ? v + 1 : v)) : input.capacity;
-      const again = programmeLp(input, budgets, capacity);
-      const s = solveLp(solver, again);
-      seconds += s.seconds;
-      b.gain = s.x ? Math.max(0, objectiveOf(input, again, s.x) - objective) : 0;
-    }
-  }
-  return { ok: true, message: null, status: solved.status, objective, gap: solved.gap, seconds, choices, binding, capitalByYear, swapsByMonth };
+  if (result) return result;
+  if (solved.status === 'infeasible') return { ...empty(whyInfeasible(model), solved.status), seconds: solved.seconds };
+  return { ...empty(`The solver stopped without a plan (${solved.status}).`, solved.status), seconds: solved.seconds };
 }

@@ -71,7 +71,7 @@ describe('fleet programme (MILP)', () => {
       }),
       { numRuns: 150 },
     );
-  });
+  }, 120_000); // 150 random fleets, each solved and enumerated: seconds on a shared machine
 
   it('answers the greedy-by-profitability-index counterexample exactly', async () => {
     // Budget 10 M in one year. A has the best PI (gain 7.2 M on 6 M: 2.2) but blocks B + C (5.5 M on 5 M each: 2.1),
@@ -111,7 +111,7 @@ describe('fleet programme (MILP)', () => {
       }),
       { numRuns: 60 },
     );
-  });
+  }, 120_000);
 
   it('puts no swap in a month whose capacity is 0, and values the month', async () => {
     const t = (id: string, gainNow: number): ProgrammeTruck => ({
