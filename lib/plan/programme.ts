@@ -32,7 +32,10 @@
  *   +1,000,000; a month binds when it is full, and gets +1 swap. `gain` is
  *   the re-solved optimum less the optimum (≥ 0).
  * - HiGHS's model status, the relative MIP gap (0 when proven optimal:
- *   mip_rel_gap is set to 0) and the solve time in seconds.
+ *   mip_rel_gap is set to 0, mip_abs_gap to one unit of money) and the solve
+ *   time in seconds. Each solve stops at `timeLimitSeconds` (default 30):
+ *   then the best plan found is reported with status "time limit" and its
+ *   gap, or, with none found, `ok: false`.
  *
  * The LP text uses indices only (x0, x1, …; r0, …): no truck id or label ever
  * reaches the parser.
@@ -66,6 +69,11 @@ export interface ProgrammeInput {
   yearLabels?: string[];
   /** most swaps per month (index 0 = this month); months beyond the list have no limit */
   capacity: number[];
+  /**
+   * seconds each solve may take (default 30): past it the best plan found so far is reported with status
+   * "time limit" and its gap (a bound on how far it may be from the optimum); no plan found by then: not ok
+   */
+  timeLimitSeconds?: number;
   /** also re-solve each binding constraint relaxed by one unit (default true) */
   marginals?: boolean;
 }
@@ -114,6 +122,7 @@ export const BUDGET_STEP = 1_000_000;
 const SLACK = 1e-6;
 /** The solver stops when its bound is within this of the best plan found: one unit of money (the npvs are whole-money figures). */
 export const ABS_GAP = 1;
+export const DEFAULT_TIME_LIMIT = 30;
 
 type Highs = Awaited<ReturnType<typeof highsLoader>>;
 let loading: Promise<Highs> | null = null;
@@ -285,16 +294,18 @@ function runModel(model: Model, built: Built): Solved {
   const code = model.getModelStatus() as number;
   const status = STATUS_NAMES[code] ?? `status ${code}`;
   const seconds = model.getRunTime();
-  if (code !== 7) return { status, objective: Number.NaN, gap: Number.NaN, seconds, x: null };
+  // optimal, or stopped at the time limit with a feasible plan (then the gap says how far from proven)
+  const feasible = code === 7 || (code === 13 && Number(model.info.get('primal_solution_status')) === 2);
+  if (!feasible) return { status, objective: Number.NaN, gap: Number.NaN, seconds, x: null };
   const gap = Number(model.info.get('mip_gap'));
   return { status, objective: model.getObjectiveValue() + built.offset, gap, seconds, x: model.getSolution().colValue.slice() };
 }
 
 /** Solve the LP text; `then` reads the model's first solution before the model is freed. */
-function solveLp(highs: Highs, built: Built, then?: (first: Solved) => void): Solved {
+function solveLp(highs: Highs, built: Built, timeLimit: number, then?: (first: Solved) => void): Solved {
   const model = highs.createModel({ format: 'lp', data: built.text });
   try {
-    model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: ABS_GAP });
+    model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: ABS_GAP, time_limit: timeLimit });
     const first = runModel(model, built);
     if (first.x && then) then(first);
     return first;
@@ -324,7 +335,8 @@ export async function solveProgramme(input: ProgrammeInput, highs?: Highs): Prom
   const model: ProgrammeInput = { ...input, trucks: input.trucks.map((t) => ({ id: t.id, options: undominated(t.options) })) };
   const built = programmeLp(model);
   let result: ProgrammeResult | null = null;
-  const solved = solveLp(solver, built, (first) => {
+  const limit = input.timeLimitSeconds ?? DEFAULT_TIME_LIMIT;
+  const solved = solveLp(solver, built, limit, (first) => {
     const x = first.x as Float64Array;
     const objective = objectiveOf(model, built, x);
     const chosen = new Array<number>(model.trucks.length).fill(-1);
@@ -360,7 +372,7 @@ export async function solveProgramme(input: ProgrammeInput, highs?: Highs): Prom
         const budgets = b.kind === 'budget' ? model.budgets.map((v, y) => (y === b.index && v !== null ? v + b.relaxBy : v)) : model.budgets;
         const capacity = b.kind === 'capacity' ? model.capacity.map((v, m) => (m === b.index ? v + b.relaxBy : v)) : model.capacity;
         const again = programmeLp(model, budgets, capacity);
-        const s = solveLp(solver, again);
+        const s = solveLp(solver, again, limit);
         seconds += s.seconds;
         b.gain = s.x ? Math.max(0, objectiveOf(model, again, s.x) - objective) : 0;
       }

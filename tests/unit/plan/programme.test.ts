@@ -136,6 +136,32 @@ describe('fleet programme (MILP)', () => {
     expect(m1?.gain).toBeCloseTo(250_000, 3);
   });
 
+  it('stops at its time limit with the best plan so far and its gap, or says it found none', async () => {
+    // 40 trucks × 5 options over 6 months, tight budgets: a millisecond is seldom enough to prove the optimum
+    const next = (() => { let a = 7; return () => ((a = (a * 16807) % 2147483647) / 2147483647); })();
+    const trucks: ProgrammeTruck[] = Array.from({ length: 40 }, (_, t) => ({
+      id: `T${t}`,
+      options: [
+        { key: 'rebuild', label: 'rebuild', month: null, delayMonths: 0, npv: -10e6, capitalByYear: [0, 0] },
+        ...Array.from({ length: 4 }, (_, i) => {
+          const month = Math.floor(next() * 6);
+          return { key: `s${i}`, label: `swap ${i}`, month, delayMonths: i, npv: -10e6 + Math.round(next() * 2e6), capitalByYear: [0, 1].map((y) => (Math.floor(month / 3) === y ? 1e6 + Math.round(next() * 1e6) : 0)) };
+        }),
+      ],
+    }));
+    const budgets = [8e6, 8e6];
+    const capacity = [3, 3, 0, 3, 3, 3];
+    const r = await solveProgramme({ trucks, budgets, capacity, timeLimitSeconds: 1e-3, marginals: false });
+    expect(['optimal', 'time limit']).toContain(r.status);
+    if (r.ok) {
+      expect(r.gap).toBeGreaterThanOrEqual(0);
+      r.capitalByYear.forEach((sp, y) => expect(sp).toBeLessThanOrEqual(budgets[y] + 1e-6));
+      capacity.forEach((cap, m) => expect(r.swapsByMonth[m] ?? 0).toBeLessThanOrEqual(cap));
+    } else {
+      expect(r.message).toMatch(/stopped without a plan \(time limit\)/);
+    }
+  }, 120_000);
+
   it('says why in plain words when the input is empty or cannot be met', async () => {
     expect((await solveProgramme({ trucks: [], budgets: [], capacity: [] })).message).toMatch(/no trucks/i);
     const only = (month: number): ProgrammeTruck => ({ id: 'T1', options: [{ key: 'now', label: 'now', month, delayMonths: 0, npv: -1, capitalByYear: [0] }] });
