@@ -199,6 +199,11 @@ export function referencePath(
   truckId: string,
   policy: RefPolicy,
   ages: AgeSource,
+  /**
+   * repower only: the swap at the k-th planned event of the engine fitted today (lives before the k-th follow the
+   * rebuild rule), its life run on `delayHours` past the planned life (issue 15's timing options); default k = 1, 0 h
+   */
+  timing: { k: number; delayHours: number } = { k: 1, delayHours: 0 },
 ): RefPath {
   const c = valid(caseFile);
   const as = c.assumptions;
@@ -314,15 +319,20 @@ export function referencePath(
   // ---- period 0: an engine at or past its planned life has its planned event now; a repower "now"
   const atLifeNow = truck.engineHours >= e0.lifeHours - AGE_EPS;
   if (policy === 'rebuild' && atLifeNow) bookOverhaul(0);
-  if (policy === 'repower' && (offer.timing === 'now' || atLifeNow)) bookRepower(0, false);
+  if (policy === 'repower' && timing.k >= 2 && offer.timing !== 'now' && atLifeNow) bookOverhaul(0);
+  else if (policy === 'repower' && (offer.timing === 'now' || truck.engineHours >= e0.lifeHours + timing.delayHours - AGE_EPS)) {
+    bookRepower(0, false);
+  }
 
   /** The next event of the engine fitted: its age, and what it is. */
   const nextEvent = (): { at: number; kind: 'overhaul' | 'repair' | 'repower' | 'failed-swap'; failure: boolean } => {
-    const planned = policy === 'keep' ? Infinity : engine.lifeHours;
+    // the life that the repower ends (the k-th of the engine fitted today) runs `delayHours` past its planned life
+    const swapLife = policy === 'repower' && !repowered && lifeIndex + 1 >= timing.k;
+    const planned = policy === 'keep' ? Infinity : engine.lifeHours + (swapLife ? timing.delayHours : 0);
     // a failure age equal (within AGE_EPS) to the planned life is the planned event
     const failure = failAge < planned - AGE_EPS;
     const at = failure ? failAge : planned;
-    if (policy === 'repower' && !repowered) return { at, kind: failure ? 'failed-swap' : 'repower', failure };
+    if (swapLife) return { at, kind: failure ? 'failed-swap' : 'repower', failure };
     if (failure) return { at, kind: 'repair', failure };
     return { at, kind: 'overhaul', failure };
   };
