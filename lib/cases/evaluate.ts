@@ -13,6 +13,7 @@ import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from
 import { invalid, notFound, type Problem } from '@/lib/http';
 import { monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps } from '@/lib/plan';
 import { summariseFleet, timelines } from './summary';
+import { repowerDue } from './swap-due';
 import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
 
@@ -85,19 +86,34 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     const annual = file.trucks.find((t) => t.id === d.truckId)!.annualHours;
     trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
   }
-  const ranking = rankTrucks(result);
+  // each repower's due period and month (the traced repower on the median path, the planned one under the
+  // expected valuation: lib/cases/swap-due.ts); the period its capital is planned in is that of the swap
+  const due = new Map<string, { period: number; month: number } | null>();
+  const ranking = rankTrucks(result).map((r) => {
+    if (r.capitalYear === null) return r;
+    const input = file.trucks.find((t) => t.id === r.truckId)!;
+    const truckResult = result.trucks.find((t) => t.id === r.truckId)!;
+    const d = repowerDue({
+      valuation: file.assumptions.valuation,
+      engineHours: input.engineHours,
+      annualHours: input.annualHours,
+      remainingLifeHours: input.remainingLifeHours,
+      lifeHours: file.engines.find((e) => e.id === input.engineId)!.lifeHours,
+      timing: file.repowerOffers.find((o) => o.id === input.repowerOfferId)!.timing,
+      horizonYears: truckResult.horizonYears,
+      traced: trucks[r.truckId].events.repower.find((e) => e.kind === 'repower'),
+      fallbackPeriod: r.capitalYear,
+    });
+    due.set(r.truckId, d);
+    return d ? { ...r, capitalYear: d.period } : r;
+  });
   const candidates = ranking
     .filter((r) => r.capitalYear !== null)
     .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
   const budgets = Object.fromEntries(Object.entries(row.plan.budgets).map(([y, b]) => [Number(y), b]));
   const plan = planCapital(candidates, budgets);
-  // each chosen swap is due in the month of the repower event on the engine's own trace
   const requests = plan.years.flatMap((y) =>
-    y.chosen.map((c) => {
-      const ev = trucks[c.truckId].events.repower.find((e) => e.kind === 'repower');
-      const annual = trucks[c.truckId].annualHours;
-      return { truckId: c.truckId, gain: c.gain, dueMonth: ev ? ev.month : monthOfEvent(c.capitalYear, 0, annual) };
-    }),
+    y.chosen.map((c) => ({ truckId: c.truckId, gain: c.gain, dueMonth: due.get(c.truckId)?.month ?? monthOfEvent(c.capitalYear, 0, trucks[c.truckId].annualHours) })),
   );
   const yearOf = new Map(candidates.map((c) => [c.truckId, c.capitalYear]));
   const schedule = scheduleSwaps(requests, row.plan.swapsPerMonth).map((s) => ({
