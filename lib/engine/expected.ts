@@ -43,9 +43,10 @@
  * ## Error
  *
  * Every expected count is within about 6·10⁻⁶ of the exact expectation with
- * the default grid for β from 0.6 to 20 (renewal.ts gives the bound and the
- * test that holds it), and every money amount within 0.3 × MODEL.md's
- * 10⁻⁵ · (|npv of rebuild| + 1) on the demo fleet.
+ * the default grid for β from 0.5 to 20 (renewal.ts gives the bound, the
+ * centre-of-mass reading below β = 1, and the tests that hold it), and every
+ * money amount within 0.3 × MODEL.md's 10⁻⁵ · (|npv of rebuild| + 1) on the
+ * demo fleet (0.08 × at β = 0.5).
  *
  * ## Worked example (tests/unit/engine/expected-valuation.test.ts)
  *
