@@ -451,7 +451,12 @@ function expectedQuantities(setup: TruckSetup, policy: PolicyKey, f: FirstLife):
     truck.engineHours, truck.annualHours, truck.remainingLifeHours, n, setup.offer.timing, gridVersion(),
   ].join('|');
   const found = quantityCache.get(key);
-  if (found) return found;
+  if (found) {
+    // least recently used goes first: a sensitivity run's many changed inputs must not push out the base case's
+    quantityCache.delete(key);
+    quantityCache.set(key, found);
+    return found;
+  }
   const q = computeQuantities(setup, policy, f, hours, n);
   if (quantityCache.size >= QUANTITY_CACHE_SIZE) quantityCache.delete(quantityCache.keys().next().value as string);
   quantityCache.set(key, q);
