@@ -49,13 +49,14 @@ export async function run(): Promise<void> {
   for (const [name, c] of [['24 trucks (demo)', demo], ['200 trucks', valid(syntheticFleet(demo, 200))]] as const) {
     const drivers = listDrivers(c);
     for (const full of [true, false]) {
-      const m = time(`tornado, ${name}, ${drivers.length} drivers, ${full ? 'every truck' : 'touched trucks'}`, () => tornado(make(full, c), drivers), full ? 3 : 7);
+      const m = time(`tornado, ${name}, ${drivers.length} drivers, ${full ? 'every truck' : 'touched trucks'}`, () => tornado(make(full, c), drivers), full ? 1 : 5);
       if (!full && c !== demo) tornado200 = m;
     }
   }
   const drivers = listDrivers(demo);
   for (const full of [true, false]) {
-    time(`break-even, demo, ${drivers.length} drivers, ${full ? 'every truck' : 'touched trucks'}`, () => breakEvens(make(full, demo), drivers), 3);
+    // seconds a run: one timed run after the warm-up
+    time(`break-even, demo, ${drivers.length} drivers, ${full ? 'every truck' : 'touched trucks'}`, () => breakEvens(make(full, demo), drivers), 1);
   }
   const physical = drivers.find((d) => d.key === 'weibullScaleHours')!;
   for (const full of [true, false]) {

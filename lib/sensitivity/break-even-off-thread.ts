@@ -21,21 +21,22 @@ import { runBreakEven } from '@/lib/risk/requests';
 import type { BreakEvenJob, BreakEvenReply } from './break-even-job';
 
 export function breakEvenWorkerPath(): string {
-  return process.env.HAULCASE_BREAK_EVEN_WORKER ?? path.join(process.cwd(), '.haulcase', 'break-even-worker.cjs');
+  return process.env.HAULCASE_BREAK_EVEN_WORKER ?? path.join(/* turbopackIgnore: true */ process.cwd(), '.haulcase', 'break-even-worker.cjs');
 }
 
 let warned = false;
 
 export async function runBreakEvenOffThread(caseFile: BreakEvenJob['caseFile'], body: BreakEvenJob['body']): Promise<ReturnType<typeof runBreakEven>> {
   const bundle = breakEvenWorkerPath();
-  if (!existsSync(bundle)) {
+  // (the comments keep Turbopack from tracing the path: it would pull the whole app folder into the route)
+  if (!existsSync(/* turbopackIgnore: true */ bundle)) {
     if (!warned) console.warn(`break-even: no worker bundle at ${bundle} (npm run build:workers); computing on the request thread`);
     warned = true;
     return runBreakEven(caseFile, body);
   }
   const limit = Number(process.env.HAULCASE_BREAK_EVEN_TIME_LIMIT_MS ?? 120_000);
   const reply = await new Promise<BreakEvenReply>((resolve, reject) => {
-    const worker = new Worker(bundle);
+    const worker = new Worker(/* turbopackIgnore: true */ bundle);
     const timer = setTimeout(() => {
       void worker.terminate();
       reject(new HttpError(503, `The break-even analysis took longer than ${Math.round(limit / 1000)} s and was stopped; choose fewer drivers.`));
