@@ -5,9 +5,10 @@
  * worker is built on its own, with esbuild (installed with tsx).
  */
 import { buildMonteCarloWorker } from '../lib/risk/build-worker';
+import { buildBreakEvenWorker } from '../lib/sensitivity/build-break-even-worker';
 
-buildMonteCarloWorker()
-  .then((file) => console.log(`worker bundle: ${file}`))
+Promise.all([buildMonteCarloWorker(), buildBreakEvenWorker()])
+  .then((files) => files.forEach((file) => console.log(`worker bundle: ${file}`)))
   .catch((err) => {
     console.error(err);
     process.exit(1);

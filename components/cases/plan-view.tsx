@@ -73,6 +73,11 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
         </section>
         <section aria-label="Swap schedule" className="card overflow-x-auto p-3">
           <h2 className="text-sm font-semibold">Swap schedule: at most {data.case.plan.swapsPerMonth} a month, each in the month its engine is due</h2>
+          <p className="text-xs text-muted" data-testid="schedule-due-note">
+            {data.valuation === 'expected'
+              ? 'Due: the month the engine reaches its planned life (the planned repower; now for a repower now or an engine past its life). Its capital is planned in that year. The expected figures also count the chance that the engine fails first, which would bring the swap forward.'
+              : 'Due: the month of the repower on the median failure path (at the planned life, or at the median failure age when that comes first).'}
+          </p>
           <table className="data-table mt-2" data-testid="schedule-table">
             <thead><tr><th>Month</th><th>Truck</th><th>Due</th><th>Note</th></tr></thead>
             <tbody>

@@ -45,7 +45,7 @@ export function headlineOfRow(access: Access, row: Row): MailHeadline | null {
     const file = JSON.parse(row.submittedCase) as CaseFile;
     const settings = readPlanSettings(row.plan, row.createdAt ?? new Date().toISOString());
     const { result, details } = evaluateCaseDetailed(file, { trusted: true });
-    const proposal = buildProposal(result, timingFromDetails(file, details), settings);
+    const proposal = buildProposal(result, timingFromDetails(file, result, details), settings);
     const summary = buildDecisionSummary({
       caseId: row.id, caseName: row.name, status: row.status ?? 'submitted', source: 'submitted', currency: access.workspace.currency,
       fiscalYearStartMonth: access.workspace.settings.fiscalYearStartMonth, planStartMonth: settings.startMonth,

@@ -50,7 +50,7 @@ export interface DecisionContext {
 /** Evaluate a validated case file, build its proposal from the plan settings and its decision summary (with the top drivers). */
 export function decideFigures(file: CaseFile, ctx: DecisionContext): { result: CaseResult; proposal: Proposal; summary: DecisionSummary } {
   const { result, details } = evaluateCaseDetailed(file, { trusted: true });
-  const proposal = buildProposal(result, timingFromDetails(file, details), ctx.plan);
+  const proposal = buildProposal(result, timingFromDetails(file, result, details), ctx.plan);
   const summary = buildDecisionSummary({
     caseId: ctx.caseId,
     caseName: ctx.caseName,

@@ -12,7 +12,7 @@ import { db } from '@/lib/db';
 import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from '@/lib/engine';
 import { invalid, notFound, type Problem } from '@/lib/http';
 import { buildDecisionSummary } from './decision-summary';
-import { buildProposal } from './proposal';
+import { buildProposal, timingFromDetails } from './proposal';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
@@ -86,9 +86,7 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     const annual = file.trucks.find((t) => t.id === d.truckId)!.annualHours;
     trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
   }
-  const timing = Object.fromEntries(
-    Object.entries(trucks).map(([id, m]) => [id, { repowerMonth: m.events.repower.find((e) => e.kind === 'repower')?.month ?? null, annualHours: m.annualHours }]),
-  );
+  const timing = timingFromDetails(file, result, details);
   const { ranking, plan, schedule } = buildProposal(result, timing, row.plan);
   const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
   const source = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';

@@ -10,6 +10,8 @@
  * The same policy map is held fixed when a risk analysis varies the inputs
  * (the engine's `proposal` metric), so the risk pages test what is proposed.
  */
+import type { CaseFile } from '@/lib/engine';
+import { repowerDue } from './swap-due';
 import type { CaseResult, PolicyKey, TruckDetail } from '@/lib/engine/types';
 import { bestOtherPolicy, monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps, type CapitalPlan, type PlacedSwap, type RankedTruck } from '@/lib/plan';
 
@@ -32,9 +34,15 @@ export function proposalGainVsRebuild(result: CaseResult, policies: ProposalPoli
   return sum;
 }
 
-/** What the schedule needs of a truck: the month of its repower event on the engine's trace, and its annual hours. */
+/**
+ * What the plan and schedule need of a truck: when its repower is due (the
+ * period its capital is planned in and the month of the swap:
+ * lib/cases/swap-due.ts), and its annual hours. Null when no repower is due.
+ */
 export interface ProposalTruckTiming {
   repowerMonth: number | null;
+  /** period the repower's capital is planned in (null: the ranking's first period of spend) */
+  duePeriod: number | null;
   annualHours: number;
 }
 
@@ -63,13 +71,17 @@ export interface Proposal {
  * is shown and what is approved are one computation.
  */
 export function buildProposal(result: CaseResult, timing: Record<string, ProposalTruckTiming>, settings: PlanSettingsLike): Proposal {
-  const ranking = rankTrucks(result);
+  // the capital of a repower is planned in the period its swap is due
+  const ranking = rankTrucks(result).map((r) => {
+    const due = r.capitalYear === null ? null : timing[r.truckId]?.duePeriod;
+    return due === null || due === undefined ? r : { ...r, capitalYear: due };
+  });
   const candidates = ranking
     .filter((r) => r.capitalYear !== null)
     .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
   const budgets = Object.fromEntries(Object.entries(settings.budgets).map(([y, b]) => [Number(y), b]));
   const plan = planCapital(candidates, budgets);
-  // each chosen swap is due in the month of the repower event on the engine's own trace
+  // each chosen swap is placed from the month its repower is due
   const requests = plan.years.flatMap((y) =>
     y.chosen.map((c) => {
       const t = timing[c.truckId];
@@ -86,13 +98,38 @@ export function buildProposal(result: CaseResult, timing: Record<string, Proposa
   return { ranking, plan, schedule, policies: proposalPolicies(result, plan), chosen: chosenTrucks(plan) };
 }
 
-/** The schedule's timing of every truck from the engine's detailed trace (the first repower event of its repower policy). */
-export function timingFromDetails(file: { trucks: ReadonlyArray<{ id: string; annualHours: number }> }, details: readonly TruckDetail[]): Record<string, ProposalTruckTiming> {
+/**
+ * Every truck's repower timing (lib/cases/swap-due.ts): on the median path the
+ * repower event of the engine's trace, under the expected valuation the month
+ * the current engine reaches its planned life with no failure before it (or
+ * now). The server's evaluation, the freeze and the mails all call it.
+ */
+export function timingFromDetails(file: CaseFile, result: CaseResult, details: readonly TruckDetail[]): Record<string, ProposalTruckTiming> {
   const out: Record<string, ProposalTruckTiming> = {};
+  const firstSpend = new Map(rankTrucks(result).map((r) => [r.truckId, r.capitalYear]));
   for (const d of details) {
-    const annualHours = file.trucks.find((t) => t.id === d.truckId)?.annualHours ?? 0;
+    const input = file.trucks.find((t) => t.id === d.truckId);
+    const truck = result.trucks.find((t) => t.id === d.truckId);
+    if (!input || !truck) continue;
+    const annualHours = input.annualHours;
     const ev = d.policies.repower.events.find((e) => e.kind === 'repower');
-    out[d.truckId] = { repowerMonth: ev ? monthOfEvent(ev.period, ev.hourOfYear, annualHours) : null, annualHours };
+    const traced = ev ? { period: ev.period, month: monthOfEvent(ev.period, ev.hourOfYear, annualHours) } : undefined;
+    const fallbackPeriod = firstSpend.get(d.truckId) ?? null;
+    const due =
+      fallbackPeriod === null
+        ? null
+        : repowerDue({
+            valuation: file.assumptions.valuation,
+            engineHours: input.engineHours,
+            annualHours,
+            remainingLifeHours: input.remainingLifeHours,
+            lifeHours: file.engines.find((e) => e.id === input.engineId)!.lifeHours,
+            timing: file.repowerOffers.find((o) => o.id === input.repowerOfferId)!.timing,
+            horizonYears: truck.horizonYears,
+            traced,
+            fallbackPeriod,
+          });
+    out[d.truckId] = { repowerMonth: due?.month ?? null, duePeriod: due?.period ?? null, annualHours };
   }
   return out;
 }

@@ -42,6 +42,29 @@ export function monthOfEvent(period: number, hourOfYear: number, annualHours: nu
   return 12 * (period - 1) + Math.max(0, within);
 }
 
+/** Hours within which two times count as one (MODEL.md's ε on hours; an event within it of a year's end is booked in that year). */
+const HOUR_TOLERANCE = 1e-6;
+
+/**
+ * The period and month of a planned engine event `hoursToEvent` hours from
+ * now (e.g. a planned repower: lifeHours − engineHours, when no failure comes
+ * first), booked as MODEL.md section 3 books events: 0 or less (an engine at
+ * or past its life, a repower now) is period 0, month 0; otherwise the year y
+ * whose hours ((y−1)·A, y·A] hold it, the year's last hour included, at
+ * `monthOfEvent(y, hoursToEvent − (y−1)·A, A)`. An event at or after the
+ * horizon's last hour (`horizonHours` = min(remaining life, N·A)) does not
+ * happen: null. Timing (end-of-year or mid-year) moves discounting only, not
+ * the period an event is booked in.
+ *
+ * @example plannedEventMonth(20_000 − 12_600, 6_050, 60_000) // { period: 2, month: 14 }: 1,350 h into year 2
+ */
+export function plannedEventMonth(hoursToEvent: number, annualHours: number, horizonHours: number): { period: number; month: number } | null {
+  if (hoursToEvent <= HOUR_TOLERANCE) return { period: 0, month: 0 };
+  if (hoursToEvent >= horizonHours - HOUR_TOLERANCE || !(annualHours > 0)) return null;
+  const period = Math.max(1, Math.ceil((hoursToEvent - HOUR_TOLERANCE) / annualHours));
+  return { period, month: monthOfEvent(period, hoursToEvent - (period - 1) * annualHours, annualHours) };
+}
+
 export function scheduleSwaps(requests: SwapRequest[], perMonth: number): PlacedSwap[] {
   const cap = Math.max(1, Math.floor(perMonth));
   const load = new Map<number, number>();

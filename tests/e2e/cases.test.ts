@@ -167,6 +167,7 @@ describe('business cases in the browser', () => {
     const months = await page.getByTestId('schedule-table').locator('tbody tr td:first-child').allTextContents();
     expect(months.length).toBeGreaterThan(0);
     expect(new Set(months).size).toBe(months.length); // one swap a month
+    expect(await page.getByTestId('schedule-due-note').textContent()).toMatch(/month the engine reaches its planned life/);
     await screenshot(page, 'case-plan');
     // every result links to the methodology
     await page.getByRole('link', { name: /Methodology/ }).click();

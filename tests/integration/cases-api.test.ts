@@ -113,6 +113,20 @@ describe.each(backends)('business cases API on $name', ({ pg }) => {
     const perMonth = new Map<number, number>();
     for (const s of r.body.schedule) perMonth.set(s.month, (perMonth.get(s.month) ?? 0) + 1);
     expect(Math.max(...perMonth.values())).toBeLessThanOrEqual(2);
+    // each swap is due the month its engine reaches its planned life (expected valuation: the planned repower),
+    // worked by hand from the scenario: t = life − hours, year p = ⌈t / A⌉, month 12(p − 1) + ⌊12(t − (p − 1)A)/A⌋,
+    // and its capital is planned in year p
+    for (const s of r.body.schedule) {
+      const t = scenario.trucks.find((x: { id: string }) => x.id === s.truckId);
+      const life = scenario.engines.find((e: { id: string }) => e.id === t.engineId).lifeHours;
+      const toGo = life - t.engineHours;
+      const p = toGo <= 0 ? 0 : Math.ceil(toGo / t.annualHours);
+      const month = p === 0 ? 0 : 12 * (p - 1) + Math.floor((12 * (toGo - (p - 1) * t.annualHours)) / t.annualHours);
+      expect(s.dueMonth, s.truckId).toBe(month);
+      expect(s.capitalYear, s.truckId).toBe(p);
+      expect(r.body.ranking.find((x: { truckId: string }) => x.truckId === s.truckId).capitalYear).toBe(p);
+    }
+    expect(r.body.schedule.some((s: { capitalYear: number }) => s.capitalYear >= 2)).toBe(true);
     const truck = await call(getTruck, { workspace: WS, id: String(caseId), truckId: 'T3-01' });
     expect(truck.status).toBe(200);
     expect(truck.body.detail.policies.repower.periods.length).toBe(truck.body.result.horizonYears + 1);

@@ -6,6 +6,7 @@
  * factor (so the fleet's spread of annual hours is kept).
  */
 import type { CaseFileInput } from '@/lib/validation/case';
+import { touchesAnyTruck } from './touched';
 
 export type DriverScope = 'assumption' | 'engine' | 'offer' | 'truck';
 
@@ -145,6 +146,9 @@ export function cloneCase(c: CaseFileInput): CaseFileInput {
  * The drivers worth showing for a metric: the assumptions, then for one truck
  * its own figures, its engine, its offer and the offer's engine; for the fleet,
  * every engine and offer of the case and the trucks' figures as "*".
+ * A driver that touches no truck of the case (an engine type or offer no
+ * truck uses: `touchesAnyTruck` in touched.ts) is left out, since it cannot
+ * move any figure.
  */
 export function listDrivers(c: CaseFileInput, truckId?: string): DriverRef[] {
   const out: DriverRef[] = [];
@@ -167,7 +171,7 @@ export function listDrivers(c: CaseFileInput, truckId?: string): DriverRef[] {
   for (const id of offerIds) for (const key of of('offer')) out.push({ key, target: id });
   for (const id of engineIds) for (const key of of('engine')) out.push({ key, target: id });
   for (const key of of('truck')) out.push({ key, target: truckId ?? '*' });
-  return out;
+  return out.filter((d) => touchesAnyTruck(c, d));
 }
 
 /** A readable name: "Module price (kestrel-km2700)". */

@@ -2,4 +2,5 @@ export * from './drivers';
 export * from './metric';
 export * from './analyses';
 export * from './break-even';
+export * from './touched';
 export { findRoot } from './root';

@@ -5,8 +5,9 @@
 import type { CaseFileInput } from '@/lib/validation/case';
 import { evaluateNpvs } from '../evaluate';
 import type { PolicyKey } from '../types';
-import { fleetBestNpv, type CaseNpvs } from '../npv-only';
+import { createCaseNpvs, fleetBestNpv, type CaseNpvs } from '../npv-only';
 import { cloneCase, getDriver, setDriver, type DriverRef } from './drivers';
+import { trucksTouchedByAll } from './touched';
 
 /**
  * - `truck-delta`: one truck's Δnpv of repower against rebuild (USD);
@@ -77,13 +78,63 @@ export function checkProposalPolicies(validCase: CaseFileInput, policies: Readon
 
 /**
  * An evaluator over a validated case. For a one-truck metric only that truck
- * is evaluated (the others do not change it). A proposal evaluates the whole
- * fleet, as the fleet metrics do: a rebuilt truck adds 0, but an all-trucks
- * driver ("annualHours@*") is the fleet's mean and scales every truck, so the
- * same driver must mean the same on every fleet metric.
+ * is evaluated (the others do not change it). Otherwise the base case's npvs
+ * are kept, and each run re-evaluates only the trucks its drivers touch
+ * (`trucksTouched`: a driver on one engine type or offer touches the trucks
+ * that use it, an assumption every truck), the others keeping their base
+ * npvs: the same numbers as re-evaluating the whole case (a property test
+ * holds it), since each truck's npvs depend only on its own inputs and the
+ * metric sums the trucks in case order either way.
+ * An all-trucks driver ("annualHours@*") touches every truck, on every fleet
+ * metric alike (a proposal's rebuilt trucks add 0 but are still evaluated).
  */
 export function makeEvaluator(validCase: CaseFileInput, metric: Metric): Evaluator {
   if (metric.kind === 'proposal') checkProposalPolicies(validCase, metric.policies);
+  const base =
+    metric.kind === 'truck-delta' ? { ...validCase, trucks: validCase.trucks.filter((t) => t.id === metric.truckId) } : validCase;
+  if (base.trucks.length === 0) throw new RangeError(`no truck with id "${(metric as { truckId: string }).truckId}"`);
+  const work = cloneCase(base);
+  const count = base.trucks.length;
+  let baseNpvs: CaseNpvs | null = null;
+  const merged = createCaseNpvs(count);
+  const evaluate = (overrides: readonly Override[]): number => {
+    const touched = baseNpvs === null ? null : trucksTouchedByAll(work, overrides.map(([d]) => d));
+    if (touched === null || touched.length === count) {
+      const all = evaluateNpvs(work, { trusted: true });
+      if (baseNpvs === null) baseNpvs = all;
+      return readMetric(all, metric);
+    }
+    const from = baseNpvs as CaseNpvs;
+    merged.truckIds = from.truckIds;
+    merged.keep.set(from.keep);
+    merged.rebuild.set(from.rebuild);
+    merged.repower.set(from.repower);
+    for (let i = 0; i < count; i++) merged.best[i] = from.best[i];
+    if (touched.length > 0) {
+      const some = evaluateNpvs({ ...work, trucks: touched.map((i) => work.trucks[i]) }, { trusted: true });
+      touched.forEach((i, k) => {
+        merged.keep[i] = some.keep[k];
+        merged.rebuild[i] = some.rebuild[k];
+        merged.repower[i] = some.repower[k];
+        merged.best[i] = some.best[k];
+      });
+    }
+    return readMetric(merged, metric);
+  };
+  const at = (overrides: readonly Override[]): number => {
+    const saved = overrides.map(([d]) => getDriver(work, d));
+    for (const [d, v] of overrides) setDriver(work, base, d, v);
+    try {
+      return evaluate(overrides);
+    } finally {
+      for (let i = overrides.length - 1; i >= 0; i--) setDriver(work, base, overrides[i][0], saved[i]);
+    }
+  };
+  return { base, at, baseValue: at([]) };
+}
+
+/** The same evaluator re-evaluating every truck on every run (the plain definition the touched-trucks path must equal). */
+export function makeFullEvaluator(validCase: CaseFileInput, metric: Metric): Evaluator {
   const base =
     metric.kind === 'truck-delta' ? { ...validCase, trucks: validCase.trucks.filter((t) => t.id === metric.truckId) } : validCase;
   if (base.trucks.length === 0) throw new RangeError(`no truck with id "${(metric as { truckId: string }).truckId}"`);
