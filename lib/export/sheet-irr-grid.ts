@@ -66,8 +66,20 @@ function binomial(n: number, k: number): number {
   return r;
 }
 
-/** M[j][y] of piece p for horizon n (see the module comment). */
+const matrices = new Map<string, number[][]>();
+
+/** M[j][y] of piece p for horizon n (see the module comment); computed once per (n, p). */
 export function vincentMatrix(n: number, p: number): number[][] {
+  const key = `${n}:${p}`;
+  let m = matrices.get(key);
+  if (!m) {
+    if (matrices.size >= 8 * IRR_PIECES) matrices.clear(); // a few horizons' worth (at N = 100, 2.6 MB each)
+    matrices.set(key, (m = computeMatrix(n, p)));
+  }
+  return m;
+}
+
+function computeMatrix(n: number, p: number): number[][] {
   const xlo = 1 / (1 + rateOf(edgeStep(p + 1)));
   const xhi = 1 / (1 + rateOf(edgeStep(p)));
   const m: number[][] = [];
@@ -98,13 +110,15 @@ export function pieceTest(d: readonly number[]): { count: number; piece: number 
   for (let p = 0; p < IRR_PIECES; p++) {
     let variations = 0;
     let last = 0;
-    for (const row of vincentMatrix(n, p)) {
+    const m = vincentMatrix(n, p);
+    for (let j = 0; j <= n; j++) {
+      const row = m[j];
       let w = 0;
       let mag = 0;
-      row.forEach((c, y) => {
-        w += c * d[y];
-        mag += c * Math.abs(d[y]);
-      });
+      for (let y = 0; y <= n; y++) {
+        w += row[y] * d[y];
+        mag += row[y] * Math.abs(d[y]);
+      }
       if (!(Math.abs(w) > DOUBT * mag)) return { count: -1, piece: '' };
       const sign = w > 0 ? 1 : -1;
       if (last !== 0 && sign !== last) variations++;
