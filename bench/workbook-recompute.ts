@@ -11,7 +11,7 @@
  * Then whether a 2,000-truck workbook recomputes at all (one run, timed).
  * Skipped, saying so, where `soffice` is not installed.
  */
-import { execFile, spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
@@ -40,10 +40,24 @@ function convert(profile: string, input: string, timeoutMs: number): Promise<{ m
     const time = spawnSync('sh', ['-c', 'command -v /usr/bin/time'], { encoding: 'utf8' }).stdout.trim();
     const args = [`-env:UserInstallation=file://${profile}`, '--headless', '--norestore', '--convert-to', 'xlsx', '--outdir', outDir, input];
     const [cmd, argv] = time ? [time, ['-f', 'PEAKKB %M CPU %U %S', 'soffice', ...args]] : ['soffice', args];
-    execFile(cmd, argv, { timeout: timeoutMs, maxBuffer: 1 << 20 }, (err, _stdout, stderr) => {
+    // its own process group, so a timeout ends soffice.bin too (not only the wrapper that started it)
+    const child = spawn(cmd, argv, { detached: true, stdio: ['ignore', 'ignore', 'pipe'] });
+    let stderr = '';
+    child.stderr.on('data', (b: Buffer) => (stderr = (stderr + b.toString()).slice(-4096)));
+    let timedOut = false;
+    const timer = setTimeout(() => {
+      timedOut = true;
+      try {
+        process.kill(-(child.pid as number), 'SIGKILL');
+      } catch {
+        // already gone
+      }
+    }, timeoutMs);
+    child.on('close', (code) => {
+      clearTimeout(timer);
       const ms = performance.now() - t0;
-      const m = /PEAKKB (\d+) CPU ([\d.]+) ([\d.]+)/.exec(String(stderr));
-      let ok = !err;
+      const m = /PEAKKB (\d+) CPU ([\d.]+) ([\d.]+)/.exec(stderr);
+      let ok = !timedOut && code === 0;
       try {
         ok = ok && statSync(path.join(outDir, path.basename(input))).size > 0;
       } catch {
