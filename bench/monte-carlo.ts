@@ -13,6 +13,6 @@ export async function run(): Promise<void> {
   const root = path.resolve(__dirname, '..');
   const worker = await buildMonteCarloWorker(root);
   const outfile = await bundleForNode(path.join(__dirname, 'support', 'monte-carlo-main.ts'), path.join(root, '.haulcase', 'bench-monte-carlo.cjs'), root);
-  const r = spawnSync(process.execPath, [outfile, root, worker], { stdio: 'inherit' });
+  const r = spawnSync(process.execPath, ['--expose-gc', outfile, root, worker], { stdio: 'inherit' });
   if (r.status !== 0) throw new Error(`the Monte Carlo benchmark exited with ${r.status ?? r.signal}`);
 }

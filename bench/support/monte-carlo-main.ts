@@ -14,6 +14,8 @@
  *
  * Then memory over 50 warm runs of the same size (`memoryOverRuns`): each
  * run's 24 MB result buffer used to stay alive in the workers for good.
+ * Run with --expose-gc (bench/monte-carlo.ts does) so the main thread's
+ * garbage is collected before each memory reading.
  */
 import { readFileSync } from 'node:fs';
 import os from 'node:os';
@@ -21,7 +23,7 @@ import path from 'node:path';
 import { validateCase } from '@/lib/engine';
 import { runIterations, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
-import { drainPool, prewarm, runInWorkers } from '@/lib/risk/pool';
+import { drainPool, pooledBufferBytes, prewarm, recycledPools, runInWorkers, setRecycleIdleMs } from '@/lib/risk/pool';
 import { syntheticFleet } from './synthetic-fleet';
 
 const ITERATIONS = 10_000;
@@ -29,7 +31,6 @@ const TRUCKS = 100;
 
 /** `root`: the project folder; `bundle`: the worker bundle, already built. */
 async function main(root: string, bundle: string): Promise<void> {
-  const restingRss = process.memoryUsage().rss;
   const base = JSON.parse(readFileSync(path.join(root, 'scenarios', 'aldervane-north-pit.json'), 'utf8'));
   const v = validateCase(syntheticFleet(base, TRUCKS));
   if (!v.ok) throw new Error('synthetic fleet is not a valid case');
@@ -71,39 +72,58 @@ async function main(root: string, bundle: string): Promise<void> {
   await runInWorkers(bundle, demo.value, { ...spec, iterations: 2000 }, { workers: 2, stop: new SharedArrayBuffer(4) }).finished;
   console.log(`demo mine, 2,000 iterations × ${demo.value.trucks.length} trucks in 2 warm workers: ${((performance.now() - d0) / 1000).toFixed(2)} s`);
 
-  await memoryOverRuns(bundle, v.value, spec, restingRss, 50);
+  await memoryOverRuns(bundle, demo.value, v.value, spec, 50);
 }
 
 const MIB = 2 ** 20;
 
+/** Resident memory of the whole process (workers included), the main thread's garbage collected first. */
+function rss(): number {
+  (globalThis as { gc?: () => void }).gc?.();
+  return process.memoryUsage().rss;
+}
+
 /**
  * Resident memory of the process (workers included) over `runs` warm runs,
- * run as the server's jobs run them. Before the result buffers were pooled,
- * each run's buffer (24 MB at 10,000 × 100) stayed alive in the workers for
- * good: 50 runs held 1.2 GB more than one. Now what is left is the workers'
- * own heaps, which V8 collects now and then, so memory wanders a few tens of
- * MB. Target: the peak over the runs no more than 4 buffers above memory
- * after the first run.
+ * run as the server's jobs run them, then once the pool has been idle long
+ * enough to be recycled (here 2 s; the server waits HAULCASE_MC_RECYCLE_MS,
+ * 60 s by default). At rest: a pool freshly warmed as the server warms it at
+ * start-up. Before the result buffers were pooled each run's 24 MB buffer
+ * stayed alive in the workers: 50 runs held 1.2 GB more than one. Targets:
+ * the peak no more than 4 result buffers above memory after the first run,
+ * and memory after recycling within 24 MiB of its level at rest.
  */
-async function memoryOverRuns(bundle: string, c: CaseFileInput, spec: MonteCarloSpec, restingRss: number, runs: number): Promise<void> {
+async function memoryOverRuns(bundle: string, demo: CaseFileInput, c: CaseFileInput, spec: MonteCarloSpec, runs: number): Promise<void> {
+  await drainPool(bundle);
+  await prewarm(bundle, demo, { workers: 2 });
+  const resting = rss();
+  setRecycleIdleMs(2000);
   let afterFirst = 0;
   let peak = 0;
   for (let i = 1; i <= runs; i++) {
     await runInWorkers(bundle, c, spec, { workers: 2, stop: new SharedArrayBuffer(4), keepNpvs: false }).finished;
-    const rss = process.memoryUsage().rss;
-    if (i === 1) afterFirst = rss;
-    peak = Math.max(peak, rss);
+    const now = rss();
+    if (i === 1) afterFirst = now;
+    peak = Math.max(peak, now);
   }
-  const after = process.memoryUsage().rss;
+  const after = rss();
+  const recycled = recycledPools();
+  const t0 = performance.now();
+  while (recycledPools() === recycled && performance.now() - t0 < 30_000) await new Promise((r) => setTimeout(r, 100));
+  const idle = rss();
   const buffer = c.trucks.length * 3 * 8 * spec.iterations;
   const mib = (b: number) => `${(b / MIB).toFixed(0)} MiB`;
   console.log(
-    `memory over ${runs} runs of ${spec.iterations.toLocaleString('en-US')} × ${c.trucks.length}: at rest ${mib(restingRss)}, after run 1 ${mib(afterFirst)}, ` +
-      `peak ${mib(peak)}, after run ${runs} ${mib(after)}; load average ${os.loadavg()[0].toFixed(2)}`,
+    `memory over ${runs} runs of ${spec.iterations.toLocaleString('en-US')} × ${c.trucks.length}: at rest (2 warm workers) ${mib(resting)}, after run 1 ${mib(afterFirst)}, ` +
+      `peak ${mib(peak)}, after run ${runs} ${mib(after)}, once the idle pool is recycled ${mib(idle)} ` +
+      `(free buffers ${mib(pooledBufferBytes())}; recycled after ${((performance.now() - t0) / 1000).toFixed(1)} s); load average ${os.loadavg()[0].toFixed(2)}`,
   );
   console.log(
     `target: peak within 4 result buffers (${mib(4 * buffer)}) of after run 1 → ${peak - afterFirst <= 4 * buffer ? 'met' : 'NOT met'} ` +
       `(${mib(peak - afterFirst)}; without pooling it would be ${mib((runs - 1) * buffer)})`,
+  );
+  console.log(
+    `target: memory back to its resting level once idle (within 24 MiB) → ${idle - resting <= 24 * MIB ? 'met' : 'NOT met'} (${idle >= resting ? '+' : ''}${mib(idle - resting)})`,
   );
 }
 

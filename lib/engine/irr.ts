@@ -201,6 +201,37 @@ function visit(s: RootSearch, ka: number, kb: number, fa: number, fb: number): v
   visit(s, km, kb, fm, fb);
 }
 
+/** Sign changes along `values`, zero entries skipped (Descartes' bound on the roots x > 0 of Σ values[y]·x^y). */
+export function signVariations(values: readonly number[]): number {
+  let last = 0;
+  let n = 0;
+  for (const v of values) {
+    if (v === 0) continue;
+    const sign = v > 0 ? 1 : -1;
+    if (last !== 0 && sign !== last) n++;
+    last = sign;
+  }
+  return n;
+}
+
+/**
+ * Flows whose own signs change once (an investment, then returns only, the
+ * usual case): by Descartes' rule f(x) = Σ values[y]·x^y has exactly one
+ * root x > 0, a simple one, so over the grid the sum keeps one sign below
+ * the root and the other above it. The grid then holds one root when the
+ * sums at its two ends differ in sign (found by halving the steps between,
+ * about 14 sums) or one of them is exactly 0, and none otherwise.
+ */
+function oneSignChange(values: readonly number[], limit: number): IrrRoot[] {
+  const s: RootSearch = { values, coef: new Float64Array(0), mag: new Float64Array(0), work: new Float64Array(0), workMag: new Float64Array(0), roots: [], limit };
+  const f0 = gridValue(s, IRR_GRID_FIRST_K);
+  const fLast = gridValue(s, IRR_GRID_LAST_K);
+  if (f0 === 0) s.roots.push({ lo: irrGridRate(IRR_GRID_FIRST_K), hi: irrGridRate(IRR_GRID_FIRST_K), exact: true });
+  else if (fLast === 0) s.roots.push({ lo: irrGridRate(IRR_GRID_LAST_K), hi: irrGridRate(IRR_GRID_LAST_K), exact: true });
+  else if (opposite(f0, fLast) && limit > 0) locateCrossing(s, IRR_GRID_FIRST_K, IRR_GRID_LAST_K, f0, fLast);
+  return s.roots.slice(0, limit);
+}
+
 /**
  * The same roots as `scanIrrRoots`, found without visiting every step.
  *
@@ -212,13 +243,15 @@ function visit(s: RootSearch, ka: number, kb: number, fa: number, fb: number): v
  * steps, judged exactly as the scan judges them. Where rounding makes a
  * coefficient's sign doubtful the run is halved too, and a run whose ends
  * disagree with the bound is scanned step by step, so the answer is the
- * scan's. Stops once `limit` roots are found.
+ * scan's. Flows whose own signs change once skip all that (`oneSignChange`).
+ * Stops once `limit` roots are found.
  */
 export function findIrrRoots(values: readonly number[], limit = Infinity): IrrRoot[] {
   // the zero polynomial is zero at every step: nothing to isolate
   let allZero = true;
   for (const v of values) if (v !== 0) allZero = false;
   if (allZero) return scanIrrRoots(values).slice(0, limit);
+  if (signVariations(values) === 1) return oneSignChange(values, limit);
   // f(x) = x^lo · g(x) with g of degree hi − lo: same roots for x > 0, so the bounds work on g (cheaper)
   let lo = 0;
   while (values[lo] === 0) lo++;

@@ -10,7 +10,7 @@ import type ExcelJS from 'exceljs';
 import type { Comparison, TruckResult } from '@/lib/engine/types';
 import { FMT, addr, setFormula, styleHeader } from './cells';
 import { C, type BlockRefs } from './policy-block';
-import type { IrrGridRefs } from './sheet-irr-grid';
+import { pieceTest, type IrrGridRefs } from './sheet-irr-grid';
 
 export const COMPARISONS = [
   { key: 'repowerVsRebuild', first: 'repower', second: 'rebuild', label: 'Repower vs rebuild' },
@@ -103,7 +103,7 @@ export function writeComparisons(
   // results table
   const r0 = last + 2;
   const hr = ws.getRow(r0);
-  hr.values = ['Comparison', 'ΔNPV', 'IRR', 'Sign changes of ΔCF', 'IRR roots on the grid', 'MIRR', 'Payback (years)', 'Discounted payback (years)', 'Profitability index'];
+  hr.values = ['Comparison', 'ΔNPV', 'IRR', 'Sign changes of ΔCF', 'IRR roots on the grid', 'MIRR', 'Payback (years)', 'Discounted payback (years)', 'Profitability index', 'IRR roots by pieces (−1: grid scanned)', 'Piece holding the root'];
   styleHeader(hr);
   COMPARISONS.forEach((cmp, k) => {
     const r = r0 + 1 + k;
@@ -115,15 +115,40 @@ export function writeComparisons(
     const a = blocks[cmp.first];
     const capital = `${addr(a.firstRow, C.capital)}:${addr(a.lastRow, C.capital)}`;
     const dfs = `${addr(a.firstRow, C.df)}:${addr(a.lastRow, C.df)}`;
-    const pvAt = (rates: string) => `MMULT((1+${rates})^(-${grid.years(n)}),${d})`;
+    const years = grid.years(n);
+    const pvAt = (rates: string) => `MMULT((1+${rates})^(-${years}),${d})`;
     const cell = (c: number) => ws.getCell(r, c);
     const B = addr(r, 2);
     ws.getCell(r, 1).value = cmp.label;
     setFormula(cell(2), `SUM(${range(K.dd)})`, cmpResult.deltaNpv);
-    const roots = `SUMPRODUCT(--((${pvAt(grid.lo)}*${pvAt(grid.hi)})<0))+SUMPRODUCT(--(${pvAt(grid.all)}=0))`;
-    setFormula(cell(5), roots);
-    // Newton from inside the grid bracket of the one root lands on that root
-    const guess = `SUMPRODUCT(((${pvAt(grid.lo)}*${pvAt(grid.hi)})<0)*${grid.lo})+0.0005+SUMPRODUCT((${pvAt(grid.all)}=0)*${grid.all})`;
+    // the piece test (sheet-irr-grid.ts): roots inside each of the grid's pieces, bounded by the signs of M·ΔCF
+    const v = grid.vincent(n);
+    const pc = grid.pieces;
+    const perPiece = `MMULT(--(${pc.numbers}=TRANSPOSE(${v.ids})),--(MMULT(${v.top},${d})*MMULT(${v.bottom},${d})<0))`;
+    const doubtful = `SUMPRODUCT(--(ABS(MMULT(${v.all},${d}))<=0.000000001*MMULT(${v.all},ABS(${d}))))`;
+    const edgeZero = `(${pvAt(pc.edges)}=0)`;
+    const second = result.options[cmp.second].cashFlows;
+    const test = pieceTest(result.options[cmp.first].cashFlows.map((x, y) => x - second[y]));
+    const J = addr(r, 10);
+    const Kc = addr(r, 11);
+    setFormula(
+      cell(10),
+      `IF(OR(${doubtful}>0,SUMPRODUCT(--(${perPiece}>1))>0),-1,SUMPRODUCT(${perPiece})+SUMPRODUCT(--${edgeZero}))`,
+      test.count,
+    );
+    setFormula(cell(11), `IF(${J}=1,SUMPRODUCT(${perPiece}*${pc.numbers}),"")`, test.piece);
+    // where the test cannot decide: every step of the grid, as MODEL.md writes the rule
+    const gridRoots = `SUMPRODUCT(--((${pvAt(grid.lo)}*${pvAt(grid.hi)})<0))+SUMPRODUCT(--(${pvAt(grid.all)}=0))`;
+    setFormula(cell(5), `IF(${J}>=0,${J},${gridRoots})`);
+    // Newton from inside the grid bracket of the one root lands on that root: the bracket is searched in the
+    // root's piece only, or is the edge where ΔCF's present value is exactly 0, or (undecided) on the whole grid
+    const bracketGuess = (lo: string, hi: string) =>
+      `SUMPRODUCT(((${pvAt(lo)}*${pvAt(hi)})<0)*${lo})+0.0005+SUMPRODUCT((${pvAt(hi)}=0)*${hi})`;
+    const inPiece = (ref: string, at: 'first' | 'last') => `INDEX(${ref},INDEX(${pc[at]},${Kc}))`;
+    const pieceLo = `${inPiece(grid.lo, 'first')}:${inPiece(grid.lo, 'last')}`;
+    const pieceHi = `${inPiece(grid.hi, 'first')}:${inPiece(grid.hi, 'last')}`;
+    const gridGuess = `SUMPRODUCT(((${pvAt(grid.lo)}*${pvAt(grid.hi)})<0)*${grid.lo})+0.0005+SUMPRODUCT((${pvAt(grid.all)}=0)*${grid.all})`;
+    const guess = `IF(${J}=1,IF(${Kc}=0,SUMPRODUCT(${edgeZero}*${pc.edges}),${bracketGuess(pieceLo, pieceHi)}),${gridGuess})`;
     setFormula(cell(3), `IF(AND(${addr(r, 5)}=1,${firstSign}<0),IFERROR(IRR(${d},${guess}),"n/a"),"n/a")`, na(cmpResult.irr));
     setFormula(cell(4), `SUM(${range(K.change)})`, cmpResult.irrSignChanges);
     setFormula(
@@ -138,7 +163,7 @@ export function writeComparisons(
       `IF(ABS(SUMPRODUCT(${capital},${dfs}))<${EPS},"n/a",1+${B}/(-SUMPRODUCT(${capital},${dfs})))`,
       na(cmpResult.profitabilityIndex),
     );
-    [FMT.money, FMT.rate, FMT.count, FMT.count, FMT.rate, FMT.years, FMT.years, FMT.qty2].forEach((fmt, i) => {
+    [FMT.money, FMT.rate, FMT.count, FMT.count, FMT.rate, FMT.years, FMT.years, FMT.qty2, FMT.count, FMT.count].forEach((fmt, i) => {
       cell(2 + i).numFmt = fmt;
       cell(2 + i).alignment = { horizontal: 'right' };
     });

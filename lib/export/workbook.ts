@@ -33,13 +33,14 @@ export function buildWorkbook({ caseFile: c, evaluated, meta }: WorkbookInput): 
   const dep = addDepreciationSheet(wb, maxN + 1);
   const lib = addLibrarySheets(wb, c, details, meta);
   const taken = new Set<string>(wb.worksheets.map((w) => w.name.toLowerCase()).concat(['plan', 'irr grid']));
-  const grid = irrGridRefs();
+  const horizons = result.trucks.map((t) => t.horizonYears);
+  const grid = irrGridRefs(maxN, horizons);
   const refs = c.trucks.map((t, i) =>
     addTruckSheet(wb, truckSheetName(i, t.id, taken), c, t, details[i], result.trucks[i], lib, dep, grid),
   );
   fillSummarySheet(summary, result, refs, c.currency);
   if (meta.plan && meta.plan.length) addPlanSheet(wb, meta.plan);
-  addIrrGridSheet(wb, maxN);
+  addIrrGridSheet(wb, maxN, horizons);
   return wb;
 }
 

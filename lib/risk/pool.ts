@@ -15,6 +15,13 @@
  * that thread next collects garbage, which an allocation-free worker hardly
  * ever does, so a new buffer per run kept every run's 24 MB (10,000 × 100
  * trucks) alive for good. A run copies the npvs it reports out of its buffer.
+ *
+ * What a warm worker's heap gains over many runs (V8 collects an idle thread
+ * lazily) and the free buffers are given back once the pool has been idle
+ * for a while (`HAULCASE_MC_RECYCLE_MS`, 60 s by default; 0 = never): the idle
+ * workers are ended, the free buffers dropped, and, where the server warmed
+ * the pool at start-up, fresh workers are warmed the same way, so memory
+ * returns to its level after start-up and the next run still finds warm workers.
  */
 import { Worker } from 'node:worker_threads';
 import type { MonteCarloResult, MonteCarloSpec, TruckRisk } from '@/lib/engine/monte-carlo';
@@ -132,6 +139,7 @@ export function prewarm(bundle: string, validCase: CaseFileInput, o: { workers: 
       ...(offer ? [{ driver: `modulePrice@${offer.id}`, distribution: { kind: 'normal' as const, mean: offer.modulePrice, sd: offer.modulePrice / 10, min: 0, max: 2 * offer.modulePrice } }] : []),
     ],
   };
+  recycle.recipes.set(bundle, { validCase, workers: o.workers, iterations: o.iterations });
   const stop = new SharedArrayBuffer(4);
   const run = runInWorkers(bundle, validCase, spec, { workers: o.workers, stop, warmUp: true, keepNpvs: false });
   const finished = run.finished.then(
@@ -152,6 +160,67 @@ function stopWarmUp(): Promise<unknown> {
   if (!warming) return Promise.resolve();
   Atomics.store(warming.stop, 0, 1);
   return warming.finished;
+}
+
+interface Recycling {
+  /** idle time after the last real run before the pool is recycled; 0: never */
+  idleMs: number;
+  /** real runs (not warm-ups) in progress, per bundle */
+  active: Map<string, number>;
+  timers: Map<string, ReturnType<typeof setTimeout>>;
+  /** how each bundle was warmed at start-up, to warm its fresh workers the same way */
+  recipes: Map<string, { validCase: CaseFileInput; workers: number; iterations?: number }>;
+  /** pools recycled so far (the benchmark and tests wait on it) */
+  count: number;
+}
+const recycleHolder = globalThis as unknown as { __haulcaseMcRecycle?: Recycling };
+const recycle = (recycleHolder.__haulcaseMcRecycle ??= {
+  idleMs: Number(process.env.HAULCASE_MC_RECYCLE_MS ?? 60_000),
+  active: new Map(),
+  timers: new Map(),
+  recipes: new Map(),
+  count: 0,
+});
+
+/** Set how long the pool may sit idle before it is recycled (0: never); the benchmark and tests. */
+export function setRecycleIdleMs(ms: number): void {
+  recycle.idleMs = ms;
+}
+
+/** Pools recycled since the process started. */
+export function recycledPools(): number {
+  return recycle.count;
+}
+
+function runStarted(bundle: string): void {
+  const t = recycle.timers.get(bundle);
+  if (t) clearTimeout(t);
+  recycle.timers.delete(bundle);
+  recycle.active.set(bundle, (recycle.active.get(bundle) ?? 0) + 1);
+}
+
+function runEnded(bundle: string): void {
+  const left = (recycle.active.get(bundle) ?? 1) - 1;
+  recycle.active.set(bundle, left);
+  if (left > 0 || !(recycle.idleMs > 0)) return;
+  const timer = setTimeout(() => {
+    recycle.timers.delete(bundle);
+    if ((recycle.active.get(bundle) ?? 0) === 0) void recyclePool(bundle);
+  }, recycle.idleMs);
+  timer.unref(); // an idle pool must not keep the process alive
+  recycle.timers.set(bundle, timer);
+}
+
+/**
+ * End the idle workers of a bundle and drop the free buffers, then warm fresh
+ * workers as at start-up (when the pool was warmed then). Memory returns to
+ * its level after start-up; a run that starts meanwhile stops the warm-up.
+ */
+export async function recyclePool(bundle: string): Promise<void> {
+  await drainPool(bundle);
+  const recipe = recycle.recipes.get(bundle);
+  if (recipe && (recycle.active.get(bundle) ?? 0) === 0) await prewarm(bundle, recipe.validCase, recipe);
+  recycle.count++;
 }
 
 /** End every idle worker of a bundle and drop the free result buffers (the benchmark's cold start; tests). */
@@ -225,6 +294,7 @@ export function runInWorkers(
   // filled once the workers are taken (after any warm-up has handed its workers back)
   const workers: Worker[] = [];
   const ready = o.warmUp ? Promise.resolve() : stopWarmUp();
+  if (!o.warmUp) runStarted(bundle);
 
   const runs = ready.then(() => {
     for (let w = 0; w < count; w++) workers.push(takeWorker(bundle));
@@ -285,5 +355,11 @@ export function runInWorkers(
     // terminated workers write nothing more: the buffer can serve another run
     void Promise.all(workers.map((w) => w.terminate())).then(() => releaseBuffer(out));
   });
+  if (!o.warmUp) {
+    finished.then(
+      () => runEnded(bundle),
+      () => runEnded(bundle),
+    );
+  }
   return { workers, finished };
 }

@@ -104,6 +104,18 @@ describe('workbook recomputed by LibreOffice', () => {
     const irrs = result.trucks.flatMap((t) => [t.repowerVsRebuild.irr, t.repowerVsKeep.irr, t.rebuildVsKeep.irr]);
     expect(irrs.some((x) => x === null)).toBe(true);
     expect(irrs.some((x) => x !== null)).toBe(true);
+    // the IRR root count is decided by the piece test for most comparisons and on the whole grid for some:
+    // both ways of counting are exercised (column J of each comparison table: −1 where the grid was scanned)
+    const byPieces: unknown[] = [];
+    for (const f of figs) {
+      const sheet = recomputed.getWorksheet(f.sheet) as ExcelJS.Worksheet;
+      sheet.eachRow((row, r) => {
+        if (row.getCell(1).value === 'Comparison') for (let k = 1; k <= 3; k++) byPieces.push(valueOf(sheet.getCell(r + k, 10)));
+      });
+    }
+    expect(byPieces).toHaveLength(3 * figs.length);
+    expect(byPieces.some((x) => x === -1)).toBe(true);
+    expect(byPieces.some((x) => typeof x === 'number' && x >= 0)).toBe(true);
     // fleet totals on the Summary sheet
     const total = (recomputed.getWorksheet('Summary') as ExcelJS.Worksheet).getCell(5 + demo.trucks.length, 7);
     expect(Math.abs((valueOf(total) as number) - result.fleet.npv.best)).toBeLessThan(1e-6 * Math.abs(result.fleet.npv.best));

@@ -95,6 +95,29 @@ describe('irr properties', () => {
     );
   });
 
+  it('the fast root search finds exactly the scan\'s roots where the flows change sign once (investment, then returns)', () => {
+    // negatives (or zeros) first, then positives (or zeros): one sign change, the path that brackets on the grid's ends
+    const oneChange = fc
+      .tuple(
+        fc.array(fc.oneof(fc.constant(0), fc.double({ min: -1e6, max: -1e-3, noNaN: true })), { minLength: 1, maxLength: 6 }),
+        fc.array(fc.oneof(fc.constant(0), fc.double({ min: 1e-3, max: 1e6, noNaN: true })), { minLength: 1, maxLength: 10 }),
+        fc.double({ min: -1e6, max: -1e-3, noNaN: true }),
+        fc.double({ min: 1e-3, max: 1e6, noNaN: true }),
+      )
+      .map(([neg, pos, n, p]) => [...neg, n, p, ...pos]);
+    let found = 0;
+    fc.assert(
+      fc.property(oneChange, (x) => {
+        const roots = scanIrrRoots(x);
+        found += roots.length;
+        expect(findIrrRoots(x)).toEqual(roots);
+        expect(findIrrRoots(x, 1)).toEqual(roots.slice(0, 1));
+      }),
+      { numRuns: 300 },
+    );
+    expect(found).toBeGreaterThan(100); // most such flows have their one rate on the grid
+  });
+
   it('the fast root search agrees with the scan on engine ΔCF too', () => {
     fc.assert(
       fc.property(caseArb, (c) => {

@@ -12,7 +12,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { validateCase } from '@/lib/engine';
 import { runIterations, summariseRun, type MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
-import { chunkSize, drainPool, leaseBuffer, pooledBufferBytes, prewarm, releaseBuffer, runInWorkers } from '@/lib/risk/pool';
+import { chunkSize, drainPool, leaseBuffer, pooledBufferBytes, prewarm, recycledPools, releaseBuffer, runInWorkers, setRecycleIdleMs } from '@/lib/risk/pool';
 
 const raw = JSON.parse(readFileSync(path.resolve(__dirname, '../../../scenarios/aldervane-north-pit.json'), 'utf8'));
 const v = validateCase(raw);
@@ -129,6 +129,31 @@ describe('runInWorkers', () => {
     expect(pooledBufferBytes()).toBe((4 + 16) * 2 ** 20); // b (1 MiB) dropped
     releaseBuffer(d);
     expect(leaseBuffer(2 ** 20)).toBe(a);
+  });
+
+  it('once idle, ends its workers and drops its free buffers, warms fresh workers as at start-up, and gives the same numbers after', async () => {
+    await drainPool(bundle);
+    await prewarm(bundle, demo, { workers: 2, iterations: 200 }); // as the server does at start-up: the recipe for later
+    const big = { ...spec, iterations: 3000, seed: 7 };
+    setRecycleIdleMs(50);
+    try {
+      const recycled = recycledPools();
+      const first = runInWorkers(bundle, demo, big, { workers: 2, stop: new SharedArrayBuffer(4) });
+      const before = await first.finished;
+      const oldThreads = first.workers.map((w) => w.threadId);
+      expect(pooledBufferBytes()).toBeGreaterThanOrEqual(3000 * demo.trucks.length * 3 * 8);
+      for (let waited = 0; recycledPools() === recycled && waited < 20_000; waited += 25) await new Promise((r) => setTimeout(r, 25));
+      expect(recycledPools()).toBe(recycled + 1);
+      // the big run's buffer is gone; what is left is the fresh warm-up's own small one
+      expect(pooledBufferBytes()).toBeLessThan(3000 * demo.trucks.length * 3 * 8);
+      const again = runInWorkers(bundle, demo, big, { workers: 2, stop: new SharedArrayBuffer(4) });
+      const after = await again.finished;
+      expect(again.workers.map((w) => w.threadId).some((id) => oldThreads.includes(id))).toBe(false);
+      expect(Array.from(after.npvs)).toEqual(Array.from(before.npvs));
+      expect(after.result).toEqual(before.result);
+    } finally {
+      setRecycleIdleMs(0);
+    }
   });
 
   it('shares the iterations out in chunks of about a fiftieth of each worker\'s share, and never less than a progress step', () => {
