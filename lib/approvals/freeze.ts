@@ -81,7 +81,8 @@ export interface FreezeContext {
 }
 
 /**
- * Freezes a case inside the approving transaction: the case/1 exactly as it was
+ * Freezes a case for the approving transaction (computed just before it from the
+ * submitted row; `decideCase` stores it only if the row is unchanged): the case/1 exactly as it was
  * submitted, its case-result/1, the proposal its saved plan makes (budgets,
  * shop capacity, chosen trucks, capital plan, swap schedule) with its decision
  * summary, and the pinned Monte Carlo run, as one canonical JSON record
@@ -92,7 +93,7 @@ export interface FreezeContext {
  * snapshots were kept has none; it is built from the stored data as before.
  */
 export async function freezeCase(
-  trx: Knex.Transaction,
+  trx: Knex,
   row: CaseRow,
   ctx: FreezeContext,
 ): Promise<{ frozenCase: string; frozenResult: string; frozenRecord: string; frozenHash: string }> {

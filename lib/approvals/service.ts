@@ -61,13 +61,20 @@ export async function submitCase(access: Access, id: number, input: { comment: s
 
 export async function decideCase(access: Access, id: number, input: { decision: Decision; comment: string; version?: number }) {
   const k = db();
+  const freezeContext = { currency: access.workspace.currency, fiscalYearStartMonth: access.workspace.settings.fiscalYearStartMonth };
+  // The frozen record's figures (the evaluation and the decision summary's tornado: a second or more on a large
+  // case) are computed before the transaction, so the database is not held while the engine runs. A submitted
+  // case cannot change (edits, plan and pinned run are refused while submitted); should its row have moved on
+  // by the time the transaction reads it, the record is computed again inside it.
+  const before = input.decision === 'approve' ? await loadCase(k, access.workspace.id, id) : null;
+  const prepared = before && before.status === 'submitted' ? { version: before.version, frozen: await freezeCase(k, before, freezeContext) } : null;
   const result = await k.transaction(async (trx) => {
     const row = await loadCase(trx, access.workspace.id, id);
     checkVersion(row, input.version);
     const state = await workflowState(trx, row, access.workspace.settings.approvalsRequired);
     const step = orThrow(canDecide(state, access.role, access.userId, input.decision, input.comment));
     const at = nowIso();
-    const frozen = step.next === 'approved' ? await freezeCase(trx, row, { currency: access.workspace.currency, fiscalYearStartMonth: access.workspace.settings.fiscalYearStartMonth }) : {};
+    const frozen = step.next === 'approved' ? (prepared?.version === row.version ? prepared.frozen : await freezeCase(trx, row, freezeContext)) : {};
     const patch = {
       status: step.next,
       ...(step.final ? { decidedAt: at } : {}),
