@@ -4,7 +4,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { ApiError, sendJson } from '@/lib/fetcher';
 
-type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus' };
+type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; numberFormat: 'point' | 'comma' };
 
 /** Display units and negative style (admins). Stored values stay metric; the register, the engine library and the truck and engine forms read and take the chosen units. */
 export function DisplaySettings({ slug, initial, canEdit }: { slug: string; initial: Settings; canEdit: boolean }) {
@@ -40,6 +40,14 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
             {s === 'parentheses' ? '(1,250)' : '−1,250'}
           </label>
         ))}
+        <p className="label mt-3">Typing numbers</p>
+        {(['point', 'comma'] as const).map((f) => (
+          <label key={f} className="mr-4 text-sm">
+            <input type="radio" name="numberFormat" value={f} checked={values.numberFormat === f} onChange={() => setValues({ ...values, numberFormat: f })} />{' '}
+            {f === 'point' ? '18,950.5 (decimal point)' : '18.950,5 (decimal comma)'}
+          </label>
+        ))}
+        <p className="mt-1 text-xs text-muted">How the forms and the fleet import read typed numbers; thousands may also be grouped with spaces. Figures on pages and in downloads are shown as before.</p>
       </fieldset>
       {canEdit ? <button type="submit" className="btn btn-primary mt-3">Save display settings</button> : <p className="mt-3 text-xs text-muted">Only a workspace admin can change these.</p>}
       {message ? <p role="status" className="mt-2 text-sm">{message}</p> : null}

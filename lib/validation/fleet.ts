@@ -4,6 +4,7 @@
  * Numeric constraints come from the case/1 schema (MODEL.md section 9) so a
  * record the register accepts is one the engine accepts.
  */
+import { NUMBER_FORMATS } from '@/lib/number-input';
 import { z } from '@/lib/validation/zod';
 import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema } from './case';
 import { stripControlKeepingLines } from './control-characters';
@@ -96,6 +97,8 @@ export type AssumptionSetInput = z.output<typeof assumptionSetInputSchema>;
 export const displaySettingsSchema = z.strictObject({
   units: z.enum(['metric', 'us'], 'must be "metric" or "us"').optional(),
   negativeStyle: z.enum(['parentheses', 'minus'], 'must be "parentheses" or "minus"').optional(),
+  /** how numbers are typed and imported (lib/number-input.ts) */
+  numberFormat: z.enum(NUMBER_FORMATS, 'must be "point" (18,950.5) or "comma" (18.950,5)').optional(),
 });
 
 // ---------------------------------------------------------------- case-file upload
