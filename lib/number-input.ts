@@ -33,7 +33,13 @@ export const numberExample = (format: NumberFormat) => `18${MARKS[format].group}
 
 export type ParsedNumber = { ok: true; value: number | null } | { ok: false; message: string };
 
-export type NumberRange = { min?: number; max?: number; integer?: boolean };
+export type NumberRange = {
+  min?: number;
+  max?: number;
+  integer?: boolean;
+  /** the example in messages, in the workspace's format (a form gives the field's own value); default 18,950 or 18.950 */
+  example?: string;
+};
 
 const SPACES = /[\u0020\u00a0\u2007\u2009\u202f]/;
 
@@ -60,7 +66,7 @@ const rangeText = (x: number, format: NumberFormat) => formatNumberText(x, forma
  */
 export function parseNumberText(text: string, format: NumberFormat, range: NumberRange = {}): ParsedNumber {
   const { decimal, group, word } = MARKS[format];
-  const example = numberExample(format);
+  const example = range.example ?? numberExample(format);
   const s = text.trim();
   if (s === '') return { ok: true, value: null };
   if (s.length > 100) return { ok: false, message: `enter a number such as ${example}` };

@@ -135,10 +135,13 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
       const parent = path.reduce<FieldValues | undefined>((v, key) => (v && typeof v === 'object' ? (v[key] as FieldValues) : undefined), out);
       if (!parent) continue;
       const raw = parent[last];
-      const r = typeof raw === 'number' ? { ok: true as const, value: raw } : parseNumberText(raw == null ? '' : String(raw), numberFormat);
+      // the field's first value is the example a message gives ("Load factor: enter a number such as 0.48")
+      const first = shownAtFirst[f.name] ?? storedAt(f.name);
+      const example = typeof first === 'number' ? formatNumberText(first, numberFormat, true) : numberExample(numberFormat);
+      const r = typeof raw === 'number' ? { ok: true as const, value: raw } : parseNumberText(raw == null ? '' : String(raw), numberFormat, { example });
       let message: string | null = null;
       if (!r.ok) message = r.message;
-      else if (r.value === null && !f.nullable) message = `enter a number such as ${numberExample(numberFormat)}`;
+      else if (r.value === null && !f.nullable) message = `enter a number such as ${example}`;
       if (message) {
         const at = path.reduce<Record<string, unknown>>((o, key) => (o[key] ??= {}) as Record<string, unknown>, errors);
         at[last] = { type: 'number', message: `${plainLabel(f)}: ${message}` };

@@ -56,6 +56,7 @@ describe('parseNumberText: one rule for forms and imports', () => {
     expect(message('0x10')).toBe('enter a number such as 18,950');
     expect(message('1.')).toBe('enter a number such as 18,950');
     expect(message('9'.repeat(101))).toBe('enter a number such as 18,950');
+    expect(message('abc', 'point', { example: '0.48' })).toBe('enter a number such as 0.48');
   });
 
   it('refuses an exponent', () => {
