@@ -53,4 +53,30 @@ describe('typing numbers in the truck form', () => {
     expect(await k('trucks').where({ workspaceId: ws.id, unitNumber: UNIT }).first('engineHours', 'loadFactor')).toEqual({ engineHours: 18950, loadFactor: 0.5 });
     await signOut(page);
   });
+
+  it('after an admin picks the decimal comma, the form shows 0,5 and takes 18.950,5', async () => {
+    const { page, baseURL } = b;
+    await signIn(page, baseURL, 'admin@aldervane.test');
+    await page.goto(`${baseURL}/${WS}/settings`);
+    await page.getByLabel('18.950,5 (decimal comma)').check();
+    await page.getByRole('button', { name: 'Save display settings' }).click();
+    await page.getByText('Saved.').waitFor();
+    try {
+      await page.goto(`${baseURL}/${WS}/fleet`);
+      await page.getByRole('button', { name: `Edit ${UNIT}` }).click();
+      const form = page.getByTestId('truck-form');
+      expect(await form.getByLabel('Load factor (0–1)').inputValue()).toBe('0,5');
+      await form.getByLabel('Engine hours (h)').fill('18.950,5');
+      await form.getByRole('button', { name: 'Save truck' }).click();
+      await form.waitFor({ state: 'detached' });
+      const ws = await k('workspaces').where({ slug: WS }).first('id');
+      expect((await k('trucks').where({ workspaceId: ws.id, unitNumber: UNIT }).first('engineHours')).engineHours).toBe(18950.5);
+    } finally {
+      await page.goto(`${baseURL}/${WS}/settings`);
+      await page.getByLabel('18,950.5 (decimal point)').check();
+      await page.getByRole('button', { name: 'Save display settings' }).click();
+      await page.getByText('Saved.').waitFor();
+      await signOut(page);
+    }
+  });
 });
