@@ -16,7 +16,7 @@ export function CaseResults({ slug, caseId }: { slug: string; caseId: number }) 
     <div className="space-y-4">
       <div>
         <h2 className="text-base font-semibold">
-          {data.case.name} <span className="text-sm font-normal text-muted">— {data.case.assumptionSetName} assumptions, {data.result.trucks.length} trucks, {data.case.status}; evaluated in {data.evaluatedMs} ms</span>{' '}
+          {data.case.name} <span className="text-sm font-normal text-muted">— {data.case.assumptionSetName} assumptions, {data.result.trucks.length} trucks, {data.case.status}</span>{' '}
           <ValuationBadge valuation={data.valuation} />
         </h2>
         <p className="text-xs text-muted">{VALUATION_NOTE[data.valuation]}</p>

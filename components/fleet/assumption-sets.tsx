@@ -102,6 +102,7 @@ export function AssumptionSets({ ws }: { ws: WorkspaceView }) {
             onCancel={() => setEditing(null)}
             extraActions={editing === 'new' ? null : <button type="button" className="btn btn-danger" onClick={() => remove(editing)}>Delete</button>}
             testId="assumption-form"
+            numberFormat={ws.numberFormat}
           />
         </div>
       ) : ws.canEdit ? (

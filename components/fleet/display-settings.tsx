@@ -5,12 +5,13 @@ import { useState } from 'react';
 import { ApiError, sendJson } from '@/lib/fetcher';
 import { MONTH_NAMES } from '@/lib/plan/fiscal-year';
 
-type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; fiscalYearStartMonth: number };
+type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; fiscalYearStartMonth: number; numberFormat: 'point' | 'comma' };
 
 const UNIT_LABELS: Record<Settings['units'], string> = { metric: 'Metric (kW, L, g/kWh, L/h)', us: 'US customary (hp, US gal, lb/hp-h, gal/h)' };
 const NEGATIVE_LABELS: Record<Settings['negativeStyle'], string> = { parentheses: '(1,250)', minus: '−1,250' };
+const NUMBER_FORMAT_LABELS: Record<Settings['numberFormat'], string> = { point: '18,950.5 (decimal point)', comma: '18.950,5 (decimal comma)' };
 
-/** Display units and negative style (admins). Stored values stay metric; the register, the engine library and the truck and engine forms read and take the chosen units. */
+/** Display units, negative style, how numbers are typed and the fiscal year's first month (admins; read-only text for others). Stored values stay metric; the register, the engine library and the truck and engine forms read and take the chosen units. */
 export function DisplaySettings({ slug, initial, canEdit }: { slug: string; initial: Settings; canEdit: boolean }) {
   const router = useRouter();
   const [values, setValues] = useState(initial);
@@ -35,6 +36,10 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
           <dd data-testid="setting-units">{UNIT_LABELS[initial.units]}</dd>
           <dt className="text-muted">Negative amounts</dt>
           <dd data-testid="setting-negative">{NEGATIVE_LABELS[initial.negativeStyle]}</dd>
+          <dt className="text-muted">Typing numbers</dt>
+          <dd data-testid="setting-number-format">{NUMBER_FORMAT_LABELS[initial.numberFormat]}</dd>
+          <dt className="text-muted">Fiscal year starts</dt>
+          <dd data-testid="setting-fiscal-year">{MONTH_NAMES[initial.fiscalYearStartMonth - 1]}</dd>
         </dl>
         <p className="mt-3 text-xs text-muted" data-testid="settings-who-changes">Only a workspace admin can change these settings; ask one of your admins.</p>
       </section>
@@ -76,6 +81,14 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
             ? ' (January start: FY2027 is the calendar year 2027).'
             : ` (${MONTH_NAMES[values.fiscalYearStartMonth - 1]} start: FY2027 runs from ${MONTH_NAMES[values.fiscalYearStartMonth - 1]} 2026 to ${MONTH_NAMES[values.fiscalYearStartMonth - 2]} 2027).`}
         </p>
+        <p className="label mt-3">Typing numbers</p>
+        {(['point', 'comma'] as const).map((f) => (
+          <label key={f} className="mr-4 text-sm">
+            <input type="radio" name="numberFormat" value={f} checked={values.numberFormat === f} onChange={() => setValues({ ...values, numberFormat: f })} />{' '}
+            {NUMBER_FORMAT_LABELS[f]}
+          </label>
+        ))}
+        <p className="mt-1 text-xs text-muted">How the forms and the fleet import read typed numbers; thousands may also be grouped with spaces. Figures on pages and in downloads are shown as before.</p>
       </fieldset>
       <button type="submit" className="btn btn-primary mt-3">Save display settings</button>
       {message ? <p role="status" className="mt-2 text-sm">{message}</p> : null}

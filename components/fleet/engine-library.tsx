@@ -66,6 +66,7 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
             schema={engineInputSchema}
             fields={fieldsFor(ws.currency)}
             units={ws.units}
+            numberFormat={ws.numberFormat}
             defaultValues={editing === 'new' ? { key: '', name: '', notes: '' } : editing}
             submitLabel={editing === 'new' ? 'Add engine type' : 'Save engine type'}
             onSubmit={save}

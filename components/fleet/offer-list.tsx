@@ -71,6 +71,7 @@ export function OfferList({ ws }: { ws: WorkspaceView }) {
             onSubmit={save}
             onCancel={() => setEditing(null)}
             testId="offer-form"
+            numberFormat={ws.numberFormat}
           />
         </div>
       ) : ws.canEdit ? (

@@ -58,6 +58,7 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
         schema={truck ? truckUpdateSchema.omit({ version: true }) : truckInputSchema}
         fields={fields}
         units={ws.units}
+        numberFormat={ws.numberFormat}
         defaultValues={defaults}
         submitLabel={truck ? 'Save truck' : 'Add truck'}
         onSubmit={save}

@@ -1,8 +1,9 @@
 import type { UnitSystem } from '@/lib/display-units';
+import type { NumberFormat } from '@/lib/number-input';
 import type { NegativeStyle } from '@/lib/format';
 
 /** What a page tells its client components about the workspace and the caller. */
-export type WorkspaceView = { slug: string; canEdit: boolean; units: UnitSystem; negativeStyle: NegativeStyle; currency: string };
+export type WorkspaceView = { slug: string; canEdit: boolean; units: UnitSystem; negativeStyle: NegativeStyle; currency: string; numberFormat: NumberFormat };
 
 export type Versioned = { id: number; version: number; updatedAt: string };
 

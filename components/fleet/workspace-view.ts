@@ -11,5 +11,6 @@ export function toWorkspaceView(access: Access): WorkspaceView {
     units: access.workspace.settings.units,
     negativeStyle: access.workspace.settings.negativeStyle,
     currency: access.workspace.currency,
+    numberFormat: access.workspace.settings.numberFormat,
   };
 }

@@ -1,6 +1,7 @@
 import 'server-only';
 import { db } from '../db';
 import { forbidden, unauthorized } from '../http';
+import type { NumberFormat } from '../number-input';
 import { CAN, type Role } from './roles';
 import { getSessionUserId } from './session';
 
@@ -10,13 +11,15 @@ export type WorkspaceSettings = {
   approvalsRequired: number;
   /** month (1..12) the fiscal year starts in; a fiscal year is named after the calendar year it ends in */
   fiscalYearStartMonth: number;
+  /** how numbers are typed and imported: 18,950.5 (point) or 18.950,5 (comma); lib/number-input.ts */
+  numberFormat: NumberFormat;
 };
 
 export type Workspace = { id: number; slug: string; name: string; currency: string; settings: WorkspaceSettings };
 
 export type Access = { userId: number; workspace: Workspace; role: Role };
 
-const DEFAULT_SETTINGS: WorkspaceSettings = { units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1, fiscalYearStartMonth: 1 };
+const DEFAULT_SETTINGS: WorkspaceSettings = { units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1, fiscalYearStartMonth: 1, numberFormat: 'point' };
 
 export function parseSettings(text: string | null | undefined): WorkspaceSettings {
   try {

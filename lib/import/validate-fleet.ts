@@ -1,3 +1,4 @@
+import { parseNumberText, type NumberFormat } from '@/lib/number-input';
 import { truckInputSchema, type TruckInput } from '@/lib/validation/fleet';
 import { FIELD_TO_COLUMN, FLEET_COLUMNS } from './columns';
 import type { Cell, Table } from './read-table';
@@ -13,16 +14,15 @@ export type ImportLookups = {
   trucks: Map<string, number>;
 };
 
-const NUMBER = /^-?(\d+|\d{1,3}(,\d{3})+)(\.\d+)?([eE][-+]?\d+)?$/;
-
-function readNumber(c: Cell): { value: number | null } | { error: string } {
+/** A number cell: a spreadsheet number as it is, text by the one rule of forms and imports (lib/number-input.ts) in the workspace's format. */
+function readNumber(c: Cell, format: NumberFormat): { value: number | null } | { error: string } {
   if (c === null) return { value: null };
   if (typeof c === 'number') return Number.isFinite(c) ? { value: c } : { error: 'is not a finite number' };
   if (typeof c === 'object') return { error: `is a formula (=${c.formula}); enter the value instead` };
   const s = c.trim();
   if (s === '') return { value: null };
-  if (!NUMBER.test(s)) return { error: `"${s.slice(0, 40)}" is not a number` };
-  return { value: Number(s.replace(/,/g, '')) };
+  const r = parseNumberText(s, format);
+  return r.ok ? { value: r.value } : { error: `"${s.slice(0, 40)}" is not a number: ${r.message}` };
 }
 
 function readText(c: Cell): { value: string } | { error: string } {
@@ -53,7 +53,7 @@ export function checkHeader(header: string[]): RowProblem[] {
  * offer keys, and plans a create or an update per unit number. Every problem
  * is listed (row, column, reason); nothing is written here.
  */
-export function planFleetImport(table: Table, lookups: ImportLookups): FleetImportPlan {
+export function planFleetImport(table: Table, lookups: ImportLookups, format: NumberFormat = 'point'): FleetImportPlan {
   const problems = checkHeader(table.header);
   if (problems.length) return { problems, rows: [], creates: 0, updates: 0 };
   if (table.rows.length === 0) return { problems: [{ row: 2, column: '(file)', message: 'The file has a header but no data rows.' }], rows: [], creates: 0, updates: 0 };
@@ -72,7 +72,7 @@ export function planFleetImport(table: Table, lookups: ImportLookups): FleetImpo
     for (const col of FLEET_COLUMNS) {
       const cell = cells[index.get(col.name)!] ?? null;
       if (col.kind === 'number') {
-        const r = readNumber(cell);
+        const r = readNumber(cell, format);
         if ('error' in r) add(col.name, r.error);
         else if (r.value === null && col.required) add(col.name, 'is required');
         else raw[col.field] = r.value;

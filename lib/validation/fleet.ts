@@ -4,6 +4,7 @@
  * Numeric constraints come from the case/1 schema (MODEL.md section 9) so a
  * record the register accepts is one the engine accepts.
  */
+import { NUMBER_FORMATS } from '@/lib/number-input';
 import { z } from '@/lib/validation/zod';
 import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema } from './case';
 import { stripControlKeepingLines } from './control-characters';
@@ -103,6 +104,8 @@ export const displaySettingsSchema = z.strictObject({
     .min(1, 'must be a month from 1 (January) to 12 (December)')
     .max(12, 'must be a month from 1 (January) to 12 (December)')
     .optional(),
+  /** how numbers are typed and imported (lib/number-input.ts) */
+  numberFormat: z.enum(NUMBER_FORMATS, 'must be "point" (18,950.5) or "comma" (18.950,5)').optional(),
 });
 
 // ---------------------------------------------------------------- case-file upload

@@ -50,7 +50,9 @@ describe('case export from the case page', () => {
 
     const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('link', { name: 'Summary CSV' }).click()]);
     const text = fs.readFileSync(await csv.path(), 'utf8');
-    expect(text.split('\r\n')[0]).toContain('NPV keep (USD)');
+    expect(text.split('\r\n')[0]).toContain('NPV keep (USD, rounded to cents)');
+    // money to the cent: the first truck's NPV keep has at most two decimals
+    expect(text.split('\r\n')[1].split(',')[2]).toMatch(/^-?\d+(\.\d{1,2})?$/);
     expect(truckCount).toBeGreaterThanOrEqual(24);
     expect(text.split('\r\n')).toHaveLength(1 + truckCount + 1 + 1);
   });

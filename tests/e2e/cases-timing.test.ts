@@ -43,10 +43,11 @@ describe('time to evaluate and render a case', () => {
       await page.goto(`${baseURL}/${slug}/cases/${id}`);
       await page.getByTestId('truck-table').locator(`tbody tr >> nth=${trucks - 1}`).waitFor();
       runs.push(Date.now() - t0);
-      server = Number((await page.getByRole('heading', { level: 2 }).first().textContent())?.match(/evaluated in (\d+) ms/)?.[1]);
     }
+    // the server's own figure is in the API answer, not on the page
+    server = (await (await context.request.get(`${baseURL}/api/workspaces/${slug}/cases/${id}/result`)).json()).evaluatedMs;
     expect(await page.getByTestId('truck-table').locator('tbody tr').count()).toBe(trucks);
-    console.log(`[timing] ${trucks} trucks: page load + server evaluation + render ${runs.join(', ')} ms (server evaluation ${server} ms on the last run)`);
+    console.log(`[timing] ${trucks} trucks: page load + server evaluation + render ${runs.join(', ')} ms (server evaluation ${server} ms on a further request)`);
   }
 
   it('the demo case (24 trucks, plus any other browser tests added)', async () => {

@@ -92,8 +92,8 @@ describe.each([
   it('refuses a bad number on row 7 with its row, column and reason', async () => {
     const rows = [1, 2, 3, 4, 5, 6, 7].map((i) => row(`T9-0${i}`));
     rows[5] = row('T9-06', { engine_hours_h: '12k' }); // file row 7: the header is row 1
-    const body = await expectRefused('fleet.csv', csv(rows), /row 7, engine_hours_h: "12k" is not a number/);
-    expect(body.problems).toEqual([{ path: 'row 7, engine_hours_h', message: '"12k" is not a number' }]);
+    const body = await expectRefused('fleet.csv', csv(rows), /row 7, engine_hours_h: "12k" is not a number: enter a number such as 18,950/);
+    expect(body.problems).toEqual([{ path: 'row 7, engine_hours_h', message: '"12k" is not a number: enter a number such as 18,950' }]);
   });
 
   it('refuses 10,001 rows with the limit in the message', async () => {
@@ -121,6 +121,22 @@ describe.each([
     const rows = [row('T9-01', { engine_type: 'no-such-engine' }), row('T9-02'), row('T9-02')];
     const body = await expectRefused('fleet.csv', csv(rows), /row 2, engine_type: no engine type has the key "no-such-engine"/);
     expect(body.problems).toContainEqual({ path: 'row 4, unit_number', message: '"T9-02" is already on row 3' });
+  });
+
+  it('reads numbers by the workspace format, as the forms do: a decimal comma workspace takes 18.950 and 0,47, and no one takes 1e3', async () => {
+    await expectRefused('fleet.csv', csv([row('T9-05', { engine_hours_h: '1e3' })]), /row 2, engine_hours_h: "1e3" is not a number: write the number in full, without an exponent \(e\)/);
+    await expectRefused('fleet.csv', csv([row('T9-05', { load_factor: '0,47' })]), /row 2, load_factor: "0,47" is not a number: enter a number such as 0\.47 \(this workspace writes decimals with a point\)/);
+    const wsRow = await k('workspaces').where({ slug: WS }).first('id', 'settings');
+    await k('workspaces').where({ id: wsRow.id }).update({ settings: JSON.stringify({ ...JSON.parse(wsRow.settings || '{}'), numberFormat: 'comma' }) });
+    try {
+      const rows = [row('T9-05', { engine_hours_h: '18.950', load_factor: '0,47', tonnes_per_hour: '1 234,5' })];
+      const commit = await call(importFleet, { workspace: WS }, { body: form('fleet.csv', csv(rows), 'commit') });
+      expect(commit.status).toBe(200);
+      expect(await k('trucks').where({ unitNumber: 'T9-05' }).first()).toMatchObject({ engineHours: 18950, loadFactor: 0.47, tonnesPerHour: 1234.5 });
+      await k('trucks').where({ unitNumber: 'T9-05' }).delete();
+    } finally {
+      await k('workspaces').where({ id: wsRow.id }).update({ settings: wsRow.settings });
+    }
   });
 
   it('refuses a formula cell in an XLSX file', async () => {

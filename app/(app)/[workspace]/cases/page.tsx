@@ -16,7 +16,7 @@ export default async function CasesPage({ params }: { params: Promise<{ workspac
     <>
       <PageHeader
         title="Business cases"
-        subtitle={<>Keep, rebuild or repower, truck by truck, with NPV, payback and a capital plan. <Link className="text-accent underline" href={`/${workspace}/methodology`}>How the figures are computed</Link></>}
+        subtitle={<>Keep, rebuild or repower, truck by truck, with NPV, payback and a capital plan. <Link className="text-accent underline" href={`/${workspace}/methodology`}>How the figures are computed</Link> · <Link className="text-accent underline" href={`/${workspace}/cases/compare`}>Compare two cases</Link></>}
       />
       <CasesList slug={workspace} canEdit={hasRole(access, CAN.edit)} />
       <SafetyCaution />

@@ -1,4 +1,5 @@
 import type { Metadata } from 'next';
+import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { CaseNav } from '@/components/cases/case-nav';
@@ -12,6 +13,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
+import { fetchPreviousRevision } from '@/lib/cases/compare-load';
 import { fetchCase } from '@/lib/db/queries/cases';
 
 export const metadata: Metadata = { title: 'Case results' };
@@ -24,12 +26,14 @@ export default async function CasePage({ params, searchParams }: Props) {
   const access = await getPageAccess(workspace);
   const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
   if (!c) notFound();
+  const previous = await fetchPreviousRevision(access.workspace.id, c.id);
   return (
     <>
       <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Results" />
       <PageHeader title={c.name} subtitle="The proposal the saved plan makes, then NPV of keep, rebuild and repower for every truck, the best policy and the gain of repowering." action={<><DecisionPackLink slug={workspace} caseId={c.id} /><ExportButtons slug={workspace} caseId={c.id} /></>} />
       <CaseNav slug={workspace} caseId={c.id} current="results" />
       <div className="mb-4"><DecisionSummaryPanel slug={workspace} caseId={c.id} negativeStyle={access.workspace.settings.negativeStyle} /></div>
+      {previous ? <p className="mb-3 text-sm"><Link className="text-accent underline" href={`/${workspace}/cases/compare?a=${previous.id}&b=${c.id}`}>What changed since the previous revision ({previous.name}, #{previous.id})</Link></p> : null}
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}
       <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
       <CaseResults slug={workspace} caseId={c.id} />

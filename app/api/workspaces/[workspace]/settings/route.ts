@@ -8,7 +8,7 @@ import { nowIso } from '@/lib/time';
 import { displaySettingsSchema } from '@/lib/validation/fleet';
 
 /**
- * PATCH { units?, negativeStyle?, fiscalYearStartMonth? }: display settings of the workspace (admins).
+ * PATCH { units?, negativeStyle?, fiscalYearStartMonth?, numberFormat? }: display settings of the workspace (admins).
  * Only the fields sent change; other settings are merged as stored.
  */
 export const PATCH = route<{ workspace: string }>(async (req, { params }) => {

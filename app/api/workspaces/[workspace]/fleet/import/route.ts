@@ -42,12 +42,12 @@ export const POST = route<{ workspace: string }>(async (req, { params }) => {
   }
   const wsId = access.workspace.id;
   if (mode === 'preview') {
-    const plan = planFleetImport(table, await loadImportLookups(db(), wsId));
+    const plan = planFleetImport(table, await loadImportLookups(db(), wsId), access.workspace.settings.numberFormat);
     return NextResponse.json(summary(file.name, plan));
   }
   // Plan and write inside one transaction so the unit numbers matched are the ones updated.
   const result = await db().transaction(async (trx) => {
-    const plan = planFleetImport(table, await loadImportLookups(trx, wsId));
+    const plan = planFleetImport(table, await loadImportLookups(trx, wsId), access.workspace.settings.numberFormat);
     if (plan.problems.length) return { plan, saved: null };
     return { plan, saved: await commitFleetImport(trx, access, plan, file.name) };
   });
