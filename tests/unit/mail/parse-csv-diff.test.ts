@@ -62,12 +62,13 @@ describe('CSV cells', () => {
 });
 
 describe('audit diff', () => {
-  it('lists changed, added and removed fields', () => {
-    expect(diffAudit('{"status":"draft","version":1,"old":true}', '{"status":"submitted","version":1,"comment":"ok"}')).toEqual([
+  it('lists changed and added fields of an update, and what a delete removed', () => {
+    // an update stores the whole row before and only the fields written after: "old" was not part of the change
+    expect(diffAudit('{"status":"draft","version":1,"old":true}', '{"status":"submitted","version":2,"comment":"ok"}')).toEqual([
       { field: 'status', kind: 'changed', before: 'draft', after: 'submitted' },
-      { field: 'old', kind: 'removed', before: 'true' },
       { field: 'comment', kind: 'added', after: 'ok' },
     ]);
+    expect(diffAudit('{"id":3,"name":"T1"}', null)).toEqual([{ field: 'name', kind: 'removed', before: 'T1' }]);
     expect(diffAudit(null, '{"a":1}')).toEqual([{ field: 'a', kind: 'added', after: '1' }]);
     expect(diffAudit(null, null)).toEqual([]);
   });
