@@ -17,7 +17,9 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' },
+        // engine reference tests compute fine grids and sampled paths: seconds on a loaded machine, so a wider
+        // guard than vitest's 5 s (a guard against a hang, never a speed check: speed is `npm run bench`)
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', testTimeout: 30_000 },
       },
       {
         resolve: { alias },
