@@ -84,6 +84,12 @@ describe('two cases side by side', () => {
     await page.getByTestId('input-changes').waitFor();
     expect(await page.getByLabel('Case A (from)').inputValue()).toBe(String(base));
     expect(await page.getByLabel('Case B (to)').inputValue()).toBe(String(high));
+    // the approval page of the revision links to the same comparison
+    await page.goto(`${baseURL}/${WS}/approvals/${high}`);
+    await page.getByTestId('compare-previous').click();
+    await page.getByTestId('input-changes').waitFor();
+    expect(await page.getByLabel('Case A (from)').inputValue()).toBe(String(base));
+    expect(await page.getByLabel('Case B (to)').inputValue()).toBe(String(high));
     await signOut(page);
   });
 });

@@ -29,7 +29,17 @@ export default async function ReviewCasePage({ params }: { params: Promise<{ wor
       <PrintHeader caseName={summary.row.name} workspaceName={access.workspace.name} what="Approval" />
       <PageHeader
         title={summary.row.name}
-        subtitle={<>Business case {summary.row.revisionOf ? <>· revision of <Link className="underline" href={`/${workspace}/approvals/${summary.row.revisionOf}`}>case {summary.row.revisionOf}</Link></> : null}</>}
+        subtitle={
+          <>
+            Business case{' '}
+            {summary.row.revisionOf ? (
+              <>
+                · revision of <Link className="underline" href={`/${workspace}/approvals/${summary.row.revisionOf}`}>case {summary.row.revisionOf}</Link> ·{' '}
+                <Link className="underline" data-testid="compare-previous" href={`/${workspace}/cases/compare?a=${summary.row.revisionOf}&b=${caseId}`}>what changed since it</Link>
+              </>
+            ) : null}
+          </>
+        }
         action={<><DecisionPackLink slug={workspace} caseId={caseId} primary /><Link className="btn" href={`/${workspace}/cases/${caseId}`}>Open the case</Link></>}
       />
       <div className="grid gap-4 lg:grid-cols-[1fr_26rem] print:block">
