@@ -75,7 +75,7 @@ export const envSchema = z
     // Monte Carlo runs
     HAULCASE_MC_MAX_RUNNING: whole(1, 64, 'runs', 2),
     HAULCASE_MC_WORKERS: whole(1, 64, 'worker threads', 2),
-    HAULCASE_MC_TIME_LIMIT_MS: whole(1_000, 3_600_000, 'milliseconds', 120_000),
+    HAULCASE_MC_TIME_LIMIT_MS: whole(100, 3_600_000, 'milliseconds', 120_000),
     HAULCASE_MC_WORKER: text,
     HAULCASE_MC_PREWARM: flag,
     // mail
