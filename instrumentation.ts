@@ -1,5 +1,5 @@
 /**
- * Stamps each request with its socket address (lib/auth/peer-address.ts); starts the local SMTP sink with the server when no SMTP_HOST is configured
+ * Validates the environment (lib/env.ts: a bad setting stops the server, naming the variable); stamps each request with its socket address (lib/auth/peer-address.ts); starts the local SMTP sink with the server when no SMTP_HOST is configured
  * (development, demo, tests), so mail has somewhere real to go on a fresh clone;
  * starts the mail outbox sender (lib/mail/queue.ts: what is due now, then on an
  * unreferenced timer); marks Monte Carlo runs that the previous process left
@@ -7,6 +7,8 @@
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
+  const { checkEnvAtStart } = await import('./lib/env');
+  checkEnvAtStart();
   // the caller's socket address for the sign-in and reset throttles (Next gives route handlers no socket)
   const { installPeerAddressStamp } = await import('./lib/auth/peer-address');
   installPeerAddressStamp();

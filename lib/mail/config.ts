@@ -1,7 +1,11 @@
+import { env } from '../env';
+
 /**
- * Mail settings from the environment. With no SMTP_HOST (or HAULCASE_MAIL_SINK=1)
+ * Mail settings from the validated environment (lib/env.ts). With no SMTP_HOST
  * mail goes to the local sink that starts with the app on loopback, so a fresh
- * clone needs no outside service and never delivers to a real mailbox.
+ * clone needs no outside service and never delivers to a real mailbox; with
+ * SMTP_HOST set no sink starts. With several servers and no SMTP each server
+ * runs its own sink and all of them store into the shared `mail_sink` table.
  */
 export type MailConfig = {
   sink: boolean;
@@ -13,16 +17,17 @@ export type MailConfig = {
   appUrl: string;
 };
 
-export function readMailConfig(env: Record<string, string | undefined> = process.env): MailConfig {
-  const sink = !env.SMTP_HOST || env.HAULCASE_MAIL_SINK === '1';
+export function readMailConfig(raw: Record<string, string | undefined> = process.env): MailConfig {
+  const e = env(raw);
+  const sink = !e.SMTP_HOST;
   return {
     sink,
-    host: sink ? '127.0.0.1' : (env.SMTP_HOST as string),
-    port: Number(env.SMTP_PORT || (sink ? 0 : 587)),
-    user: env.SMTP_USER || undefined,
-    pass: env.SMTP_PASS || undefined,
-    from: env.SMTP_FROM || 'Haulcase <no-reply@haulcase.test>',
-    appUrl: (env.APP_URL || env.NEXTAUTH_URL || 'http://127.0.0.1:3000').replace(/\/+$/, ''),
+    host: e.SMTP_HOST ?? '127.0.0.1',
+    port: e.SMTP_PORT ?? (sink ? 0 : 587),
+    user: e.SMTP_USER,
+    pass: e.SMTP_PASS,
+    from: e.SMTP_FROM || 'Haulcase <no-reply@haulcase.test>',
+    appUrl: (e.APP_URL || e.NEXTAUTH_URL || 'http://127.0.0.1:3000').replace(/\/+$/, ''),
   };
 }
 

@@ -13,6 +13,7 @@ import type { Worker } from 'node:worker_threads';
 import type { MonteCarloResult, MonteCarloSpec } from '@/lib/engine/monte-carlo';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { runInWorkers } from './pool';
+import { env } from '@/lib/env';
 
 export type JobStatus = 'running' | 'done' | 'cancelled' | 'timed-out' | 'failed';
 
@@ -51,7 +52,7 @@ export interface StartOptions {
 }
 
 /** At most this many runs at once per server: each takes every worker it has. */
-export const MAX_RUNNING = Number(process.env.HAULCASE_MC_MAX_RUNNING ?? 2);
+export const MAX_RUNNING = env().HAULCASE_MC_MAX_RUNNING;
 /** Finished jobs stay in memory this long (their result is also in the database). */
 const KEEP_FINISHED_MS = 30 * 60_000;
 
@@ -62,7 +63,7 @@ export class TooManyRunsError extends Error {}
 
 /** The bundled worker: HAULCASE_MC_WORKER, else .haulcase/mc-worker.cjs from the app's folder. */
 export function workerBundlePath(): string {
-  return process.env.HAULCASE_MC_WORKER ?? path.join(process.cwd(), '.haulcase', 'mc-worker.cjs');
+  return env().HAULCASE_MC_WORKER ?? path.join(process.cwd(), '.haulcase', 'mc-worker.cjs');
 }
 
 export function view(job: Job | JobView): JobView {
@@ -99,7 +100,7 @@ export function startJob(o: StartOptions): JobView {
   if (runningCount() >= MAX_RUNNING) throw new TooManyRunsError('Too many Monte Carlo runs in progress on this server; try again when one finishes.');
   const bundle = workerBundlePath();
   const total = o.spec.iterations;
-  const count = o.workers ?? Number(process.env.HAULCASE_MC_WORKERS ?? 2);
+  const count = o.workers ?? env().HAULCASE_MC_WORKERS;
   const stopBuffer = new SharedArrayBuffer(4);
   const job: Job = {
     id: o.id ?? randomUUID(), workspaceId: o.workspaceId, caseId: o.caseId, status: 'running', iterations: total, done: 0,
@@ -117,7 +118,7 @@ export function startJob(o: StartOptions): JobView {
     if (job.status !== 'running') return;
     job.status = 'timed-out';
     Atomics.store(job.stop, 0, 1);
-  }, o.timeLimitMs ?? Number(process.env.HAULCASE_MC_TIME_LIMIT_MS ?? 120_000));
+  }, o.timeLimitMs ?? env().HAULCASE_MC_TIME_LIMIT_MS);
 
   job.finished = pool.finished
     .then(({ done, result }) => {

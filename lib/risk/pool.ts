@@ -25,6 +25,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import type { MonteCarloResult, MonteCarloSpec, TruckRisk } from '@/lib/engine/monte-carlo';
+import { env } from '@/lib/env';
 import type { CaseFileInput } from '@/lib/validation/case';
 import type { DoneRange, WorkerMessage, WorkerRequest } from './worker-entry';
 
@@ -175,7 +176,7 @@ interface Recycling {
 }
 const recycleHolder = globalThis as unknown as { __haulcaseMcRecycle?: Recycling };
 const recycle = (recycleHolder.__haulcaseMcRecycle ??= {
-  idleMs: Number(process.env.HAULCASE_MC_RECYCLE_MS ?? 60_000),
+  idleMs: env().HAULCASE_MC_RECYCLE_MS,
   active: new Map(),
   timers: new Map(),
   recipes: new Map(),

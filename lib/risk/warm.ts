@@ -12,9 +12,10 @@ import path from 'node:path';
 import { validateCase } from '@/lib/validation/case';
 import { workerBundlePath } from './jobs';
 import { prewarm } from './pool';
+import { env } from '@/lib/env';
 
 export async function warmMonteCarloWorkers(): Promise<void> {
-  if (process.env.HAULCASE_MC_PREWARM === '0') return;
+  if (env().HAULCASE_MC_PREWARM === '0') return;
   try {
     // read and checked synchronously, so the warm-up is registered before this returns to the event loop:
     // a run that starts right after start-up then finds it, stops it and takes its workers
@@ -22,7 +23,7 @@ export async function warmMonteCarloWorkers(): Promise<void> {
     const v = validateCase(raw);
     if (!v.ok) throw new Error('the warm-up scenario is not a valid case');
     const t0 = performance.now();
-    await prewarm(workerBundlePath(), v.value, { workers: Number(process.env.HAULCASE_MC_WORKERS ?? 2) });
+    await prewarm(workerBundlePath(), v.value, { workers: env().HAULCASE_MC_WORKERS });
     console.log(`[haulcase] Monte Carlo workers warmed in ${Math.round(performance.now() - t0)} ms`);
   } catch (err) {
     console.error('[haulcase] Monte Carlo warm-up skipped:', err instanceof Error ? err.message : err);

@@ -16,12 +16,13 @@ import 'server-only';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
+import { env } from '@/lib/env';
 import { HttpError } from '@/lib/http';
 import { runBreakEven } from '@/lib/risk/requests';
 import type { BreakEvenJob, BreakEvenReply } from './break-even-job';
 
 export function breakEvenWorkerPath(): string {
-  return process.env.HAULCASE_BREAK_EVEN_WORKER ?? path.join(/* turbopackIgnore: true */ process.cwd(), '.haulcase', 'break-even-worker.cjs');
+  return env().HAULCASE_BREAK_EVEN_WORKER ?? path.join(/* turbopackIgnore: true */ process.cwd(), '.haulcase', 'break-even-worker.cjs');
 }
 
 let warned = false;
@@ -34,7 +35,7 @@ export async function runBreakEvenOffThread(caseFile: BreakEvenJob['caseFile'], 
     warned = true;
     return runBreakEven(caseFile, proposal, body);
   }
-  const limit = Number(process.env.HAULCASE_BREAK_EVEN_TIME_LIMIT_MS ?? 120_000);
+  const limit = env().HAULCASE_BREAK_EVEN_TIME_LIMIT_MS;
   const reply = await new Promise<BreakEvenReply>((resolve, reject) => {
     const worker = new Worker(/* turbopackIgnore: true */ bundle);
     const timer = setTimeout(() => {

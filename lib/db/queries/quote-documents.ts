@@ -1,5 +1,7 @@
 import 'server-only';
 import { randomUUID } from 'node:crypto';
+import { Readable } from 'node:stream';
+import type { ReadableStream as NodeWebStream } from 'node:stream/web';
 import type { Knex } from 'knex';
 import type { Access } from '@/lib/auth/access';
 import { writeAudit } from '@/lib/audit';
@@ -24,8 +26,10 @@ export async function listQuoteDocuments(workspaceId: number, offerId: number) {
 }
 
 /**
- * Checks size and real type, stores the bytes, then records the row and its
- * audit entry in one transaction; if that fails the stored bytes are removed.
+ * Checks size and real type (from the first bytes), streams the bytes to the
+ * storage (lib/storage: local disk or S3), then records the row and its audit
+ * entry in one transaction; if that fails the stored bytes are removed, so
+ * there is never a row without its file.
  */
 export async function saveQuoteDocument(access: Access, offerId: number, file: File | null) {
   const wsId = access.workspace.id;
@@ -35,15 +39,14 @@ export async function saveQuoteDocument(access: Access, offerId: number, file: F
   if (file.size > DOCUMENT_MAX_BYTES) {
     throw invalid([{ path: 'file', message: `The file is ${(file.size / 1048576).toFixed(1)} MB; the limit is 10 MB.` }]);
   }
-  const bytes = new Uint8Array(await file.arrayBuffer());
-  const type = sniffDocumentType(bytes);
+  const type = sniffDocumentType(new Uint8Array(await file.slice(0, 16).arrayBuffer()));
   if (!type) throw invalid([{ path: 'file', message: `"${cleanFileName(file.name)}" is not a PDF, PNG, JPEG or WebP file (checked from its contents, not its name).` }]);
   const storageKey = `ws${wsId}/offer${offerId}/${randomUUID()}`;
   const storage = getStorage();
-  await storage.put(storageKey, bytes);
+  await storage.put(storageKey, Readable.fromWeb(file.stream() as NodeWebStream<Uint8Array>), file.size);
   try {
     return await db().transaction(async (trx) => {
-      const row = { workspaceId: wsId, offerId, fileName: cleanFileName(file.name), contentType: type.contentType, size: bytes.length, storageKey, uploadedBy: access.userId, createdAt: nowIso() };
+      const row = { workspaceId: wsId, offerId, fileName: cleanFileName(file.name), contentType: type.contentType, size: file.size, storageKey, uploadedBy: access.userId, createdAt: nowIso() };
       const id = await insertReturningId(trx, 'quote_documents', row);
       await writeAudit(trx, { workspaceId: wsId, userId: access.userId, action: 'upload', entity: 'quote_document', entityId: id, after: { offerId, fileName: row.fileName, contentType: row.contentType, size: row.size } });
       return trx('quote_documents').where({ id }).first(COLUMNS);

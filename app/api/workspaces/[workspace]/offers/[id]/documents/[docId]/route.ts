@@ -1,3 +1,4 @@
+import { Readable } from 'node:stream';
 import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
@@ -13,12 +14,13 @@ export const GET = route<P>(async (_req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.read);
   const doc = await findQuoteDocument(access.workspace.id, parseId(p.id), parseId(p.docId));
-  const bytes = await getStorage().get(doc.storageKey);
-  if (!bytes) throw notFound('The stored file is missing.');
-  return new NextResponse(new Uint8Array(bytes), {
+  const stored = await getStorage().get(doc.storageKey);
+  if (!stored) throw notFound('The stored file is missing.');
+  // streamed from the disk or the bucket as it is read, never held whole
+  return new NextResponse(Readable.toWeb(stored.body) as ReadableStream<Uint8Array>, {
     headers: {
       'content-type': doc.contentType,
-      'content-length': String(bytes.length),
+      'content-length': String(stored.size),
       'content-disposition': `attachment; filename="${doc.fileName.replace(/[^\x20-\x7e]/g, '_')}"; filename*=UTF-8''${encodeURIComponent(doc.fileName)}`,
       'x-content-type-options': 'nosniff',
       'cache-control': 'private, no-store',
