@@ -42,6 +42,8 @@ describe('the environment schema', () => {
     ['HAULCASE_MC_WORKERS', '65', /from 1 to 64 worker threads/],
     ['HAULCASE_MC_TIME_LIMIT_MS', '2m', /whole number of milliseconds from 100 to 3,600,000/],
     ['HAULCASE_MC_TIME_LIMIT_MS', '99', /from 100 to 3,600,000 milliseconds/],
+    ['HAULCASE_MC_RECYCLE_MS', '-5', /whole number of milliseconds \(0 = never\)/],
+    ['HAULCASE_BREAK_EVEN_TIME_LIMIT_MS', '50', /from 100 to 3,600,000 milliseconds/],
     ['HAULCASE_MC_PREWARM', 'no', /must be 0 or 1/],
     ['HAULCASE_TRUSTED_PROXY', 'true', /must be 0 or 1/],
     ['DATABASE_URL', 'mysql://db/haulcase', /must be a PostgreSQL URL/],
