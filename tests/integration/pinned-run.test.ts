@@ -9,9 +9,8 @@ import { afterAll, beforeAll, describe, expect, inject, it, vi } from 'vitest';
 import type { Knex } from 'knex';
 import { useDbForTests } from '@/lib/db';
 import { buildCaseFile } from '@/lib/db/queries/case-file';
-import { evaluateCase } from '@/lib/engine';
-import { rankTrucks, planCapital } from '@/lib/plan';
-import { proposalGainVsRebuild, proposalPolicies } from '@/lib/cases/proposal';
+import { evaluateCaseDetailed } from '@/lib/engine';
+import { buildProposal, proposalGainVsRebuild, proposalPolicies, timingFromDetails } from '@/lib/cases/proposal';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
 import { whenFinished } from '@/lib/risk/jobs';
 import { fetchPinnedRun } from '@/lib/risk/runs';
@@ -155,11 +154,9 @@ describe.each(backends)('the proposal measure and the pin route on $name', ({ pg
     await k('business_cases').where({ id: caseId }).update({ plan: JSON.stringify({ budgets: { 0: 4_000_000, 1: 4_000_000 }, swapsPerMonth: 2, startMonth: '2027-01' }) });
     const set = await k('assumption_sets').where({ workspaceId }).orderBy('id').first('id');
     const file = await buildCaseFile(workspaceId, { name: 'x', assumptionSetId: set.id }, k);
-    const result = evaluateCase(file as never);
-    const candidates = rankTrucks(result)
-      .filter((r) => r.capitalYear !== null)
-      .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
-    const plan = planCapital(candidates, { 0: 4_000_000, 1: 4_000_000 });
+    // the proposal as lib/cases/proposal.ts builds it from the engine's result (each repower's capital in the period its swap is due)
+    const { result, details } = evaluateCaseDetailed(file as never, { trusted: true });
+    const { plan } = buildProposal(result, timingFromDetails(file as never, result, details), { budgets: { 0: 4_000_000, 1: 4_000_000 }, swapsPerMonth: 2, startMonth: '2027-01' });
     const policies = proposalPolicies(result, plan);
     expected = { policies, gain: proposalGainVsRebuild(result, policies) };
   });
