@@ -9,6 +9,7 @@ import * as m0009 from './0009_submitted_case';
 import * as m0011 from './0011_mail_outbox';
 import * as m0012 from './0012_auth_guard';
 import * as m0013 from './0013_valuation_fields';
+import * as m0017 from './0017_readings';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -26,6 +27,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0011_mail_outbox': m0011,
   '0012_auth_guard': m0012,
   '0013_valuation_fields': m0013,
+  '0017_readings': m0017,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -1,5 +1,5 @@
 import { truckInputSchema, type TruckInput } from '@/lib/validation/fleet';
-import { FIELD_TO_COLUMN, FLEET_COLUMNS } from './columns';
+import { FIELD_TO_COLUMN, FLEET_COLUMNS, type ImportColumn } from './columns';
 import type { Cell, Table } from './read-table';
 
 export type RowProblem = { row: number; column: string; message: string };
@@ -15,7 +15,8 @@ export type ImportLookups = {
 
 const NUMBER = /^-?(\d+|\d{1,3}(,\d{3})+)(\.\d+)?([eE][-+]?\d+)?$/;
 
-function readNumber(c: Cell): { value: number | null } | { error: string } {
+/** A number cell (blank = null); also used by the readings import. */
+export function readNumber(c: Cell): { value: number | null } | { error: string } {
   if (c === null) return { value: null };
   if (typeof c === 'number') return Number.isFinite(c) ? { value: c } : { error: 'is not a finite number' };
   if (typeof c === 'object') return { error: `is a formula (=${c.formula}); enter the value instead` };
@@ -25,17 +26,18 @@ function readNumber(c: Cell): { value: number | null } | { error: string } {
   return { value: Number(s.replace(/,/g, '')) };
 }
 
-function readText(c: Cell): { value: string } | { error: string } {
+/** A text cell (blank = ""); also used by the readings import. */
+export function readText(c: Cell): { value: string } | { error: string } {
   if (c === null) return { value: '' };
   if (typeof c === 'number') return { value: String(c) };
   if (typeof c === 'object') return { error: `is a formula (=${c.formula}); formulas are refused in text columns` };
   return { value: c };
 }
 
-/** Header problems: every template column must be there once, and nothing else. */
-export function checkHeader(header: string[]): RowProblem[] {
+/** Header problems: every template column must be there once, and nothing else (`columns`: the fleet sheet's unless given). */
+export function checkHeader(header: string[], columns: ReadonlyArray<Pick<ImportColumn, 'name'>> = FLEET_COLUMNS): RowProblem[] {
   const problems: RowProblem[] = [];
-  const known = new Set(FLEET_COLUMNS.map((c) => c.name));
+  const known = new Set(columns.map((c) => c.name));
   const seen = new Set<string>();
   header.forEach((h, i) => {
     const name = h.toLowerCase();
@@ -44,7 +46,7 @@ export function checkHeader(header: string[]): RowProblem[] {
     else if (seen.has(name)) problems.push({ row: 1, column: h, message: 'appears twice' });
     seen.add(name);
   });
-  for (const c of FLEET_COLUMNS) if (!seen.has(c.name)) problems.push({ row: 1, column: c.name, message: 'column is missing' });
+  for (const c of columns) if (!seen.has(c.name)) problems.push({ row: 1, column: c.name, message: 'column is missing' });
   return problems;
 }
 
