@@ -44,11 +44,10 @@ export async function readReading(k: Knex, workspaceId: number, id: number): Pro
 }
 
 export async function loadReadingLookups(k: Knex, workspaceId: number): Promise<ReadingLookups> {
-  const [trucks, engines, saved] = await Promise.all([
-    k('trucks').where({ workspaceId }).select('id', 'unitNumber'),
-    k('engine_types').where({ workspaceId }).select('id', 'key'),
-    k('truck_readings').where({ workspaceId }).select('id', 'truckId', 'month', 'hourMeter', 'repowerDate'),
-  ]);
+  // One after another: inside a transaction there is one connection.
+  const trucks = await k('trucks').where({ workspaceId }).select('id', 'unitNumber');
+  const engines = await k('engine_types').where({ workspaceId }).select('id', 'key');
+  const saved = await k('truck_readings').where({ workspaceId }).select('id', 'truckId', 'month', 'hourMeter', 'repowerDate');
   return {
     trucks: new Map(trucks.map((t) => [t.unitNumber, t.id])),
     engines: new Map(engines.map((e) => [e.key, e.id])),
