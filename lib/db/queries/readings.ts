@@ -5,12 +5,12 @@ import { writeAudit } from '@/lib/audit';
 import { insertReturningId } from '@/lib/api/crud';
 import { conflict, invalid, notFound } from '@/lib/http';
 import { deriveFigures, meterProblem, type DerivedFigures } from '@/lib/readings/derive';
-import type { ReadingImportPlan, ReadingLookups } from '@/lib/readings/import-plan';
 import { nowIso } from '@/lib/time';
 import { truckInputSchema } from '@/lib/validation/fleet';
 import { readingProblems, type ReadingFields, type ReadingInput } from '@/lib/validation/readings';
 
 type Row = Record<string, unknown>;
+const stamp = (access: Access, now: string) => ({ updatedBy: access.userId, updatedAt: now });
 const COLUMNS = [
   'r.id', 'r.truckId', 't.unitNumber', 'r.month', 'r.hourMeter', 'r.fuelLitres', 'r.tonnes', 'r.overhauls', 'r.failures', 'r.daysDown',
   'r.repowerDate', 'r.repowerCost', 'r.repowerEngineTypeId', 'e.key as repowerEngineKey', 'r.notes', 'r.version', 'r.updatedAt',
@@ -41,60 +41,6 @@ export async function readReading(k: Knex, workspaceId: number, id: number): Pro
     .where({ 'r.workspaceId': workspaceId, 'r.id': id })
     .first(COLUMNS);
   return row ? asNumbers(row) : null;
-}
-
-export async function loadReadingLookups(k: Knex, workspaceId: number): Promise<ReadingLookups> {
-  // One after another: inside a transaction there is one connection.
-  const trucks = await k('trucks').where({ workspaceId }).select('id', 'unitNumber');
-  const engines = await k('engine_types').where({ workspaceId }).select('id', 'key');
-  const saved = await k('truck_readings').where({ workspaceId }).select('id', 'truckId', 'month', 'hourMeter', 'repowerDate');
-  return {
-    trucks: new Map(trucks.map((t) => [t.unitNumber, t.id])),
-    engines: new Map(engines.map((e) => [e.key, e.id])),
-    saved: saved.map((s) => ({ ...s, hourMeter: Number(s.hourMeter) })),
-  };
-}
-
-const stamp = (access: Access, now: string) => ({ updatedBy: access.userId, updatedAt: now });
-
-/**
- * Writes an import plan without problems in the caller's transaction: new
- * readings inserted, replaced ones updated with their version bumped, and one
- * audit row naming the file, what was created and what was replaced (with the
- * values it replaced).
- */
-export async function commitReadingsImport(trx: Knex.Transaction, access: Access, plan: ReadingImportPlan, fileName: string) {
-  if (plan.problems.length) throw new Error('commitReadingsImport called with problems');
-  const wsId = access.workspace.id;
-  const now = nowIso();
-  const creates = plan.rows.filter((r) => r.action === 'create');
-  const replaces = plan.rows.filter((r) => r.action === 'replace');
-  await trx.batchInsert(
-    'truck_readings',
-    creates.map((r) => ({ workspaceId: wsId, truckId: r.truckId, ...r.input, version: 1, createdBy: access.userId, createdAt: now, ...stamp(access, now) })),
-    200,
-  );
-  const before: Row[] = [];
-  for (const r of replaces) {
-    const { workspaceId: _w, ...old } = await trx('truck_readings').where({ id: r.replaces, workspaceId: wsId }).first();
-    before.push(old);
-    await trx('truck_readings').where({ id: r.replaces, workspaceId: wsId }).update({ ...r.input, version: trx.raw('version + 1'), ...stamp(access, now) });
-  }
-  await writeAudit(trx, {
-    workspaceId: wsId,
-    userId: access.userId,
-    action: 'import',
-    entity: 'truck_reading',
-    entityId: null,
-    before: replaces.length ? before : undefined,
-    after: {
-      fileName,
-      created: creates.map((r) => `${r.unitNumber} ${r.input.month}`),
-      replaced: replaces.map((r) => `${r.unitNumber} ${r.input.month}`),
-      rows: plan.rows.map((r) => ({ unitNumber: r.unitNumber, ...r.input })),
-    },
-  });
-  return { created: creates.length, replaced: replaces.length };
 }
 
 /**
@@ -241,3 +187,5 @@ export async function acceptDerived(
 }
 
 export type { ReadingFields };
+
+export { commitReadingsImport, loadReadingLookups } from '@/lib/readings/import-commit';
