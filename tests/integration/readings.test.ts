@@ -134,6 +134,9 @@ describe.each([
     // nothing changed on the truck by looking
     expect(await k('trucks').where({ id: truck['R-01'] }).first('annualHours', 'version')).toEqual({ annualHours: 5000, version: 1 });
 
+    const badWindow = await call(getDerived, { workspace: WS }, { url: 'http://127.0.0.1/api/x?window=61' });
+    expect(badWindow.status).toBe(422);
+    expect(badWindow.body.problems).toEqual([{ path: 'window', message: 'must be at most 60 months' }]);
     const stale = await call(acceptFigures, { workspace: WS, truck: String(truck['R-01']) }, { body: { version: 7, windowMonths: 6, fields: ['annualHours'] } });
     expect(stale.status).toBe(409);
     const ok = await call(acceptFigures, { workspace: WS, truck: String(truck['R-01']) }, { body: { version: 1, windowMonths: 6, fields: ['annualHours', 'fuelBurnLitresPerHour', 'engineHours'] } });
