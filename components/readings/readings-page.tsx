@@ -75,7 +75,9 @@ export function ReadingsPage({ ws, columns }: { ws: WorkspaceView; columns: Arra
     await mutate();
   };
 
-  const items = data?.items ?? [];
+  const all = data?.items ?? [];
+  const items = all.filter((it) => it.readings > 0);
+  const without = all.length - items.length;
   return (
     <div className="space-y-4">
       <section className="card p-4">
@@ -110,7 +112,7 @@ export function ReadingsPage({ ws, columns }: { ws: WorkspaceView; columns: Arra
                 const d = it.derived;
                 return (
                   <tr key={it.truck.id} data-testid={`derived-${it.truck.unitNumber}`}>
-                    <td className="font-mono text-xs"><button type="button" className="underline" onClick={() => setTruckId(it.truck.id)}>{it.truck.unitNumber}</button></td>
+                    <td className="whitespace-nowrap font-mono text-xs"><button type="button" className="underline" onClick={() => setTruckId(it.truck.id)}>{it.truck.unitNumber}</button></td>
                     <td className="n">{it.readings}</td>
                     <td className="text-xs">
                       {d ? <>{d.asOf}{d.window ? <><br />{d.window.from} to {d.window.to} ({d.window.months} month{d.window.months === 1 ? '' : 's'})</> : <><br />one reading: no window</>}</> : <span className="text-muted">no readings</span>}
@@ -123,7 +125,7 @@ export function ReadingsPage({ ws, columns }: { ws: WorkspaceView; columns: Arra
                       {d?.repower && it.offer?.engineKey ? <div className={ch.includes('engineTypeId') ? 'font-medium text-accent' : 'text-muted'}>{it.offer.engineKey}: repower of {d.repower.date}</div> : null}
                       {d ? <div className="text-muted">engine hours {basisText(d)}</div> : null}
                     </td>
-                    <td>
+                    <td className="whitespace-nowrap">
                       {ws.canEdit && ch.length ? (
                         <button type="button" className="btn" onClick={() => void accept(it)}>Use these figures</button>
                       ) : d && ch.length === 0 ? <span className="text-xs text-muted">register matches</span> : null}
@@ -134,6 +136,7 @@ export function ReadingsPage({ ws, columns }: { ws: WorkspaceView; columns: Arra
             </tbody>
           </table>
         </div>
+        {data ? <p className="mt-2 text-xs text-muted" data-testid="without-readings">{items.length === 0 ? 'No truck has readings yet: import a file or type a month below.' : `${without} truck(s) without readings are not listed; choose one below to type its readings.`}</p> : null}
       </section>
 
       {ws.canEdit ? <ImportReadings ws={ws} columns={columns} onDone={() => void mutate()} /> : null}

@@ -45,13 +45,14 @@ async function insertId(knex: Knex, table: string, values: Record<string, unknow
 /**
  * Invented monthly readings for three demo trucks, 2024-12 to 2025-12 (issue
  * 20): T3-02 had an overhaul in 2025-01 and runs near its register figures;
- * T3-05 burns more than its register's 348.3 L/h; T3-03 was repowered in
+ * T3-05 (never overhauled: its meter is its engine hours) burns more than
+ * its register's 348.3 L/h; T3-03 was repowered in
  * 2025-09 with the bypass-filtered 2,700 kW module (a new engine, a new
  * meter). Hours vary a little month to month; every figure is invented.
  */
 const DEMO_READINGS = [
   { unit: 'T3-02', meter: 40_600, hours: 545, burn: 351, tph: 880, overhaul: '2025-01' },
-  { unit: 'T3-05', meter: 38_900, hours: 515, burn: 372, tph: 815, overhaul: null },
+  { unit: 'T3-05', meter: 1_000, hours: 515, burn: 372, tph: 815, overhaul: null },
   { unit: 'T3-03', meter: 47_300, hours: 480, burn: 344, tph: 840, overhaul: null, repower: { month: '2025-09', date: '2025-09-12', cost: 1_640_000, engine: 'km-2700-bypass', burn: 318 } },
 ];
 
