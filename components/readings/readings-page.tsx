@@ -277,7 +277,7 @@ function TruckReadings({ ws, truckId, setTruckId, onChange }: { ws: WorkspaceVie
       <h2 className="text-base font-semibold">A truck&rsquo;s readings</h2>
       <label className="text-sm">
         <span className="label">Truck</span>
-        <select className="field" value={truckId ?? ''} onChange={(e) => setTruckId(Number(e.target.value))} aria-label="Truck">
+        <select className="field w-60" value={truckId ?? ''} onChange={(e) => setTruckId(Number(e.target.value))} aria-label="Truck">
           <option value="" disabled>Choose a truck</option>
           {(trucks?.items ?? []).map((t) => <option key={t.id} value={t.id}>{t.unitNumber}</option>)}
         </select>
