@@ -12,6 +12,7 @@ import * as m0013 from './0013_valuation_fields';
 import * as m0014 from './0014_pinned_run';
 import * as m0015 from './0015_frozen_proposal';
 import * as m0016 from './0016_membership_version';
+import * as m0017 from './0017_readings';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -32,6 +33,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0014_pinned_run': m0014,
   '0015_frozen_proposal': m0015,
   '0016_membership_version': m0016,
+  '0017_readings': m0017,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -119,6 +119,42 @@ async function insertId(knex: Knex, table: string, values: Record<string, unknow
 }
 
 /**
+ * Invented monthly readings for three demo trucks, 2024-12 to 2025-12 (issue
+ * 20): T3-02 had an overhaul in 2025-01 and runs near its register figures;
+ * T3-05 (never overhauled: its meter is its engine hours) burns more than
+ * its register's 348.3 L/h; T3-03 was repowered in
+ * 2025-09 with the bypass-filtered 2,700 kW module (a new engine, a new
+ * meter). Hours vary a little month to month; every figure is invented.
+ */
+const DEMO_READINGS = [
+  { unit: 'T3-02', meter: 40_600, hours: 545, burn: 351, tph: 880, overhaul: '2025-01' },
+  { unit: 'T3-05', meter: 1_000, hours: 515, burn: 372, tph: 815, overhaul: null },
+  { unit: 'T3-03', meter: 47_300, hours: 480, burn: 344, tph: 840, overhaul: null, repower: { month: '2025-09', date: '2025-09-12', cost: 1_640_000, engine: 'km-2700-bypass', burn: 318 } },
+];
+
+function demoReadingRows(ws: number, truckIds: Record<string, number>, engineIds: Record<string, number>, audit: Record<string, unknown>) {
+  const rows: Record<string, unknown>[] = [];
+  for (const d of DEMO_READINGS) {
+    let meter = d.meter;
+    for (let i = 0; i <= 12; i++) {
+      const month = i === 0 ? '2024-12' : `2025-${String(i).padStart(2, '0')}`;
+      const hours = i === 0 ? 0 : Math.round(d.hours * (1 + 0.05 * Math.sin(i * 1.7)));
+      const repowered = d.repower && month === d.repower.month;
+      meter = repowered ? hours : meter + hours;
+      const burn = d.repower && month >= d.repower.month ? d.repower.burn : d.burn;
+      const overhaul = d.overhaul === month;
+      rows.push({
+        workspaceId: ws, truckId: truckIds[d.unit], month, hourMeter: meter, fuelLitres: i === 0 ? Math.round(d.hours * d.burn) : Math.round(hours * burn),
+        tonnes: Math.round((i === 0 ? d.hours : hours) * d.tph), overhauls: overhaul ? 1 : 0, failures: 0, daysDown: overhaul ? 9 : repowered ? 3 : 0,
+        repowerDate: repowered ? d.repower!.date : null, repowerCost: repowered ? d.repower!.cost : null,
+        repowerEngineTypeId: repowered ? engineIds[d.repower!.engine] : null, notes: '', ...audit,
+      });
+    }
+  }
+  return rows;
+}
+
+/**
  * Seeds the invented demo mine "Aldervane Copper — North Pit" (fleet from
  * scenarios/aldervane-north-pit.json, assumption sets from
  * scenarios/aldervane-assumption-sets.json), a draft business case over the
@@ -188,6 +224,10 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
         engineTypeId: engineIds[engineId], repowerOfferId: offerIds[repowerOfferId] ?? null, ...fields, ...audit,
       });
     }
+    const truckIds: Record<string, number> = Object.fromEntries(
+      (await trx('trucks').where({ workspaceId: ws }).select('id', 'unitNumber')).map((t) => [t.unitNumber, t.id]),
+    );
+    await trx.batchInsert('truck_readings', demoReadingRows(ws, truckIds, engineIds, audit), 100);
     const setIds: Record<string, number> = {};
     for (const s of sets.sets) {
       setIds[s.name] = await insertId(trx, 'assumption_sets', { workspaceId: ws, name: s.name, ...assumptionSetColumns(s.assumptions as Record<string, unknown>), ...audit });

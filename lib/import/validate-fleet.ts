@@ -1,6 +1,6 @@
 import { parseNumberText, type NumberFormat } from '@/lib/number-input';
 import { truckInputSchema, type TruckInput } from '@/lib/validation/fleet';
-import { FIELD_TO_COLUMN, FLEET_COLUMNS } from './columns';
+import { FIELD_TO_COLUMN, FLEET_COLUMNS, type ImportColumn } from './columns';
 import type { Cell, Table } from './read-table';
 
 export type RowProblem = { row: number; column: string; message: string };
@@ -14,8 +14,11 @@ export type ImportLookups = {
   trucks: Map<string, number>;
 };
 
-/** A number cell: a spreadsheet number as it is, text by the one rule of forms and imports (lib/number-input.ts) in the workspace's format. */
-function readNumber(c: Cell, format: NumberFormat): { value: number | null } | { error: string } {
+/**
+ * A number cell (blank = null): a spreadsheet number as it is, text by the one rule of forms and imports
+ * (lib/number-input.ts) in the workspace's format; also used by the readings import.
+ */
+export function readNumber(c: Cell, format: NumberFormat = 'point'): { value: number | null } | { error: string } {
   if (c === null) return { value: null };
   if (typeof c === 'number') return Number.isFinite(c) ? { value: c } : { error: 'is not a finite number' };
   if (typeof c === 'object') return { error: `is a formula (=${c.formula}); enter the value instead` };
@@ -25,17 +28,18 @@ function readNumber(c: Cell, format: NumberFormat): { value: number | null } | {
   return r.ok ? { value: r.value } : { error: `"${s.slice(0, 40)}" is not a number: ${r.message}` };
 }
 
-function readText(c: Cell): { value: string } | { error: string } {
+/** A text cell (blank = ""); also used by the readings import. */
+export function readText(c: Cell): { value: string } | { error: string } {
   if (c === null) return { value: '' };
   if (typeof c === 'number') return { value: String(c) };
   if (typeof c === 'object') return { error: `is a formula (=${c.formula}); formulas are refused in text columns` };
   return { value: c };
 }
 
-/** Header problems: every template column must be there once, and nothing else. */
-export function checkHeader(header: string[]): RowProblem[] {
+/** Header problems: every template column must be there once, and nothing else (`columns`: the fleet sheet's unless given). */
+export function checkHeader(header: string[], columns: ReadonlyArray<Pick<ImportColumn, 'name'>> = FLEET_COLUMNS): RowProblem[] {
   const problems: RowProblem[] = [];
-  const known = new Set(FLEET_COLUMNS.map((c) => c.name));
+  const known = new Set(columns.map((c) => c.name));
   const seen = new Set<string>();
   header.forEach((h, i) => {
     const name = h.toLowerCase();
@@ -44,7 +48,7 @@ export function checkHeader(header: string[]): RowProblem[] {
     else if (seen.has(name)) problems.push({ row: 1, column: h, message: 'appears twice' });
     seen.add(name);
   });
-  for (const c of FLEET_COLUMNS) if (!seen.has(c.name)) problems.push({ row: 1, column: c.name, message: 'column is missing' });
+  for (const c of columns) if (!seen.has(c.name)) problems.push({ row: 1, column: c.name, message: 'column is missing' });
   return problems;
 }
 

@@ -4,6 +4,7 @@ import { NextRequest } from 'next/server';
 import { BODY_LIMITS } from '@/lib/http/body';
 import { POST as uploadDocument } from '@/app/api/workspaces/[workspace]/offers/[id]/documents/route';
 import { POST as importFleet } from '@/app/api/workspaces/[workspace]/fleet/import/route';
+import { POST as importReadings } from '@/app/api/workspaces/[workspace]/readings/import/route';
 import { POST as uploadCaseFile } from '@/app/api/workspaces/[workspace]/case-file/route';
 import { POST as forgotPassword } from '@/app/api/password/forgot/route';
 import { POST as resetPassword } from '@/app/api/password/reset/route';
@@ -63,6 +64,7 @@ describe('request bodies are refused past their limit before they are read', () 
     targets = [
       { name: 'offer quote document upload', handler: uploadDocument, params: { workspace: WS, id: offerId }, type: multipart, limit: BODY_LIMITS.quoteDocument.bytes },
       { name: 'fleet import', handler: importFleet, params: { workspace: WS }, type: multipart, limit: BODY_LIMITS.fleetImport.bytes },
+      { name: 'readings import', handler: importReadings, params: { workspace: WS }, type: multipart, limit: BODY_LIMITS.fleetImport.bytes },
       { name: 'case-file upload', handler: uploadCaseFile, params: { workspace: WS }, type: 'application/json', limit: BODY_LIMITS.caseFile.bytes },
       { name: 'forgot password', handler: forgotPassword, params: {}, type: 'application/json', limit: BODY_LIMITS.auth.bytes },
       { name: 'password reset', handler: resetPassword, params: {}, type: 'application/json', limit: BODY_LIMITS.auth.bytes },

@@ -17,9 +17,10 @@ export default async function Page({ params }: { params: Promise<{ workspace: st
         title="Fleet register"
         subtitle="Trucks with engine hours, annual hours, duty and measured fuel burn."
         action={
-          ws.canEdit ? (
-            <Link className="btn" href={`/${workspace}/fleet/import`}>Import from file</Link>
-          ) : null
+          <>
+            <Link className="btn" href={`/${workspace}/fleet/readings`}>Readings</Link>
+            {ws.canEdit ? <Link className="btn" href={`/${workspace}/fleet/import`}>Import from file</Link> : null}
+          </>
         }
       />
       <FleetRegister ws={ws} />
