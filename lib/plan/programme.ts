@@ -155,6 +155,74 @@ interface Built {
   capacityRow: Map<number, number>;
 }
 
+/** A valid inequality Σ coef(capital_c) · x_c ≤ rhs on a budget row: integer coefficients, integer right-hand side. */
+interface BudgetCut {
+  coef: (amount: number) => number;
+  rhs: number;
+}
+
+/**
+ * Rows that every plan within budget B meets, added beside the budget row to
+ * tighten its LP relaxation (the optimum is unchanged: no whole plan within
+ * B is cut off; the budget row itself stays). The swaps of a fiscal year
+ * mostly cost one of a few amounts (one per offer, at that year's prices),
+ * so the row is a knapsack over counts n_v of swaps of each amount v:
+ *
+ * - one amount v: n_v ≤ ⌊B / v⌋;
+ * - two amounts v1 > v2: the facets of the convex hull of the whole points
+ *   {(n1, n2) ≥ 0 : v1·n1 + v2·n2 ≤ B} (its upper hull over n1 = 0 … ⌊B/v1⌋
+ *   with n2 = ⌊(B − v1·n1)/v2⌋, plus n1 ≤ ⌊B/v1⌋): the strongest such rows;
+ * - more amounts: the Chvátal–Gomory rows Σ ⌊v_c / d⌋ · x_c ≤ ⌊B / d⌋ for each
+ *   amount d (valid: the left side is a whole number ≤ Σ v_c x_c / d).
+ *
+ * Amounts are compared to the cent; the floors allow a little slack
+ * (1e-9 · B plus half a cent per option) so a rounding error never cuts off
+ * a plan (the budget row stays exact).
+ */
+export function budgetCuts(amounts: number[], budget: number): BudgetCut[] {
+  const values = [...new Set(amounts.filter((a) => a > 0).map((a) => Math.round(a * 100) / 100))].sort((a, b) => b - a);
+  if (values.length === 0) return [];
+  // generous by rounding: amounts within half a cent of a value count as it
+  const tol = 1e-9 * Math.max(1, budget) + 0.005 * amounts.length;
+  const fl = (v: number) => Math.max(0, Math.floor(v + 1e-9));
+  const same = (a: number, v: number) => a > 0 && Math.abs(Math.round(a * 100) / 100 - v) < 0.005;
+  if (values.length === 1) {
+    const v = values[0];
+    return [{ coef: (a) => (same(a, v) ? 1 : 0), rhs: fl((budget + tol) / v) }];
+  }
+  if (values.length === 2) {
+    const [v1, v2] = values;
+    const top = fl((budget + tol) / v1);
+    const pts: [number, number][] = [];
+    for (let a = 0; a <= top; a++) pts.push([a, fl((budget + tol - v1 * a) / v2)]);
+    // upper hull (monotone chain), left to right
+    const hull: [number, number][] = [];
+    for (const p of pts) {
+      while (hull.length >= 2) {
+        const [o, q] = [hull[hull.length - 2], hull[hull.length - 1]];
+        const cross = (q[0] - o[0]) * (p[1] - o[1]) - (q[1] - o[1]) * (p[0] - o[0]);
+        if (cross >= 0) hull.pop();
+        else break;
+      }
+      hull.push(p);
+    }
+    const cuts: BudgetCut[] = [];
+    const pick = (c1: number, c2: number) => (a: number) => (same(a, v1) ? c1 : same(a, v2) ? c2 : 0);
+    cuts.push({ coef: pick(1, 0), rhs: top });
+    cuts.push({ coef: pick(0, 1), rhs: hull[0][1] });
+    for (let i = 0; i + 1 < hull.length; i++) {
+      const [a1, b1] = hull[i];
+      const [a2, b2] = hull[i + 1];
+      // the edge through (a1, b1) and (a2, b2): (b1 − b2)·n1 + (a2 − a1)·n2 ≤ (b1 − b2)·a1 + (a2 − a1)·b1
+      const c1 = b1 - b2;
+      const c2 = a2 - a1;
+      if (c1 > 0 && c2 > 0) cuts.push({ coef: pick(c1, c2), rhs: c1 * a1 + c2 * b1 });
+    }
+    return cuts;
+  }
+  return values.map((d) => ({ coef: (a: number) => (a > 0 ? Math.floor(a / d) : 0), rhs: fl((budget + tol) / d) }));
+}
+
 /** The CPLEX LP text of the programme; npvs are offset by each truck's lowest npv (a constant) to keep coefficients small. */
 export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capacity = input.capacity): Built {
   const truckOf: number[] = [];
@@ -187,13 +255,23 @@ export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capa
   budgets.forEach((b, y) => {
     if (b === null) return;
     const terms: string[] = [];
+    const amounts: number[] = [];
     for (let c = 0; c < truckOf.length; c++) {
       const amount = input.trucks[truckOf[c]].options[optionOf[c]].capitalByYear[y] ?? 0;
+      amounts.push(amount);
       if (Math.abs(amount) > 0) terms.push(`+ ${num(amount)} x${c}`);
     }
     if (terms.length > 0) {
       budgetRow.set(y, r);
       rows.push(row(terms, `<= ${num(b)}`));
+      for (const cut of budgetCuts(amounts, b)) {
+        const cutTerms: string[] = [];
+        for (let c = 0; c < truckOf.length; c++) {
+          const w = cut.coef(amounts[c]);
+          if (w > 0) cutTerms.push(`+ ${w} x${c}`);
+        }
+        if (cutTerms.length > 0) rows.push(row(cutTerms, `<= ${cut.rhs}`));
+      }
     }
   });
   capacity.forEach((cap, m) => {
