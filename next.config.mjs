@@ -27,7 +27,8 @@ const nextConfig = {
   // A separate build folder lets browser tests build beside a running dev server.
   distDir: process.env.NEXT_DIST_DIR || '.next',
   poweredByHeader: false,
-  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer'],
+  // highs loads build/highs.wasm beside its own script: bundled, that file would not be found
+  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer', 'highs'],
   async headers() {
     return [
       { source: '/:path*', headers: securityHeaders },
