@@ -40,6 +40,14 @@
  *   then the best plan found is reported with status "time limit" and its
  *   gap, or, with none found, `ok: false`.
  *
+ * ## Solving
+ *
+ * Each budget row comes with whole-plan rows that tighten its relaxation
+ * (`budgetCuts`); the main solve starts from a greedy plan that fits
+ * (`greedyStart`), each marginal re-solve from the optimum (it fits the
+ * relaxed model). Neither changes the optimum: the cuts remove no whole plan,
+ * a start only gives the search an early bound.
+ *
  * The LP text uses indices only (x0, x1, …; r0, …): no truck id or label ever
  * reaches the parser.
  */
@@ -111,7 +119,7 @@ export interface ProgrammeResult {
   status: string;
   /** Σ npv of the chosen options */
   objective: number;
-  /** relative MIP gap reported by HiGHS */
+  /** relative MIP gap reported by HiGHS (+∞ when stopped before any bound was proven) */
   gap: number;
   seconds: number;
   choices: TruckChoice[];
@@ -378,15 +386,55 @@ function runModel(model: Model, built: Built): Solved {
   // optimal, or stopped at the time limit with a feasible plan (then the gap says how far from proven)
   const feasible = code === 7 || (code === 13 && Number(model.info.get('primal_solution_status')) === 2);
   if (!feasible) return { status, objective: Number.NaN, gap: Number.NaN, seconds, x: null };
-  const gap = Number(model.info.get('mip_gap'));
+  // stopped before any bound was proven (a plan given as the start, no node solved): the gap is unknown, +∞
+  const reported = Number(model.info.get('mip_gap'));
+  const gap = Number.isNaN(reported) ? Number.POSITIVE_INFINITY : reported;
   return { status, objective: model.getObjectiveValue() + built.offset, gap, seconds, x: model.getSolution().colValue.slice() };
 }
 
-/** Solve the LP text; `then` reads the model's first solution before the model is freed. */
-function solveLp(highs: Highs, built: Built, timeLimit: number, then?: (first: Solved) => void): Solved {
+/**
+ * A plan that fits, to start the solver from (its bound prunes from the first node): trucks in order of
+ * regret (their best npv less their second best, largest first) each take their best option that still fits
+ * the budgets and the shop. Null when some truck finds nothing that fits (the solver then starts cold).
+ * Column values of `built` (one 1 per truck).
+ */
+export function greedyStart(model: ProgrammeInput, built: Built): Float64Array | null {
+  const spend = model.budgets.map(() => 0);
+  const swaps = new Map<number, number>();
+  const x = new Float64Array(built.truckOf.length);
+  const firstCol: number[] = [];
+  let j = 0;
+  for (const t of model.trucks) {
+    firstCol.push(j);
+    j += t.options.length;
+  }
+  const ranked = model.trucks.map((t) => t.options.map((_, k) => k).sort((a, b) => t.options[b].npv - t.options[a].npv));
+  const order = model.trucks.map((t, i) => {
+    const r = ranked[i];
+    return { i, regret: r.length > 1 ? t.options[r[0]].npv - t.options[r[1]].npv : 0 };
+  }).sort((a, b) => b.regret - a.regret);
+  for (const { i } of order) {
+    const t = model.trucks[i];
+    const fit = ranked[i].find((k) => {
+      const o = t.options[k];
+      if (o.month !== null && o.month < model.capacity.length && (swaps.get(o.month) ?? 0) >= model.capacity[o.month]) return false;
+      return model.budgets.every((b, y) => b === null || spend[y] + (o.capitalByYear[y] ?? 0) <= b);
+    });
+    if (fit === undefined) return null;
+    const o = t.options[fit];
+    model.budgets.forEach((_, y) => (spend[y] += o.capitalByYear[y] ?? 0));
+    if (o.month !== null) swaps.set(o.month, (swaps.get(o.month) ?? 0) + 1);
+    x[firstCol[i] + fit] = 1;
+  }
+  return x;
+}
+
+/** Solve the LP text, from `start` when given (a plan that fits); `then` reads the model's first solution before the model is freed. */
+function solveLp(highs: Highs, built: Built, timeLimit: number, then?: (first: Solved) => void, start?: Float64Array | null): Solved {
   const model = highs.createModel({ format: 'lp', data: built.text });
   try {
     model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: ABS_GAP, time_limit: timeLimit });
+    if (start) model.setSolution({ colValue: start });
     const first = runModel(model, built);
     if (first.x && then) then(first);
     return first;
@@ -474,13 +522,14 @@ export async function solveProgramme(input: ProgrammeInput, highs?: Highs): Prom
           b.gain = 0;
           continue;
         }
-        const s = solveLp(solver, again, limit);
+        // the optimum fits the relaxed model too: the re-solve starts from it
+        const s = solveLp(solver, again, limit, undefined, x);
         seconds += s.seconds;
         b.gain = s.x ? Math.max(0, objectiveOf(model, again, s.x) - objective) : 0;
       }
     }
     result = { ok: true, message: null, status: first.status, objective, gap: first.gap, seconds, choices, binding, capitalByYear, swapsByMonth };
-  });
+  }, greedyStart(model, built));
   if (result) return result;
   if (solved.status === 'infeasible') return { ...empty(whyInfeasible(model), solved.status), seconds: solved.seconds };
   return { ...empty(`The solver stopped without a plan (${solved.status}).`, solved.status), seconds: solved.seconds };

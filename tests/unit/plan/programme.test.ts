@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { BUDGET_STEP, budgetCuts, loadHighs, programmeLp, solveProgramme, type ProgrammeInput, type ProgrammeOption, type ProgrammeTruck } from '@/lib/plan/programme';
+import { BUDGET_STEP, budgetCuts, greedyStart, loadHighs, programmeLp, solveProgramme, type ProgrammeInput, type ProgrammeOption, type ProgrammeTruck } from '@/lib/plan/programme';
 
 /** Every assignment (one option per truck) enumerated: the best Σ npv within every budget and month capacity; null if none fits. */
 function bruteForce(input: ProgrammeInput): number | null {
@@ -221,6 +221,41 @@ describe('fleet programme (MILP)', () => {
       }),
       { numRuns: 150 },
     );
+  }, 120_000);
+
+  it('starts the solver from a greedy plan that takes one option per truck and fits every budget and month, never better than the optimum', async () => {
+    const highs = await loadHighs();
+    let started = 0;
+    await fc.assert(
+      fc.asyncProperty(fleet, budgets, capacity, async (trucks, b, c) => {
+        const input: ProgrammeInput = { trucks, budgets: b, capacity: c, marginals: false };
+        const built = programmeLp(input);
+        const x = greedyStart(input, built);
+        if (x === null) return;
+        started++;
+        const spend = b.map(() => 0);
+        const swaps = c.map(() => 0);
+        const per = trucks.map(() => 0);
+        let value = 0;
+        x.forEach((v, col) => {
+          expect(v === 0 || v === 1).toBe(true);
+          if (v === 0) return;
+          const o = trucks[built.truckOf[col]].options[built.optionOf[col]];
+          per[built.truckOf[col]] += 1;
+          value += o.npv;
+          o.capitalByYear.forEach((a, y) => { if (y < spend.length) spend[y] += a; });
+          if (o.month !== null && o.month < swaps.length) swaps[o.month] += 1;
+        });
+        expect(per.every((n) => n === 1)).toBe(true);
+        b.forEach((v, y) => { if (v !== null) expect(spend[y]).toBeLessThanOrEqual(v); });
+        c.forEach((v, m) => expect(swaps[m]).toBeLessThanOrEqual(v));
+        const r = await solveProgramme(input, highs);
+        expect(r.ok).toBe(true);
+        expect(value).toBeLessThanOrEqual(r.objective + 1e-6);
+      }),
+      { numRuns: 100 },
+    );
+    expect(started).toBeGreaterThan(10);
   }, 120_000);
 
   it('says why in plain words when the input is empty or cannot be met', async () => {
