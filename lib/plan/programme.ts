@@ -182,7 +182,8 @@ interface BudgetCut {
  * - one amount v: n_v ≤ ⌊B / v⌋;
  * - two amounts v1 > v2: the facets of the convex hull of the whole points
  *   {(n1, n2) ≥ 0 : v1·n1 + v2·n2 ≤ B} (its upper hull over n1 = 0 … ⌊B/v1⌋
- *   with n2 = ⌊(B − v1·n1)/v2⌋, plus n1 ≤ ⌊B/v1⌋): the strongest such rows;
+ *   with n2 = ⌊(B − v1·n1)/v2⌋, plus n1 ≤ ⌊B/v1⌋; each count at most the
+ *   options of its price): the strongest such rows;
  * - more amounts: the Chvátal–Gomory rows Σ ⌊v_c / d⌋ · x_c ≤ ⌊B / d⌋ for each
  *   amount d (valid: the left side is a whole number ≤ Σ v_c x_c / d).
  *
@@ -203,9 +204,12 @@ export function budgetCuts(amounts: number[], budget: number): BudgetCut[] {
   }
   if (values.length === 2) {
     const [v1, v2] = values;
-    const top = fl((budget + tol) / v1);
+    // no more swaps of a price than options with it (this also bounds the loop whatever the budget)
+    const count = (v: number) => amounts.filter((a) => same(a, v)).length;
+    const top = Math.min(count(v1), fl((budget + tol) / v1));
+    const most2 = count(v2);
     const pts: [number, number][] = [];
-    for (let a = 0; a <= top; a++) pts.push([a, fl((budget + tol - v1 * a) / v2)]);
+    for (let a = 0; a <= top; a++) pts.push([a, Math.min(most2, fl((budget + tol - v1 * a) / v2))]);
     // upper hull (monotone chain), left to right
     const hull: [number, number][] = [];
     for (const p of pts) {

@@ -187,11 +187,16 @@ describe('fleet programme (MILP)', () => {
       ),
       { numRuns: 60 },
     );
-    // the hull of 2.49 M / 1.89 M within 12 M: n1 ≤ 4, n2 ≤ 6, and the fractional point (4.82, 0) of the budget row alone is cut
-    const cuts = budgetCuts([2.49e6, 2.49e6, 1.89e6], 12e6);
+    // the hull of 2.49 M / 1.89 M within 12 M (six options of each): n1 ≤ 4, n2 ≤ 6, and the fractional point (4.82, 0) of the budget row alone is cut
+    const six = (p: number) => new Array<number>(6).fill(p);
+    const cuts = budgetCuts([...six(2.49e6), ...six(1.89e6)], 12e6);
     expect(cuts.some((c) => c.coef(2.49e6) * 4.82 > c.rhs)).toBe(true);
     expect(cuts.find((c) => c.coef(2.49e6) === 1 && c.coef(1.89e6) === 0)?.rhs).toBe(4);
     expect(cuts.find((c) => c.coef(2.49e6) === 0 && c.coef(1.89e6) === 1)?.rhs).toBe(6);
+    // a budget far above the prices: the rows stop at the options there are (and are built at once)
+    const wide = budgetCuts([3, 3, 2], 1e12);
+    expect(wide.find((c) => c.coef(3) === 1 && c.coef(2) === 0)?.rhs).toBe(2);
+    expect(wide.find((c) => c.coef(3) === 0 && c.coef(2) === 1)?.rhs).toBe(1);
   });
 
   it('finds the same optimum as enumerating every assignment when swaps cost one of two prices (the tightened budget rows)', async () => {
