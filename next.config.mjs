@@ -27,7 +27,8 @@ const nextConfig = {
   // A separate build folder lets browser tests build beside a running dev server.
   distDir: process.env.NEXT_DIST_DIR || '.next',
   poweredByHeader: false,
-  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer', 'pdfkit', 'fontkit'],
+  // pdfkit reads its font data files and highs its build/highs.wasm beside their own scripts: bundled, they would not be found
+  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer', 'pdfkit', 'fontkit', 'highs'],
   async headers() {
     return [
       { source: '/:path*', headers: securityHeaders },

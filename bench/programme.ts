@@ -15,9 +15,9 @@ import { planProgramme } from '@/lib/plan/programme-case';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { syntheticFleet } from './support/synthetic-fleet';
 
-async function once(label: string, c: CaseFileInput): Promise<number> {
-  // budgets that bind: 40 % of a repower for every truck spread over 5 years; 2 swaps a month, month 4 shut
-  const budgets = [0, 1, 2, 3, 4].map(() => Math.round((c.trucks.length * 1.5e6 * 0.4) / 5));
+async function once(label: string, c: CaseFileInput, budgetShare = 0.4): Promise<number> {
+  // budgets that bind: 40 % of a repower for every truck spread over 5 years (or `budgetShare`); 2 swaps a month, month 4 shut
+  const budgets = [0, 1, 2, 3, 4].map(() => Math.round((c.trucks.length * 1.5e6 * budgetShare) / 5));
   const capacity = Array.from({ length: 60 }, (_, m) => (m === 3 ? 0 : 2));
   clearExpectedQuantities();
   const t0 = performance.now();
@@ -30,7 +30,7 @@ async function once(label: string, c: CaseFileInput): Promise<number> {
   const r = p.result;
   console.log(
     `${label.padEnd(28)} ${ms.toFixed(0).padStart(6)} ms wall, ${cpuMs.toFixed(0).padStart(6)} ms cpu  (${options} options, solver ${r.status}, gap ${r.gap}, ` +
-      `${(r.seconds * 1000).toFixed(0)} ms in HiGHS incl. ${r.binding.length} marginal re-solves; load ${loadavg()[0].toFixed(2)})`,
+      `${(r.seconds * 1000).toFixed(0)} ms in HiGHS incl. the values of ${r.binding.length} binding constraints; load ${loadavg()[0].toFixed(2)})`,
   );
   return cpuMs;
 }
@@ -44,6 +44,8 @@ export async function run(): Promise<void> {
     await once('28 trucks', syntheticFleet(base, 28));
     hundred = Math.min(hundred, await once('100 trucks', syntheticFleet(base, 100)));
   }
+  // budgets doubled: more swaps fit, so many more months bind (each valued by its own re-solve)
+  await once('100 trucks, budgets doubled', syntheticFleet(base, 100), 0.8);
   // judged on CPU time: the wall clock on a shared machine mostly measures the other work (see the load)
   console.log(`target: 100 trucks ≤ 2 s (valuing the options plus solving, cpu) → ${hundred <= 2000 ? 'met' : 'NOT met'} (${hundred.toFixed(0)} ms)`);
 }

@@ -303,51 +303,93 @@ interface LifeLaws {
   failed: Law[];
 }
 
-/** The start and end laws of lives 1..k of the old engine (see the module comment). */
-function lifeLaws(setup: TruckSetup, k: number, delay: number, grid: Grid): LifeLaws {
+/** One life of the old engine: its end laws from its start law, and the start law of the next life. */
+interface Life {
+  start: Law;
+  lambda: number;
+  planned: Law;
+  failed: Law;
+  next: Law;
+}
+
+function oneLife(setup: TruckSetup, start: Law, j: number, lam: number, grid: Grid): Life {
   const e = setup.start;
   const a0 = setup.truck.engineHours;
-  const l = e.lifeHours;
   const h0 = hazard(e, a0);
+  const { g } = grid;
+  const first = j === 1;
+  // survival and failure CDF of this life, s hours into it
+  const F = first ? (s: number) => -Math.expm1(h0 - hazard(e, a0 + s)) : (s: number) => -Math.expm1(-hazard(e, s));
+  const survive = first ? Math.exp(h0 - hazard(e, a0 + lam)) : Math.exp(-hazard(e, lam));
+  const fail = emptyLaw(grid);
+  const plan = emptyLaw(grid);
+  for (const at of start.atoms) {
+    addFailures(fail.cells, grid, at.t, lam, at.p, F);
+    plan.atoms.push({ t: at.t + lam, p: at.p * survive });
+  }
+  // from a cell (its mass at the centre): the same kernel for every cell, kernel_i = F((i + ½)g ∧ λ) − F((i − ½)g ∧ λ)
+  const kernel: number[] = [];
+  for (let i = 0; (i - 0.5) * g < lam; i++) kernel.push(F(Math.min((i + 0.5) * g, lam)) - (i === 0 ? 0 : F(Math.min((i - 0.5) * g, lam))));
+  for (let c = 0; c < grid.n; c++) {
+    const m = start.cells[c];
+    if (m === 0) continue;
+    const top = Math.min(kernel.length, grid.n - c);
+    for (let i = 0; i < top; i++) fail.cells[c + i] += m * kernel[i];
+  }
+  addShifted(plan.cells, start.cells, lam / g, survive);
+  const next = emptyLaw(grid);
+  next.atoms = plan.atoms.filter((a) => a.t < grid.T - ZERO);
+  for (let c = 0; c < grid.n; c++) next.cells[c] = fail.cells[c] + plan.cells[c];
+  return { start, lambda: lam, planned: plan, failed: fail, next };
+}
+
+/**
+ * The undelayed lives of a truck's old engine, shared by all its options: lives 1 … k − 1 of option (k, d) do
+ * not depend on k or d (only the last life carries the delay), so each is computed once per setup and grid.
+ * The same arithmetic in the same order: every figure is what computing them afresh gives.
+ */
+const undelayedLives = new WeakMap<TruckSetup, { g: number; n: number; lives: Life[] }>();
+
+function undelayedLife(setup: TruckSetup, j: number, grid: Grid): Life {
+  let chain = undelayedLives.get(setup);
+  if (!chain || chain.g !== grid.g || chain.n !== grid.n) {
+    chain = { g: grid.g, n: grid.n, lives: [] };
+    undelayedLives.set(setup, chain);
+  }
+  const l = setup.start.lifeHours;
+  while (chain.lives.length < j) {
+    const i = chain.lives.length + 1;
+    const start: Law = i === 1 ? { atoms: [{ t: 0, p: 1 }], cells: new Float64Array(grid.n) } : chain.lives[i - 2].next;
+    chain.lives.push(oneLife(setup, start, i, i === 1 ? Math.max(0, l - setup.truck.engineHours) : l, grid));
+  }
+  return chain.lives[j - 1];
+}
+
+/** The start and end laws of lives 1..k of the old engine (see the module comment). */
+function lifeLaws(setup: TruckSetup, k: number, delay: number, grid: Grid): LifeLaws {
+  const l = setup.start.lifeHours;
+  const a0 = setup.truck.engineHours;
   const starts: Law[] = [];
   const lambda: number[] = [];
   const planned: Law[] = [];
   const failed: Law[] = [];
-  const { g } = grid;
-  let start: Law = { atoms: [{ t: 0, p: 1 }], cells: new Float64Array(grid.n) };
   for (let j = 1; j <= k; j++) {
-    const lam = (j === 1 ? Math.max(0, l - a0) : l) + (j === k ? delay : 0);
-    const first = j === 1;
-    // survival and failure CDF of this life, s hours into it
-    const F = first ? (s: number) => -Math.expm1(h0 - hazard(e, a0 + s)) : (s: number) => -Math.expm1(-hazard(e, s));
-    const survive = first ? Math.exp(h0 - hazard(e, a0 + lam)) : Math.exp(-hazard(e, lam));
-    const fail = emptyLaw(grid);
-    const plan = emptyLaw(grid);
-    for (const at of start.atoms) {
-      addFailures(fail.cells, grid, at.t, lam, at.p, F);
-      plan.atoms.push({ t: at.t + lam, p: at.p * survive });
-    }
-    // from a cell (its mass at the centre): the same kernel for every cell, kernel_i = F((i + ½)g ∧ λ) − F((i − ½)g ∧ λ)
-    const kernel: number[] = [];
-    for (let i = 0; (i - 0.5) * g < lam; i++) kernel.push(F(Math.min((i + 0.5) * g, lam)) - (i === 0 ? 0 : F(Math.min((i - 0.5) * g, lam))));
-    for (let c = 0; c < grid.n; c++) {
-      const m = start.cells[c];
-      if (m === 0) continue;
-      const top = Math.min(kernel.length, grid.n - c);
-      for (let i = 0; i < top; i++) fail.cells[c + i] += m * kernel[i];
-    }
-    addShifted(plan.cells, start.cells, lam / g, survive);
-    starts.push(start);
-    lambda.push(lam);
-    planned.push(plan);
-    failed.push(fail);
-    const next = emptyLaw(grid);
-    next.atoms = plan.atoms.filter((a) => a.t < grid.T - ZERO);
-    for (let c = 0; c < grid.n; c++) next.cells[c] = fail.cells[c] + plan.cells[c];
-    start = next;
+    const life = j < k || delay === 0
+      ? undelayedLife(setup, j, grid)
+      : oneLife(setup, j === 1 ? { atoms: [{ t: 0, p: 1 }], cells: new Float64Array(grid.n) } : undelayedLife(setup, j - 1, grid).next, j, (j === 1 ? Math.max(0, l - a0) : l) + delay, grid);
+    starts.push(life.start);
+    lambda.push(life.lambda);
+    planned.push(life.planned);
+    failed.push(life.failed);
   }
   return { starts, lambda, planned, failed };
 }
+
+/** Per-year masses of a law (massIn over each period, as optionQuantities books them), cached by the law: shared lives are booked once. */
+const yearMasses = new WeakMap<Law, Float64Array>();
+
+/** Per-year service masses of a start law shifted by m service intervals, cached by the law and m. */
+const serviceMasses = new WeakMap<Law, Map<number, Float64Array>>();
 
 /** Per-period expected quantities of a general option. */
 interface OptionQuantities {
@@ -381,7 +423,15 @@ function optionQuantities(setup: TruckSetup, k: number, delay: number): OptionQu
     newRepairs: perYear(), oldServices: perYear(), newServices: perYear(), oldHours: perYear(), oldShare: 0, newShare: 0, oldRunning: 0,
     failureBeforePlanned: 0,
   };
-  const inYear = (law: Law, y: number) => massIn(law, grid, y === 0 ? -1 : ends[y - 1], ends[y], y === 0, y === n);
+  const inYear = (law: Law, y: number) => {
+    let masses = yearMasses.get(law);
+    if (!masses) {
+      masses = new Float64Array(n + 1);
+      for (let z = 0; z <= n; z++) masses[z] = massIn(law, grid, z === 0 ? -1 : ends[z - 1], ends[z], z === 0, z === n);
+      yearMasses.set(law, masses);
+    }
+    return masses[y];
+  };
   for (let y = 0; y <= n; y++) {
     for (let j = 0; j < k; j++) {
       const isSwap = j === k - 1;
@@ -420,9 +470,17 @@ function optionQuantities(setup: TruckSetup, k: number, delay: number): OptionQu
     for (let m = 1; m * I < lam - ZERO; m++) {
       const p = Math.exp(-hazard(e, m * I));
       if (p < 1e-17) break;
-      const shifted: Law = { atoms: start.atoms.map((a) => ({ t: a.t + m * I, p: a.p })), cells: new Float64Array(grid.n) };
-      addShifted(shifted.cells, start.cells, (m * I) / g, 1);
-      for (let y = 1; y <= n; y++) q.oldServices[y] += p * massIn(shifted, grid, ends[y - 1], ends[y], false, false) + 0;
+      let byM = serviceMasses.get(start);
+      if (!byM) serviceMasses.set(start, (byM = new Map()));
+      let masses = byM.get(m);
+      if (!masses) {
+        masses = new Float64Array(n + 1);
+        const shifted: Law = { atoms: start.atoms.map((a) => ({ t: a.t + m * I, p: a.p })), cells: new Float64Array(grid.n) };
+        addShifted(shifted.cells, start.cells, (m * I) / g, 1);
+        for (let y = 1; y <= n; y++) masses[y] = p * massIn(shifted, grid, ends[y - 1], ends[y], false, false) + 0;
+        byM.set(m, masses);
+      }
+      for (let y = 1; y <= n; y++) q.oldServices[y] += masses[y];
     }
   }
   // old engine's hours: ∫ P(S > τ) dτ per year; ∫₀ˣ CDF_S = Σ mass · E[max(0, x − position)]

@@ -30,12 +30,23 @@
  * - the value of one more unit of each binding constraint, by re-solving:
  *   a budget binds when its slack is below 1e-6 · max(1, B), and gets
  *   +1,000,000; a month binds when it is full, and gets +1 swap. `gain` is
- *   the re-solved optimum less the optimum (≥ 0).
+ *   the re-solved optimum less the optimum (≥ 0). The LP relaxation of the
+ *   relaxed model is solved first: when its bound is within the absolute
+ *   gap of the optimum, one more unit cannot gain anything and the MILP is
+ *   not re-solved (gain 0).
  * - HiGHS's model status, the relative MIP gap (0 when proven optimal:
  *   mip_rel_gap is set to 0, mip_abs_gap to one unit of money) and the solve
  *   time in seconds. Each solve stops at `timeLimitSeconds` (default 30):
  *   then the best plan found is reported with status "time limit" and its
  *   gap, or, with none found, `ok: false`.
+ *
+ * ## Solving
+ *
+ * Each budget row comes with whole-plan rows that tighten its relaxation
+ * (`budgetCuts`); the main solve starts from a greedy plan that fits
+ * (`greedyStart`), each marginal re-solve from the optimum (it fits the
+ * relaxed model). Neither changes the optimum: the cuts remove no whole plan,
+ * a start only gives the search an early bound.
  *
  * The LP text uses indices only (x0, x1, …; r0, …): no truck id or label ever
  * reaches the parser.
@@ -108,7 +119,7 @@ export interface ProgrammeResult {
   status: string;
   /** Σ npv of the chosen options */
   objective: number;
-  /** relative MIP gap reported by HiGHS */
+  /** relative MIP gap reported by HiGHS (+∞ when stopped before any bound was proven) */
   gap: number;
   seconds: number;
   choices: TruckChoice[];
@@ -155,6 +166,78 @@ interface Built {
   capacityRow: Map<number, number>;
 }
 
+/** A valid inequality Σ coef(capital_c) · x_c ≤ rhs on a budget row: integer coefficients, integer right-hand side. */
+interface BudgetCut {
+  coef: (amount: number) => number;
+  rhs: number;
+}
+
+/**
+ * Rows that every plan within budget B meets, added beside the budget row to
+ * tighten its LP relaxation (the optimum is unchanged: no whole plan within
+ * B is cut off; the budget row itself stays). The swaps of a fiscal year
+ * mostly cost one of a few amounts (one per offer, at that year's prices),
+ * so the row is a knapsack over counts n_v of swaps of each amount v:
+ *
+ * - one amount v: n_v ≤ ⌊B / v⌋;
+ * - two amounts v1 > v2: the facets of the convex hull of the whole points
+ *   {(n1, n2) ≥ 0 : v1·n1 + v2·n2 ≤ B} (its upper hull over n1 = 0 … ⌊B/v1⌋
+ *   with n2 = ⌊(B − v1·n1)/v2⌋, plus n1 ≤ ⌊B/v1⌋; each count at most the
+ *   options of its price): the strongest such rows;
+ * - more amounts: the Chvátal–Gomory rows Σ ⌊v_c / d⌋ · x_c ≤ ⌊B / d⌋ for each
+ *   amount d (valid: the left side is a whole number ≤ Σ v_c x_c / d).
+ *
+ * Amounts are compared to the cent; the floors allow a little slack
+ * (1e-9 · B plus half a cent per option) so a rounding error never cuts off
+ * a plan (the budget row stays exact).
+ */
+export function budgetCuts(amounts: number[], budget: number): BudgetCut[] {
+  const values = [...new Set(amounts.filter((a) => a > 0).map((a) => Math.round(a * 100) / 100))].sort((a, b) => b - a);
+  if (values.length === 0) return [];
+  // generous by rounding: amounts within half a cent of a value count as it
+  const tol = 1e-9 * Math.max(1, budget) + 0.005 * amounts.length;
+  const fl = (v: number) => Math.max(0, Math.floor(v + 1e-9));
+  const same = (a: number, v: number) => a > 0 && Math.abs(Math.round(a * 100) / 100 - v) < 0.005;
+  if (values.length === 1) {
+    const v = values[0];
+    return [{ coef: (a) => (same(a, v) ? 1 : 0), rhs: fl((budget + tol) / v) }];
+  }
+  if (values.length === 2) {
+    const [v1, v2] = values;
+    // no more swaps of a price than options with it (this also bounds the loop whatever the budget)
+    const count = (v: number) => amounts.filter((a) => same(a, v)).length;
+    const top = Math.min(count(v1), fl((budget + tol) / v1));
+    const most2 = count(v2);
+    const pts: [number, number][] = [];
+    for (let a = 0; a <= top; a++) pts.push([a, Math.min(most2, fl((budget + tol - v1 * a) / v2))]);
+    // upper hull (monotone chain), left to right
+    const hull: [number, number][] = [];
+    for (const p of pts) {
+      while (hull.length >= 2) {
+        const [o, q] = [hull[hull.length - 2], hull[hull.length - 1]];
+        const cross = (q[0] - o[0]) * (p[1] - o[1]) - (q[1] - o[1]) * (p[0] - o[0]);
+        if (cross >= 0) hull.pop();
+        else break;
+      }
+      hull.push(p);
+    }
+    const cuts: BudgetCut[] = [];
+    const pick = (c1: number, c2: number) => (a: number) => (same(a, v1) ? c1 : same(a, v2) ? c2 : 0);
+    cuts.push({ coef: pick(1, 0), rhs: top });
+    cuts.push({ coef: pick(0, 1), rhs: hull[0][1] });
+    for (let i = 0; i + 1 < hull.length; i++) {
+      const [a1, b1] = hull[i];
+      const [a2, b2] = hull[i + 1];
+      // the edge through (a1, b1) and (a2, b2): (b1 − b2)·n1 + (a2 − a1)·n2 ≤ (b1 − b2)·a1 + (a2 − a1)·b1
+      const c1 = b1 - b2;
+      const c2 = a2 - a1;
+      if (c1 > 0 && c2 > 0) cuts.push({ coef: pick(c1, c2), rhs: c1 * a1 + c2 * b1 });
+    }
+    return cuts;
+  }
+  return values.map((d) => ({ coef: (a: number) => (a > 0 ? Math.floor(a / d) : 0), rhs: fl((budget + tol) / d) }));
+}
+
 /** The CPLEX LP text of the programme; npvs are offset by each truck's lowest npv (a constant) to keep coefficients small. */
 export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capacity = input.capacity): Built {
   const truckOf: number[] = [];
@@ -187,13 +270,23 @@ export function programmeLp(input: ProgrammeInput, budgets = input.budgets, capa
   budgets.forEach((b, y) => {
     if (b === null) return;
     const terms: string[] = [];
+    const amounts: number[] = [];
     for (let c = 0; c < truckOf.length; c++) {
       const amount = input.trucks[truckOf[c]].options[optionOf[c]].capitalByYear[y] ?? 0;
+      amounts.push(amount);
       if (Math.abs(amount) > 0) terms.push(`+ ${num(amount)} x${c}`);
     }
     if (terms.length > 0) {
       budgetRow.set(y, r);
       rows.push(row(terms, `<= ${num(b)}`));
+      for (const cut of budgetCuts(amounts, b)) {
+        const cutTerms: string[] = [];
+        for (let c = 0; c < truckOf.length; c++) {
+          const w = cut.coef(amounts[c]);
+          if (w > 0) cutTerms.push(`+ ${w} x${c}`);
+        }
+        if (cutTerms.length > 0) rows.push(row(cutTerms, `<= ${cut.rhs}`));
+      }
     }
   });
   capacity.forEach((cap, m) => {
@@ -297,18 +390,72 @@ function runModel(model: Model, built: Built): Solved {
   // optimal, or stopped at the time limit with a feasible plan (then the gap says how far from proven)
   const feasible = code === 7 || (code === 13 && Number(model.info.get('primal_solution_status')) === 2);
   if (!feasible) return { status, objective: Number.NaN, gap: Number.NaN, seconds, x: null };
-  const gap = Number(model.info.get('mip_gap'));
+  // stopped before any bound was proven (a plan given as the start, no node solved): the gap is unknown, +∞
+  const reported = Number(model.info.get('mip_gap'));
+  const gap = Number.isNaN(reported) ? Number.POSITIVE_INFINITY : reported;
   return { status, objective: model.getObjectiveValue() + built.offset, gap, seconds, x: model.getSolution().colValue.slice() };
 }
 
-/** Solve the LP text; `then` reads the model's first solution before the model is freed. */
-function solveLp(highs: Highs, built: Built, timeLimit: number, then?: (first: Solved) => void): Solved {
+/**
+ * A plan that fits, to start the solver from (its bound prunes from the first node): trucks in order of
+ * regret (their best npv less their second best, largest first) each take their best option that still fits
+ * the budgets and the shop. Null when some truck finds nothing that fits (the solver then starts cold).
+ * Column values of `built` (one 1 per truck).
+ */
+export function greedyStart(model: ProgrammeInput, built: Built): Float64Array | null {
+  const spend = model.budgets.map(() => 0);
+  const swaps = new Map<number, number>();
+  const x = new Float64Array(built.truckOf.length);
+  const firstCol: number[] = [];
+  let j = 0;
+  for (const t of model.trucks) {
+    firstCol.push(j);
+    j += t.options.length;
+  }
+  const ranked = model.trucks.map((t) => t.options.map((_, k) => k).sort((a, b) => t.options[b].npv - t.options[a].npv));
+  const order = model.trucks.map((t, i) => {
+    const r = ranked[i];
+    return { i, regret: r.length > 1 ? t.options[r[0]].npv - t.options[r[1]].npv : 0 };
+  }).sort((a, b) => b.regret - a.regret);
+  for (const { i } of order) {
+    const t = model.trucks[i];
+    const fit = ranked[i].find((k) => {
+      const o = t.options[k];
+      if (o.month !== null && o.month < model.capacity.length && (swaps.get(o.month) ?? 0) >= model.capacity[o.month]) return false;
+      return model.budgets.every((b, y) => b === null || spend[y] + (o.capitalByYear[y] ?? 0) <= b);
+    });
+    if (fit === undefined) return null;
+    const o = t.options[fit];
+    model.budgets.forEach((_, y) => (spend[y] += o.capitalByYear[y] ?? 0));
+    if (o.month !== null) swaps.set(o.month, (swaps.get(o.month) ?? 0) + 1);
+    x[firstCol[i] + fit] = 1;
+  }
+  return x;
+}
+
+/** Solve the LP text, from `start` when given (a plan that fits); `then` reads the model's first solution before the model is freed. */
+function solveLp(highs: Highs, built: Built, timeLimit: number, then?: (first: Solved) => void, start?: Float64Array | null): Solved {
   const model = highs.createModel({ format: 'lp', data: built.text });
   try {
     model.options.set({ output_flag: false, mip_rel_gap: 0, mip_abs_gap: ABS_GAP, time_limit: timeLimit });
+    if (start) model.setSolution({ colValue: start });
     const first = runModel(model, built);
     if (first.x && then) then(first);
     return first;
+  } finally {
+    model.dispose();
+  }
+}
+
+/** The optimum of the LP relaxation (every binary in [0, 1]): an upper bound on the MILP's optimum; +∞ when the LP does not solve. */
+function relaxationBound(highs: Highs, built: Built): { value: number; seconds: number } {
+  const model = highs.createModel({ format: 'lp', data: built.text });
+  try {
+    model.options.set({ output_flag: false });
+    model.clearIntegrality();
+    model.run();
+    const optimal = (model.getModelStatus() as number) === 7;
+    return { value: optimal ? model.getObjectiveValue() + built.offset : Number.POSITIVE_INFINITY, seconds: model.getRunTime() };
   } finally {
     model.dispose();
   }
@@ -372,13 +519,21 @@ export async function solveProgramme(input: ProgrammeInput, highs?: Highs): Prom
         const budgets = b.kind === 'budget' ? model.budgets.map((v, y) => (y === b.index && v !== null ? v + b.relaxBy : v)) : model.budgets;
         const capacity = b.kind === 'capacity' ? model.capacity.map((v, m) => (m === b.index ? v + b.relaxBy : v)) : model.capacity;
         const again = programmeLp(model, budgets, capacity);
-        const s = solveLp(solver, again, limit);
+        // the LP relaxation bounds the relaxed optimum from above: within the gap of the optimum, nothing is gained
+        const bound = relaxationBound(solver, again);
+        seconds += bound.seconds;
+        if (bound.value <= objective + ABS_GAP) {
+          b.gain = 0;
+          continue;
+        }
+        // the optimum fits the relaxed model too: the re-solve starts from it
+        const s = solveLp(solver, again, limit, undefined, x);
         seconds += s.seconds;
         b.gain = s.x ? Math.max(0, objectiveOf(model, again, s.x) - objective) : 0;
       }
     }
     result = { ok: true, message: null, status: first.status, objective, gap: first.gap, seconds, choices, binding, capitalByYear, swapsByMonth };
-  });
+  }, greedyStart(model, built));
   if (result) return result;
   if (solved.status === 'infeasible') return { ...empty(whyInfeasible(model), solved.status), seconds: solved.seconds };
   return { ...empty(`The solver stopped without a plan (${solved.status}).`, solved.status), seconds: solved.seconds };

@@ -63,6 +63,19 @@ describe('timing options', () => {
     });
   }
 
+  it('gives every option the same figures whether valued alone or after its siblings (the undelayed lives are shared)', () => {
+    const c = longTruck();
+    const all = timingOptions(truckSetupOf(c, c.trucks[0].id), { maxK: 3, maxDelayMonths: 3 });
+    const general = all.filter((o) => o.kind === 'event' && (o.k > 1 || o.delayMonths > 0));
+    expect(general.length).toBeGreaterThan(3);
+    for (const o of general) {
+      // a fresh setup: nothing shared with the options valued before
+      const alone = timingOption(truckSetupOf(c, c.trucks[0].id), { kind: 'event', k: o.k, delayMonths: o.delayMonths });
+      expect(alone.npv).toBe(o.npv);
+      expect(alone.result.cashFlows).toEqual(o.result.cashFlows);
+    }
+  });
+
   it('the general scheme run for k = 1, d = 0 agrees with the engine within MODEL.md section 11 accuracy', () => {
     const c = longTruck();
     const setup = truckSetupOf(c, 'T-01');

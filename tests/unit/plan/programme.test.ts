@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { BUDGET_STEP, loadHighs, programmeLp, solveProgramme, type ProgrammeInput, type ProgrammeOption, type ProgrammeTruck } from '@/lib/plan/programme';
+import { BUDGET_STEP, budgetCuts, greedyStart, loadHighs, programmeLp, solveProgramme, type ProgrammeInput, type ProgrammeOption, type ProgrammeTruck } from '@/lib/plan/programme';
 
 /** Every assignment (one option per truck) enumerated: the best Σ npv within every budget and month capacity; null if none fits. */
 function bruteForce(input: ProgrammeInput): number | null {
@@ -160,6 +160,107 @@ describe('fleet programme (MILP)', () => {
     } else {
       expect(r.message).toMatch(/stopped without a plan \(time limit\)/);
     }
+  }, 120_000);
+
+  it('adds budget rows that keep every plan within the budget and cut fractional ones (one, two or three swap prices)', () => {
+    // two prices 2.49 M and 1.89 M, budget 12 M: whole plans (n1, n2) with 2.49·n1 + 1.89·n2 ≤ 12 are enumerated
+    fc.assert(
+      fc.property(
+        fc.uniqueArray(fc.integer({ min: 5, max: 40 }).map((k) => k * 100_000), { minLength: 1, maxLength: 3 }),
+        fc.integer({ min: 0, max: 200 }).map((k) => k * 100_000),
+        (prices, budget) => {
+          // 8 options of each price (more than any budget here allows)
+          const amounts = prices.flatMap((p) => new Array<number>(8).fill(p));
+          const cuts = budgetCuts(amounts, budget);
+          expect(cuts.length).toBeGreaterThan(0);
+          const counts = (pick: number[]) => pick.reduce((s, n, i) => s + n * prices[i], 0);
+          const lhs = (cut: ReturnType<typeof budgetCuts>[number], pick: number[]) => pick.reduce((s, n, i) => s + n * cut.coef(prices[i]), 0);
+          const walk = (i: number, pick: number[]) => {
+            if (i === prices.length) {
+              if (counts(pick) <= budget) for (const cut of cuts) expect(lhs(cut, pick)).toBeLessThanOrEqual(cut.rhs);
+              return;
+            }
+            for (let n = 0; n <= 8; n++) walk(i + 1, [...pick, n]);
+          };
+          walk(0, []);
+        },
+      ),
+      { numRuns: 60 },
+    );
+    // the hull of 2.49 M / 1.89 M within 12 M (six options of each): n1 ≤ 4, n2 ≤ 6, and the fractional point (4.82, 0) of the budget row alone is cut
+    const six = (p: number) => new Array<number>(6).fill(p);
+    const cuts = budgetCuts([...six(2.49e6), ...six(1.89e6)], 12e6);
+    expect(cuts.some((c) => c.coef(2.49e6) * 4.82 > c.rhs)).toBe(true);
+    expect(cuts.find((c) => c.coef(2.49e6) === 1 && c.coef(1.89e6) === 0)?.rhs).toBe(4);
+    expect(cuts.find((c) => c.coef(2.49e6) === 0 && c.coef(1.89e6) === 1)?.rhs).toBe(6);
+    // a budget far above the prices: the rows stop at the options there are (and are built at once)
+    const wide = budgetCuts([3, 3, 2], 1e12);
+    expect(wide.find((c) => c.coef(3) === 1 && c.coef(2) === 0)?.rhs).toBe(2);
+    expect(wide.find((c) => c.coef(3) === 0 && c.coef(2) === 1)?.rhs).toBe(1);
+  });
+
+  it('finds the same optimum as enumerating every assignment when swaps cost one of two prices (the tightened budget rows)', async () => {
+    const highs = await loadHighs();
+    const priced = (i: number) =>
+      fc.record({ month: fc.option(fc.integer({ min: 0, max: MONTHS - 1 }), { nil: null }), npv: fc.integer({ min: -40_000, max: 0 }), cheap: fc.boolean() })
+        .map((o): ProgrammeOption => ({
+          key: `o${i}`, label: `option ${i}`, month: o.month, delayMonths: 0, npv: o.npv * 1000,
+          capitalByYear: [0, 1].map((y) => (o.month !== null && Math.floor(o.month / 2) === y ? (o.cheap ? 1.89e6 : 2.49e6) : 0)),
+        }));
+    const pricedTruck = (t: number) =>
+      fc.integer({ min: 1, max: 3 }).chain((n) => fc.tuple(...Array.from({ length: n }, (_, i) => priced(i))))
+        .map((options): ProgrammeTruck => ({ id: `T${t}`, options }));
+    const pricedFleet = fc.integer({ min: 1, max: 6 }).chain((n) => fc.tuple(...Array.from({ length: n }, (_, t) => pricedTruck(t))));
+    const tight = fc.tuple(...Array.from({ length: YEARS }, () => fc.option(fc.integer({ min: 0, max: 80 }).map((k) => k * 100_000), { nil: null })));
+    await fc.assert(
+      fc.asyncProperty(pricedFleet, tight, capacity, async (trucks, b, c) => {
+        const input: ProgrammeInput = { trucks, budgets: b, capacity: c, marginals: false };
+        const exact = bruteForce(input);
+        const r = await solveProgramme(input, highs);
+        if (exact === null) {
+          expect(r.ok).toBe(false);
+          return;
+        }
+        expect(r.ok).toBe(true);
+        expect(r.objective).toBeCloseTo(exact, 3);
+      }),
+      { numRuns: 150 },
+    );
+  }, 120_000);
+
+  it('starts the solver from a greedy plan that takes one option per truck and fits every budget and month, never better than the optimum', async () => {
+    const highs = await loadHighs();
+    let started = 0;
+    await fc.assert(
+      fc.asyncProperty(fleet, budgets, capacity, async (trucks, b, c) => {
+        const input: ProgrammeInput = { trucks, budgets: b, capacity: c, marginals: false };
+        const built = programmeLp(input);
+        const x = greedyStart(input, built);
+        if (x === null) return;
+        started++;
+        const spend = b.map(() => 0);
+        const swaps = c.map(() => 0);
+        const per = trucks.map(() => 0);
+        let value = 0;
+        x.forEach((v, col) => {
+          expect(v === 0 || v === 1).toBe(true);
+          if (v === 0) return;
+          const o = trucks[built.truckOf[col]].options[built.optionOf[col]];
+          per[built.truckOf[col]] += 1;
+          value += o.npv;
+          o.capitalByYear.forEach((a, y) => { if (y < spend.length) spend[y] += a; });
+          if (o.month !== null && o.month < swaps.length) swaps[o.month] += 1;
+        });
+        expect(per.every((n) => n === 1)).toBe(true);
+        b.forEach((v, y) => { if (v !== null) expect(spend[y]).toBeLessThanOrEqual(v); });
+        c.forEach((v, m) => expect(swaps[m]).toBeLessThanOrEqual(v));
+        const r = await solveProgramme(input, highs);
+        expect(r.ok).toBe(true);
+        expect(value).toBeLessThanOrEqual(r.objective + 1e-6);
+      }),
+      { numRuns: 100 },
+    );
+    expect(started).toBeGreaterThan(10);
   }, 120_000);
 
   it('says why in plain words when the input is empty or cannot be met', async () => {
