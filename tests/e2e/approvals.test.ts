@@ -5,8 +5,13 @@ import { openBrowser, screenshot, signIn, signOut, WS, apiHeaders } from './supp
 
 /** The link in a message's plain-text part, read from the Outbox page as an admin would. */
 async function linkFromOutbox(page: Page, baseURL: string, subject: string, pathPart: string): Promise<string> {
-  await page.goto(`${baseURL}/${WS}/outbox`);
   const item = page.getByTestId('outbox').locator('li').filter({ has: page.getByTestId('outbox-subject').getByText(subject, { exact: true }) }).first();
+  // mail is sent after the change commits, so it can reach the sink a moment after the page was made: reload as a person would
+  for (let attempt = 0; ; attempt++) {
+    await page.goto(`${baseURL}/${WS}/outbox`);
+    if ((await item.count()) > 0 || attempt >= 20) break;
+    await page.waitForTimeout(500);
+  }
   await item.locator('summary').click();
   const href = await item.getByRole('link').filter({ hasText: pathPart }).first().getAttribute('href');
   expect(href).toContain(pathPart);
