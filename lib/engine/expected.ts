@@ -62,7 +62,7 @@ import { addSpendInto, isDepreciatedSpend } from './depreciation';
 import {
   creditShare, gridStep, gridVersion, readTable, renewalTable, servicesByAge, type RenewalRule, type RenewalTable,
 } from './renewal';
-import { clearPeriod, clearTotals, emptyPeriod, emptyPolicyRun, logEvent, type PolicyRun } from './simulate';
+import { clearPeriod, clearTotals, emptyPeriod, emptyPolicyRun, logEvent, type PeriodRun, type PolicyRun, type RunState } from './simulate';
 import type { TruckSetup } from './setup';
 import { ZERO } from './time-value';
 import { EVENT_CODE, type EventCounts, type PeriodQuantities, type PolicyKey } from './types';
@@ -525,6 +525,79 @@ function computeQuantities(setup: TruckSetup, policy: PolicyKey, f: FirstLife, h
   };
 }
 
+/** One period's expected quantities and money (money at the period's prices, positive), as `bookExpectedPeriod` books them. */
+export interface ExpectedPeriodAmounts {
+  /** operating hours of the period, split between the engine fitted at the start and the one after a swap */
+  hours: number;
+  oldHours: number;
+  newHours: number;
+  /** tonnes an hour of the truck, and the extra an hour of the repowered truck (its productivity gain) */
+  tph0: number;
+  extraTph: number;
+  oilServices: number;
+  topUp: number;
+  downtimeDays: number;
+  lube: number;
+  overhaulCost: number;
+  repairCost: number;
+  capital: number;
+  lost: number;
+}
+
+/**
+ * Books period y of an expected run: its record `p`, the discounted totals
+ * `st.d`, and each depreciated spend (repower, then overhaul, then failure:
+ * the order the detail's spends read) into `st.depreciation` and the event
+ * log. Returns true when a spend of the period is depreciated. Shared by the
+ * policies' expected runs here and the timing options (./timing.ts), so both
+ * book a period by one rule.
+ */
+export function bookExpectedPeriod(setup: TruckSetup, y: number, p: PeriodRun, st: Pick<RunState, 'd' | 'log' | 'depreciation'>, m: ExpectedPeriodAmounts): boolean {
+  const { a, n } = setup;
+  const idx = setup.generalIndex[y];
+  const df = setup.discountFactor[y];
+  const d = st.d;
+  p.hours = m.hours;
+  p.fuelLitres = setup.burnStart * m.oldHours + setup.burnNext * m.newHours;
+  p.tonnes = m.tph0 * m.hours + m.extraTph * m.newHours;
+  p.extraTonnes = m.extraTph * m.newHours;
+  p.oilServices = m.oilServices;
+  p.topUpLitres = m.topUp;
+  p.downtimeDays = m.downtimeDays;
+  p.lube = m.lube;
+  p.overhauls = m.overhaulCost;
+  p.failures = m.repairCost;
+  p.capital = m.capital;
+  p.lostMargin = m.lost;
+  p.extraMargin = m.extraTph * m.newHours * a.marginPerTonne * idx;
+  d.energy += p.fuelLitres * setup.energyCost[y];
+  d.lube += m.lube * df;
+  d.lostMargin += m.lost * df;
+  d.overhauls += m.overhaulCost * df;
+  d.failures += m.repairCost * df;
+  d.capital += m.capital * df;
+  d.extraMargin += p.extraMargin * df;
+  const expense = a.rebuildAccounting === 'expense';
+  let depreciated = false;
+  const spend = (code: number, cost: number) => {
+    if (!isDepreciatedSpend(code === EVENT_CODE.repower, cost, expense)) return;
+    depreciated = true;
+    d.writeOff += addSpendInto(cost, a.depreciation, y, n, st.depreciation);
+    logEvent(st.log, y, code, cost);
+  };
+  if (m.capital > 0) spend(EVENT_CODE.repower, m.capital);
+  if (m.overhaulCost > 0) spend(EVENT_CODE.overhaul, m.overhaulCost);
+  if (m.repairCost > 0) spend(EVENT_CODE.failure, m.repairCost);
+  return depreciated;
+}
+
+/** Present value of a depreciation schedule, periods 1..N. */
+export function depreciationPv(depreciation: ArrayLike<number>, discountFactor: ArrayLike<number>, n: number): number {
+  let pv = 0;
+  for (let y = 1; y <= n; y++) pv += depreciation[y] * discountFactor[y];
+  return pv;
+}
+
 /**
  * The expected run of one policy on one truck: a `PolicyRun` whose periods
  * hold expected amounts, with `eventCounts`, `failureBeforePlanned` and the
@@ -569,7 +642,6 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
   const failedSwapDays = Math.max(offer.downtimeDays, start.failureDowntimeDays);
   for (let y = 0; y <= n; y++) {
     const idx = generalIndex[y];
-    const df = discountFactor[y];
     const p = periods[y];
     const dPlanned = firstEnds[y] - (y > 0 ? firstEnds[y - 1] : 0);
     const dFailed = firstFails[y] - (y > 0 ? firstFails[y - 1] : 0);
@@ -612,42 +684,15 @@ export function expectedPolicyRun(setup: TruckSetup, policy: PolicyKey, run: Pol
       servicesStart, servicesNew: repower ? dServices : 0, overhauls: ov, repairs: rep,
       plannedRepowers: repower ? dPlanned : 0, failedRepowers: repower ? dFailed : 0, lostTonnes,
     });
-    p.hours = hy;
-    p.fuelLitres = setup.burnStart * oldHours + setup.burnNext * newHours;
-    p.tonnes = tph0 * hy + extraTph * newHours;
-    p.extraTonnes = extraTph * newHours;
-    p.oilServices = firstLifeService + dServices;
-    p.topUpLitres = topUp;
-    p.downtimeDays = days;
-    p.lube = lube;
-    p.overhauls = overhaulCost;
-    p.failures = repairCost;
-    p.capital = capital;
-    p.lostMargin = lost;
-    p.extraMargin = extraTph * newHours * a.marginPerTonne * idx;
-    d.energy += p.fuelLitres * setup.energyCost[y];
-    d.lube += lube * df;
-    d.lostMargin += lost * df;
-    d.overhauls += overhaulCost * df;
-    d.failures += repairCost * df;
-    d.capital += capital * df;
-    d.extraMargin += p.extraMargin * df;
-    // depreciated spends of the period, by category (log entries: what the detail's spends read)
-    const spend = (code: number, cost: number) => {
-      if (!isDepreciatedSpend(code === EVENT_CODE.repower, cost, expense)) return;
+    if (
+      bookExpectedPeriod(setup, y, p, st, {
+        hours: hy, oldHours, newHours, tph0, extraTph, oilServices: firstLifeService + dServices, topUp,
+        downtimeDays: days, lube, overhaulCost, repairCost, capital, lost,
+      })
+    )
       depreciated = true;
-      d.writeOff += addSpendInto(cost, a.depreciation, y, n, depreciation);
-      logEvent(log, y, code, cost);
-    };
-    if (capital > 0) spend(EVENT_CODE.repower, capital);
-    if (overhaulCost > 0) spend(EVENT_CODE.overhaul, overhaulCost);
-    if (repairCost > 0) spend(EVENT_CODE.failure, repairCost);
   }
-  if (depreciated) {
-    let pv = 0;
-    for (let y = 1; y <= n; y++) pv += depreciation[y] * discountFactor[y];
-    d.depreciation = pv;
-  }
+  if (depreciated) d.depreciation = depreciationPv(depreciation, discountFactor, n);
 
   // residual credit: the first life still fitted at the end, or the fresh engine fitted then
   const gN = generalIndex[n];

@@ -68,14 +68,13 @@
  */
 import type { CaseFileInput, Engine } from '@/lib/validation/case';
 import { assembleCashFlows, npvFromTotals } from './cash-flow';
-import { addSpendInto, isDepreciatedSpend } from './depreciation';
-import { expectedPolicyRun } from './expected';
+import { bookExpectedPeriod, depreciationPv, expectedPolicyRun } from './expected';
 import { policyResult } from './results';
 import { creditShare, gridStep, readTable, renewalTable, servicesByAge, type RenewalTable } from './renewal';
 import { buildCaseYearTables, buildTruckSetup, resolveAssumptions, resolveOffer, resolveTruck, type ResolvedOffer, type TruckSetup } from './setup';
-import { clearTotals, emptyPeriod, emptyPolicyRun, logEvent, simulatePolicy, type PolicyRun } from './simulate';
+import { clearTotals, emptyPeriod, emptyPolicyRun, simulatePolicy, type PolicyRun } from './simulate';
 import { ZERO } from './time-value';
-import { EVENT_CODE, type EventCounts, type PeriodQuantities, type PolicyKey, type PolicyResult } from './types';
+import { type EventCounts, type PeriodQuantities, type PolicyKey, type PolicyResult } from './types';
 
 export type TimingKind = 'keep' | 'rebuild' | 'now' | 'event';
 
@@ -643,7 +642,6 @@ function generalRun(setup: TruckSetup, k: number, delay: number): PolicyRun {
   const failedSwapDays = Math.max(offer.downtimeDays, old.failureDowntimeDays);
   for (let y = 0; y <= n; y++) {
     const idx = generalIndex[y];
-    const df = discountFactor[y];
     const p = periods[y];
     const ov = q.oldOverhauls[y] + q.newOverhauls[y];
     const rep = q.oldRepairs[y] + q.newRepairs[y];
@@ -668,41 +666,15 @@ function generalRun(setup: TruckSetup, k: number, delay: number): PolicyRun {
       servicesStart: q.oldServices[y], servicesNew: q.newServices[y], overhauls: ov, repairs: rep,
       plannedRepowers: q.plannedSwaps[y], failedRepowers: q.failedSwaps[y], lostTonnes,
     });
-    p.hours = hy;
-    p.fuelLitres = setup.burnStart * oldHours + setup.burnNext * newHours;
-    p.tonnes = tph0 * hy + extraTph * newHours;
-    p.extraTonnes = extraTph * newHours;
-    p.oilServices = q.oldServices[y] + q.newServices[y];
-    p.topUpLitres = topUp;
-    p.downtimeDays = daysOld + daysNew;
-    p.lube = lube;
-    p.overhauls = overhaulCost;
-    p.failures = repairCost;
-    p.capital = capital;
-    p.lostMargin = lost;
-    p.extraMargin = extraTph * newHours * a.marginPerTonne * idx;
-    d.energy += p.fuelLitres * setup.energyCost[y];
-    d.lube += lube * df;
-    d.lostMargin += lost * df;
-    d.overhauls += overhaulCost * df;
-    d.failures += repairCost * df;
-    d.capital += capital * df;
-    d.extraMargin += p.extraMargin * df;
-    const spend = (code: number, cost: number) => {
-      if (!isDepreciatedSpend(code === EVENT_CODE.repower, cost, expense)) return;
+    if (
+      bookExpectedPeriod(setup, y, p, st, {
+        hours: hy, oldHours, newHours, tph0, extraTph, oilServices: q.oldServices[y] + q.newServices[y], topUp,
+        downtimeDays: daysOld + daysNew, lube, overhaulCost, repairCost, capital, lost,
+      })
+    )
       depreciated = true;
-      d.writeOff += addSpendInto(cost, a.depreciation, y, n, depreciation);
-      logEvent(log, y, code, cost);
-    };
-    if (capital > 0) spend(EVENT_CODE.repower, capital);
-    if (overhaulCost > 0) spend(EVENT_CODE.overhaul, overhaulCost);
-    if (repairCost > 0) spend(EVENT_CODE.failure, repairCost);
   }
-  if (depreciated) {
-    let pv = 0;
-    for (let y = 1; y <= n; y++) pv += depreciation[y] * discountFactor[y];
-    d.depreciation = pv;
-  }
+  if (depreciated) d.depreciation = depreciationPv(depreciation, discountFactor, n);
   const gN = generalIndex[n];
   const credit = (old.overhaulCost * q.oldShare + fresh.overhaulCost * q.newShare) * gN;
   const freshLikely = 1 - q.oldRunning >= 0.5;
