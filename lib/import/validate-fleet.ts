@@ -52,6 +52,33 @@ export function checkHeader(header: string[], columns: ReadonlyArray<Pick<Import
   return problems;
 }
 
+/** One sheet row's problems: `add` records one against a column, `bad` holds the columns that have one (later checks skip them). */
+export function rowProblems(problems: RowProblem[], row: number): { bad: Set<string>; add: (column: string, message: string) => void } {
+  const bad = new Set<string>();
+  return {
+    bad,
+    add: (column, message) => {
+      problems.push({ row, column, message });
+      bad.add(column);
+    },
+  };
+}
+
+/** A key looked up among the workspace's keys, with the first known keys in the message when it is not one of them. */
+export function lookupKey(map: ReadonlyMap<string, number>, key: string, what: string): { id: number } | { error: string } {
+  const id = map.get(key);
+  if (id !== undefined) return { id };
+  return { error: `no ${what} has the key "${key.slice(0, 80)}"${map.size ? ` (known: ${[...map.keys()].slice(0, 10).join(', ')})` : ''}` };
+}
+
+/** A row's schema issues, each against the column of its field, except on columns that already have a problem. */
+export function addSchemaIssues(issues: ReadonlyArray<{ path: PropertyKey[]; message: string }>, fieldToColumn: Record<string, string>, rp: ReturnType<typeof rowProblems>): void {
+  for (const issue of issues) {
+    const column = fieldToColumn[String(issue.path[0])] ?? String(issue.path[0]);
+    if (!rp.bad.has(column)) rp.add(column, issue.message);
+  }
+}
+
 /**
  * Checks every row against the truck schema and the workspace's engine and
  * offer keys, and plans a create or an update per unit number. Every problem
@@ -68,11 +95,8 @@ export function planFleetImport(table: Table, lookups: ImportLookups, format: Nu
 
   for (const { row, cells } of table.rows) {
     const raw: Record<string, unknown> = {};
-    const bad = new Set<string>();
-    const add = (column: string, message: string) => {
-      problems.push({ row, column, message });
-      bad.add(column);
-    };
+    const rp = rowProblems(problems, row);
+    const { bad, add } = rp;
     for (const col of FLEET_COLUMNS) {
       const cell = cells[index.get(col.name)!] ?? null;
       if (col.kind === 'number') {
@@ -92,20 +116,15 @@ export function planFleetImport(table: Table, lookups: ImportLookups, format: Nu
           if (col.required) add(col.name, 'is required');
           else raw[col.field] = null;
         } else {
-          const map = col.field === 'engineTypeId' ? lookups.engines : lookups.offers;
-          const id = map.get(v);
-          const what = col.field === 'engineTypeId' ? 'engine type' : 'repower offer';
-          if (id === undefined) add(col.name, `no ${what} has the key "${v.slice(0, 80)}"${map.size ? ` (known: ${[...map.keys()].slice(0, 10).join(', ')})` : ''}`);
-          else raw[col.field] = id;
+          const found = col.field === 'engineTypeId' ? lookupKey(lookups.engines, v, 'engine type') : lookupKey(lookups.offers, v, 'repower offer');
+          if ('error' in found) add(col.name, found.error);
+          else raw[col.field] = found.id;
         }
       }
     }
     const parsed = truckInputSchema.safeParse(raw);
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) {
-        const column = FIELD_TO_COLUMN[String(issue.path[0])] ?? String(issue.path[0]);
-        if (!bad.has(column)) add(column, issue.message);
-      }
+      addSchemaIssues(parsed.error.issues, FIELD_TO_COLUMN, rp);
       continue;
     }
     if (bad.size) continue;

@@ -7,7 +7,7 @@
  */
 import type { Cell, Table } from '@/lib/import/read-table';
 import type { NumberFormat } from '@/lib/number-input';
-import { checkHeader, readNumber, readText, type RowProblem } from '@/lib/import/validate-fleet';
+import { addSchemaIssues, checkHeader, lookupKey, readNumber, readText, rowProblems, type RowProblem } from '@/lib/import/validate-fleet';
 import { readingFieldsSchema, readingProblems, type ReadingFields } from '@/lib/validation/readings';
 import { meterProblem } from './derive';
 
@@ -68,11 +68,8 @@ export function planReadingsImport(table: Table, lookups: ReadingLookups, duplic
 
   for (const { row, cells } of table.rows) {
     const raw: Record<string, unknown> = {};
-    const bad = new Set<string>();
-    const add = (column: string, message: string) => {
-      problems.push({ row, column, message });
-      bad.add(column);
-    };
+    const rp = rowProblems(problems, row);
+    const { bad, add } = rp;
     let truckId: number | undefined;
     let unitNumber = '';
     for (const col of READING_COLUMNS) {
@@ -104,18 +101,15 @@ export function planReadingsImport(table: Table, lookups: ReadingLookups, duplic
           }
         } else if (v === '') raw[col.field] = null;
         else {
-          const id = lookups.engines.get(v);
-          if (id === undefined) add(col.name, `no engine type has the key "${v.slice(0, 80)}"${lookups.engines.size ? ` (known: ${[...lookups.engines.keys()].slice(0, 10).join(', ')})` : ''}`);
-          else raw[col.field] = id;
+          const found = lookupKey(lookups.engines, v, 'engine type');
+          if ('error' in found) add(col.name, found.error);
+          else raw[col.field] = found.id;
         }
       }
     }
     const parsed = readingFieldsSchema.safeParse(raw);
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) {
-        const column = FIELD_TO_COLUMN[String(issue.path[0])] ?? String(issue.path[0]);
-        if (!bad.has(column)) add(column, issue.message);
-      }
+      addSchemaIssues(parsed.error.issues, FIELD_TO_COLUMN, rp);
       continue;
     }
     for (const p of readingProblems(parsed.data, today)) if (!bad.has(FIELD_TO_COLUMN[p.field])) add(FIELD_TO_COLUMN[p.field], p.message);
