@@ -66,8 +66,10 @@ export async function decideCase(access: Access, id: number, input: { decision: 
   // case) are computed before the transaction, so the database is not held while the engine runs. A submitted
   // case cannot change (edits, plan and pinned run are refused while submitted); should its row have moved on
   // by the time the transaction reads it, the record is computed again inside it.
+  // Computed only for the approval that closes the round (the transaction applies the same workflow rule again).
   const before = input.decision === 'approve' ? await loadCase(k, access.workspace.id, id) : null;
-  const prepared = before && before.status === 'submitted' ? { version: before.version, frozen: await freezeCase(k, before, freezeContext) } : null;
+  const closing = before ? canDecide(await workflowState(k, before, access.workspace.settings.approvalsRequired), access.role, access.userId, input.decision, input.comment) : null;
+  const prepared = before && closing?.ok && closing.next === 'approved' ? { version: before.version, frozen: await freezeCase(k, before, freezeContext) } : null;
   const result = await k.transaction(async (trx) => {
     const row = await loadCase(trx, access.workspace.id, id);
     checkVersion(row, input.version);
