@@ -9,6 +9,11 @@ import { plainText } from './fleet';
 /** Largest budget for one year of the capital plan. */
 export const MAX_BUDGET = 1e12;
 
+/** Longest planned delay the programme considers, months. */
+export const MAX_DELAY_MONTHS = 12;
+/** Planned delay the programme considers when the plan does not say. */
+export const DEFAULT_MAX_DELAY_MONTHS = 6;
+
 const id = z.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
 
 /** The register's text rule (no leading =, +, - or @: a spreadsheet would read a formula), as every stored name. */
@@ -29,6 +34,18 @@ export const planSettingsSchema = z.strictObject({
   swapsPerMonth: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be at least 1').max(100, 'must be at most 100'),
   /** the plan's month 0, "YYYY-MM" */
   startMonth: z.string().regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'must be a month as YYYY-MM'),
+  /**
+   * the shop's swaps in a month other than `swapsPerMonth` (month index from the plan's month 0, "0"–"239");
+   * 0 = a shutdown month. Absent = no override.
+   */
+  capacityByMonth: z
+    .record(
+      z.string().regex(/^(\d|[1-9]\d|1\d\d|2[0-3]\d)$/, 'month must be a whole number 0–239'),
+      z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must not be negative').max(100, 'must be at most 100'),
+    )
+    .optional(),
+  /** the most months the programme may plan a swap past its due month (0 = never late) */
+  maxDelayMonths: z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must not be negative').max(MAX_DELAY_MONTHS, `must be at most ${MAX_DELAY_MONTHS}`).optional(),
 });
 
 export const createCaseSchema = z.strictObject({
@@ -66,5 +83,7 @@ export function readPlanSettings(json: string | null | undefined, createdAt: str
     budgets: raw.budgets ?? {},
     swapsPerMonth: raw.swapsPerMonth ?? DEFAULT_SWAPS_PER_MONTH,
     startMonth: raw.startMonth ?? createdAt.slice(0, 7),
+    capacityByMonth: raw.capacityByMonth ?? {},
+    maxDelayMonths: raw.maxDelayMonths ?? DEFAULT_MAX_DELAY_MONTHS,
   };
 }
