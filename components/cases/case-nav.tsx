@@ -1,7 +1,7 @@
 import Link from 'next/link';
 
 /** The sections of one case; the methodology link sits beside every result. */
-export function CaseNav({ slug, caseId, current, truckId }: { slug: string; caseId: number; current: 'results' | 'plan' | 'truck' | 'risk'; truckId?: string }) {
+export function CaseNav({ slug, caseId, current, truckId }: { slug: string; caseId: number; current: 'results' | 'plan' | 'truck' | 'risk' | 'actuals'; truckId?: string }) {
   const base = `/${slug}/cases/${caseId}`;
   const tab = (href: string, label: string, on: boolean) => (
     <Link href={href} aria-current={on ? 'page' : undefined} className={`rounded px-2 py-1 text-sm ${on ? 'bg-ink text-paper' : 'text-accent hover:underline'}`}>{label}</Link>
@@ -14,6 +14,7 @@ export function CaseNav({ slug, caseId, current, truckId }: { slug: string; case
       {tab(`${base}/plan`, 'Ranking, capital plan and schedule', current === 'plan')}
       {/* from a truck page, the risk page opens on that truck */}
       {tab(`${base}/risk${truckId ? `?truck=${encodeURIComponent(truckId)}` : ''}`, truckId ? `Sensitivity and risk of ${truckId}` : 'Sensitivity and risk', current === 'risk')}
+      {current === 'actuals' ? tab(`${base}/actuals`, 'Plan against actual', true) : null}
       <Link href={`/${slug}/methodology`} className="ml-auto text-sm text-accent underline">Methodology: how these figures are computed</Link>
     </nav>
   );

@@ -4,8 +4,9 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { ApiError, sendJson } from '@/lib/fetcher';
 import { MONTH_NAMES } from '@/lib/plan/fiscal-year';
+import { parseNumberText } from '@/lib/number-input';
 
-type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; fiscalYearStartMonth: number; numberFormat: 'point' | 'comma' };
+type Settings = { units: 'metric' | 'us'; negativeStyle: 'parentheses' | 'minus'; fiscalYearStartMonth: number; numberFormat: 'point' | 'comma'; actualsTolerancePercent: number };
 
 const UNIT_LABELS: Record<Settings['units'], string> = { metric: 'Metric (kW, L, g/kWh, L/h)', us: 'US customary (hp, US gal, lb/hp-h, gal/h)' };
 const NEGATIVE_LABELS: Record<Settings['negativeStyle'], string> = { parentheses: '(1,250)', minus: '−1,250' };
@@ -16,10 +17,16 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
   const router = useRouter();
   const [values, setValues] = useState(initial);
   const [message, setMessage] = useState<string | null>(null);
+  const [toleranceText, setToleranceText] = useState(String(initial.actualsTolerancePercent));
   const save = async (e: React.FormEvent) => {
     e.preventDefault();
+    const tol = parseNumberText(toleranceText, values.numberFormat, { example: '5' });
+    if (!tol.ok || tol.value === null) {
+      setMessage(`Plan-against-actual tolerance: ${tol.ok ? 'enter a percentage such as 5' : tol.message}`);
+      return;
+    }
     try {
-      await sendJson(`/api/workspaces/${slug}/settings`, 'PATCH', values);
+      await sendJson(`/api/workspaces/${slug}/settings`, 'PATCH', { ...values, actualsTolerancePercent: tol.value });
       setMessage('Saved.');
       router.refresh();
     } catch (err) {
@@ -40,6 +47,8 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
           <dd data-testid="setting-number-format">{NUMBER_FORMAT_LABELS[initial.numberFormat]}</dd>
           <dt className="text-muted">Fiscal year starts</dt>
           <dd data-testid="setting-fiscal-year">{MONTH_NAMES[initial.fiscalYearStartMonth - 1]}</dd>
+          <dt className="text-muted">Actuals tolerance</dt>
+          <dd data-testid="setting-actuals-tolerance">± {initial.actualsTolerancePercent} %</dd>
         </dl>
         <p className="mt-3 text-xs text-muted" data-testid="settings-who-changes">Only a workspace admin can change these settings; ask one of your admins.</p>
       </section>
@@ -89,6 +98,9 @@ export function DisplaySettings({ slug, initial, canEdit }: { slug: string; init
           </label>
         ))}
         <p className="mt-1 text-xs text-muted">How the forms and the fleet import read typed numbers; thousands may also be grouped with spaces. Figures on pages and in downloads are shown as before.</p>
+        <label className="label mt-3 block" htmlFor="actuals-tolerance">Plan-against-actual tolerance (%)</label>
+        <input id="actuals-tolerance" className="field w-24 text-right tabular-nums" inputMode="decimal" value={toleranceText} onChange={(e) => setToleranceText(e.target.value)} />
+        <p className="mt-1 text-xs text-muted">An approved case&apos;s plan against actual flags a truck whose operating hours or fuel burn stray more than ± this share from the case (0.1 to 100 %, default 5 %).</p>
       </fieldset>
       <button type="submit" className="btn btn-primary mt-3">Save display settings</button>
       {message ? <p role="status" className="mt-2 text-sm">{message}</p> : null}

@@ -4,6 +4,10 @@ import type { Knex } from 'knex';
 import { hashPassword } from '../../lib/auth/password';
 import { nowIso } from '../../lib/time';
 import { assumptionSetColumns } from '../../lib/db/assumption-columns';
+import type { FrozenRecord } from '../../lib/approvals/canonical';
+import { freezeCase, snapshotForSubmission, type CaseRow as FreezeRow } from '../../lib/approvals/freeze';
+import type { PolicyKey } from '../../lib/engine/types';
+import { monthOfIndex, yearForecast } from '../../lib/readings/plan-vs-actual';
 
 /** The demo password of every demo account (listed in the README). */
 export const DEMO_PASSWORD = 'haulcase-demo';
@@ -119,46 +123,95 @@ async function insertId(knex: Knex, table: string, values: Record<string, unknow
 }
 
 /**
- * Invented monthly readings for three demo trucks, 2024-12 to 2025-12 (issue
- * 20): T3-02 had an overhaul in 2025-01 and runs near its register figures;
- * T3-05 (never overhauled: its meter is its engine hours) burns more than
- * its register's 348.3 L/h; T3-03 was repowered in
- * 2025-09 with the bypass-filtered 2,700 kW module (a new engine, a new
- * meter). Hours vary a little month to month; every figure is invented.
+ * The approved demo case (issue 20): "North Pit 300 t repower programme", the
+ * 300 t trucks but T3-01, submitted and approved in 2024-11 through the app's
+ * own snapshot and freeze (lib/approvals/freeze.ts), so its frozen record is
+ * real; its plan starts in 2024-12.
  */
-const DEMO_READINGS = [
-  { unit: 'T3-02', meter: 40_600, hours: 545, burn: 351, tph: 880, overhaul: '2025-01' },
-  { unit: 'T3-05', meter: 1_000, hours: 515, burn: 372, tph: 815, overhaul: null },
-  { unit: 'T3-03', meter: 47_300, hours: 480, burn: 344, tph: 840, overhaul: null, repower: { month: '2025-09', date: '2025-09-12', cost: 1_640_000, engine: 'km-2700-bypass', burn: 318 } },
-];
+const APPROVED_PLAN = { budgets: { '0': 3_000_000, '1': 8_000_000, '2': 6_000_000 }, swapsPerMonth: 2, startMonth: '2024-12' };
+const APPROVED_AT = { submitted: '2024-11-12T09:30:00.000Z', approved: '2024-11-20T15:10:00.000Z' };
+/** Months of readings after the approval (2024-12 … 2026-11), after a baseline reading in 2024-11. */
+const READING_MONTHS = 24;
+/** T3-14's repower, scheduled in the plan's month 3 (2025-03), was done four months late. */
+const LATE_REPOWER = { unit: 'T3-14', monthsLate: 4 };
+/** T3-05 burns about 8 % more than the approved case forecast. */
+const OVER_BURN = { unit: 'T3-05', factor: 1.08 };
 
-function demoReadingRows(ws: number, truckIds: Record<string, number>, engineIds: Record<string, number>, audit: Record<string, unknown>) {
+/**
+ * Invented monthly readings for the approved case's trucks from the frozen
+ * forecast: each month runs the case's hours for that year / 12 and burns the
+ * proposal's expected litres an hour, both varied a little month to month
+ * (deterministic: sines of the month), T3-05 8 % over; the scheduled swaps in
+ * the two years are done in their month (T3-14 four months late) at the offer's
+ * price; T3-02 had an overhaul in 2025-01 and T3-07 an in-service failure in
+ * 2025-06. Every figure is invented.
+ */
+function demoReadingRows(
+  ws: number, record: FrozenRecord, truckIds: Record<string, number>, engineIds: Record<string, number>, audit: Record<string, unknown>,
+) {
   const rows: Record<string, unknown>[] = [];
-  for (const d of DEMO_READINGS) {
-    let meter = d.meter;
-    for (let i = 0; i <= 12; i++) {
-      const month = i === 0 ? '2024-12' : `2025-${String(i).padStart(2, '0')}`;
-      const hours = i === 0 ? 0 : Math.round(d.hours * (1 + 0.05 * Math.sin(i * 1.7)));
-      const repowered = d.repower && month === d.repower.month;
+  const swapMonth = new Map((record.proposal.schedule as Array<{ truckId: string; month: number }>).map((x) => [x.truckId, x.month]));
+  const file = record.case;
+  record.result.trucks.forEach((truck, k) => {
+    const t = file.trucks.find((x) => x.id === truck.id)!;
+    const offer = file.repowerOffers.find((o) => o.id === t.repowerOfferId)!;
+    const policy = (record.proposal.policies[truck.id] ?? 'rebuild') as PolicyKey;
+    const planned = swapMonth.get(truck.id);
+    const doneAt = planned === undefined || policy !== 'repower' ? null : planned + (truck.id === LATE_REPOWER.unit ? LATE_REPOWER.monthsLate : 0);
+    let meter = t.engineHours;
+    const row = (month: string, extra: Record<string, unknown>) => ({
+      workspaceId: ws, truckId: truckIds[truck.id], month, tonnes: null, overhauls: 0, failures: 0, daysDown: 0,
+      repowerDate: null, repowerCost: null, repowerEngineTypeId: null, notes: '', ...extra, ...audit,
+    });
+    rows.push(row(monthOfIndex(APPROVED_PLAN.startMonth, -1), { hourMeter: Math.round(meter), fuelLitres: Math.round((t.annualHours / 12) * truck.options[policy].fuelLitresPerHour) }));
+    for (let m = 0; m < READING_MONTHS; m++) {
+      const y = Math.floor(m / 12) + 1;
+      const f = yearForecast(file, truck, policy, y);
+      const hours = Math.round((f.hours / 12) * (1 + 0.03 * Math.sin(1.3 * m + k)));
+      const repowered = doneAt === m;
       meter = repowered ? hours : meter + hours;
-      const burn = d.repower && month >= d.repower.month ? d.repower.burn : d.burn;
-      const overhaul = d.overhaul === month;
-      rows.push({
-        workspaceId: ws, truckId: truckIds[d.unit], month, hourMeter: meter, fuelLitres: i === 0 ? Math.round(d.hours * d.burn) : Math.round(hours * burn),
-        tonnes: Math.round((i === 0 ? d.hours : hours) * d.tph), overhauls: overhaul ? 1 : 0, failures: 0, daysDown: overhaul ? 9 : repowered ? 3 : 0,
-        repowerDate: repowered ? d.repower!.date : null, repowerCost: repowered ? d.repower!.cost : null,
-        repowerEngineTypeId: repowered ? engineIds[d.repower!.engine] : null, notes: '', ...audit,
-      });
+      const factor = (truck.id === OVER_BURN.unit ? OVER_BURN.factor : 1) * (1 + 0.01 * Math.sin(0.7 * m + 2 * k));
+      const month = monthOfIndex(APPROVED_PLAN.startMonth, m);
+      const overhaul = truck.id === 'T3-02' && month === '2025-01';
+      const failure = truck.id === 'T3-07' && month === '2025-06';
+      const price = (offer.modulePrice + offer.installCost - offer.coreCredit) * Math.pow(1 + file.assumptions.inflation, Math.max(0, y - 1));
+      rows.push(row(month, {
+        hourMeter: Math.round(meter), fuelLitres: Math.round(f.burn * hours * factor), tonnes: Math.round(hours * t.tonnesPerHour),
+        overhauls: overhaul ? 1 : 0, failures: failure ? 1 : 0, daysDown: overhaul ? 9 : failure ? 21 : repowered ? 3 : 0,
+        repowerDate: repowered ? `${month}-14` : null, repowerCost: repowered ? Math.round(price) : null, repowerEngineTypeId: repowered ? engineIds[offer.engineId] : null,
+      }));
     }
-  }
+  });
   return rows;
+}
+
+/** Submits and approves the demo's approved case through the app's snapshot and freeze; returns its frozen record. */
+async function seedApprovedCase(trx: Knex.Transaction, ws: number, users: Record<string, number>, assumptionSetId: number, truckIds: Record<string, number>): Promise<FrozenRecord> {
+  const units = Object.keys(truckIds).filter((u) => u.startsWith('T3') && u !== 'T3-01').sort();
+  const values = {
+    workspaceId: ws, name: 'North Pit 300 t repower programme (approved 2024-11)', assumptionSetId,
+    selection: JSON.stringify(units.map((u) => ({ truckId: truckIds[u], repowerOfferId: null }))), plan: JSON.stringify(APPROVED_PLAN),
+    status: 'submitted', version: 1, createdBy: users.analyst, updatedBy: users.analyst, createdAt: APPROVED_AT.submitted, updatedAt: APPROVED_AT.submitted,
+  };
+  const id = await insertId(trx, 'business_cases', values);
+  const row: FreezeRow = { ...values, id, frozenCase: null, frozenResult: null, frozenHash: null, frozenRecord: null, submittedCase: null };
+  const submittedCase = await snapshotForSubmission(trx, row);
+  await trx('case_events').insert({ workspaceId: ws, caseId: id, userId: users.analyst, action: 'submit', comment: 'Repower programme for the 300 t fleet.', at: APPROVED_AT.submitted });
+  const frozen = await freezeCase(trx, { ...row, submittedCase }, { currency: 'USD', fiscalYearStartMonth: 1 });
+  await trx('business_cases').where({ id }).update({
+    submittedCase, submittedBy: users.analyst, submittedAt: APPROVED_AT.submitted, status: 'approved', decidedAt: APPROVED_AT.approved, ...frozen,
+    version: 3, updatedBy: users.approver, updatedAt: APPROVED_AT.approved,
+  });
+  await trx('case_events').insert({ workspaceId: ws, caseId: id, userId: users.approver, action: 'approve', comment: 'Approved within the three-year budget.', at: APPROVED_AT.approved });
+  return JSON.parse(frozen.frozenRecord) as FrozenRecord;
 }
 
 /**
  * Seeds the invented demo mine "Aldervane Copper — North Pit" (fleet from
  * scenarios/aldervane-north-pit.json, assumption sets from
  * scenarios/aldervane-assumption-sets.json), a draft business case over the
- * whole fleet, one user per role, and a second
+ * whole fleet, an approved case with two years of readings after its approval
+ * (seedApprovedCase, demoReadingRows), one user per role, and a second
  * small workspace with a fleet of its own ("Corrin Flats Iron", see CORRIN)
  * so that workspace separation can be seen and tested.
  * Does nothing when the demo workspace already exists.
@@ -227,7 +280,6 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
     const truckIds: Record<string, number> = Object.fromEntries(
       (await trx('trucks').where({ workspaceId: ws }).select('id', 'unitNumber')).map((t) => [t.unitNumber, t.id]),
     );
-    await trx.batchInsert('truck_readings', demoReadingRows(ws, truckIds, engineIds, audit), 100);
     const setIds: Record<string, number> = {};
     for (const s of sets.sets) {
       setIds[s.name] = await insertId(trx, 'assumption_sets', { workspaceId: ws, name: s.name, ...assumptionSetColumns(s.assumptions as Record<string, unknown>), ...audit });
@@ -247,6 +299,8 @@ export async function seedDemo(knex: Knex): Promise<{ created: boolean }> {
       createdAt: now,
       updatedAt: now,
     });
+    const record = await seedApprovedCase(trx, ws, users, setIds.Base, truckIds);
+    await trx.batchInsert('truck_readings', demoReadingRows(ws, record, truckIds, engineIds, audit), 200);
     await trx('audit_log').insert({ workspaceId: ws, userId: null, action: 'seed', entity: 'workspace', entityId: String(ws), before: null, after: JSON.stringify({ slug: DEMO_WORKSPACE }), at: now });
   });
   return { created: true };

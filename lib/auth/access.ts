@@ -13,20 +13,24 @@ export type WorkspaceSettings = {
   fiscalYearStartMonth: number;
   /** how numbers are typed and imported: 18,950.5 (point) or 18.950,5 (comma); lib/number-input.ts */
   numberFormat: NumberFormat;
+  /** plan against actual: hours or burn beyond ± this many percent of the approved case are flagged (default 5) */
+  actualsTolerancePercent: number;
 };
 
 export type Workspace = { id: number; slug: string; name: string; currency: string; settings: WorkspaceSettings };
 
 export type Access = { userId: number; workspace: Workspace; role: Role };
 
-const DEFAULT_SETTINGS: WorkspaceSettings = { units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1, fiscalYearStartMonth: 1, numberFormat: 'point' };
+const DEFAULT_SETTINGS: WorkspaceSettings = { units: 'metric', negativeStyle: 'parentheses', approvalsRequired: 1, fiscalYearStartMonth: 1, numberFormat: 'point', actualsTolerancePercent: 5 };
 
 export function parseSettings(text: string | null | undefined): WorkspaceSettings {
   try {
     const s: WorkspaceSettings = { ...DEFAULT_SETTINGS, ...(text ? JSON.parse(text) : {}) };
     const m = s.fiscalYearStartMonth;
     // a stored value out of range (never written by the settings route) reads as the default
-    return Number.isInteger(m) && m >= 1 && m <= 12 ? s : { ...s, fiscalYearStartMonth: 1 };
+    const tol = s.actualsTolerancePercent;
+    const t = typeof tol === 'number' && Number.isFinite(tol) && tol >= 0.1 && tol <= 100 ? s : { ...s, actualsTolerancePercent: 5 };
+    return Number.isInteger(m) && m >= 1 && m <= 12 ? t : { ...t, fiscalYearStartMonth: 1 };
   } catch {
     return DEFAULT_SETTINGS;
   }

@@ -22,7 +22,8 @@ import { formatNumber, formatPercent } from '@/lib/format';
 import { notFound } from '@/lib/http';
 import { fiscalLabelOfPeriod, MONTH_NAMES, rankTrucks, type RankedTruck } from '@/lib/plan';
 import type { PackFonts } from './render';
-import type { DecisionPackData, PackAssumption, PackChartYear } from './types';
+import { loadPlanVsActual, type PlanVsActualView } from '@/lib/readings/plan-vs-actual-load';
+import type { DecisionPackData, PackActuals, PackAssumption, PackChartYear } from './types';
 
 /** The proposal's capital and net cash flow against rebuilding every engine, by fiscal year (periods sharing a label add up). */
 export function chartYears(result: CaseResult, summary: DecisionSummary): PackChartYear[] {
@@ -87,6 +88,7 @@ export async function buildDecisionPackData(access: Access, id: number, now = ne
     ({ result, ranking, schedule } = dto);
   }
   const approval = await fetchCaseApproval(access, id);
+  const actuals = record && row.status === 'approved' ? packActuals(await loadPlanVsActual(access, id)) : null;
   const chosen = new Set(summary.chosenTrucks);
   const fy = (period: number | null) => (period === null ? null : fiscalLabelOfPeriod(summary.planStartMonth, period, summary.fiscalYearStartMonth));
   return {
@@ -106,6 +108,20 @@ export async function buildDecisionPackData(access: Access, id: number, now = ne
     trail: approval.events.map((e) => ({ at: e.at, who: e.who, action: e.action, comment: e.comment })),
     approvalsRequired: approval.approvalsRequired,
     frozen: approval.frozen,
+    actuals,
+  };
+}
+
+/** The pack's plan-against-actual section since the approval; null when no reading follows it. */
+export function packActuals(view: PlanVsActualView): PackActuals | null {
+  const f = view.figures;
+  if (f.fleetMonths.length === 0) return null;
+  return {
+    from: f.fleetMonths[0].month,
+    to: f.fleetMonths.at(-1)!.month,
+    tolerancePercent: view.tolerancePercent,
+    fleet: f.fleet,
+    trucks: f.trucks.map((t) => ({ unit: t.unit, policy: t.policy, hoursVariance: t.hoursVariance, burnVariance: t.burnVariance, saving: t.total.saving, forecastSaving: t.total.forecastSaving, flags: t.flags })),
   };
 }
 

@@ -278,6 +278,39 @@ export function renderDecisionPack(data: DecisionPackData, fonts: PackFonts): Pr
     ]);
   }
 
+  // ------------------------------------------------------------ plan against actual
+  const act = data.actuals;
+  if (act) {
+    heading('Plan against actual');
+    const v = (a: number, b: number) => (b > 0 ? a / b - 1 : null);
+    const sp = (x: number | null) => (x === null ? '—' : `${x > 0 ? '+' : ''}${percent(x)}`);
+    para(
+      `Readings ${act.from} to ${act.to} against the approved forecast under the proposal's policy per truck. Saving: what rebuilding would have cost on the actual hours minus what the proposal cost (actual fuel at the case's prices, capital spent, other costs at the case's rate an hour). Flags: hours or burn beyond ± ${formatNumber(act.tolerancePercent, 1)} %.`,
+      { size: 8.5, colour: COLOUR.muted },
+    );
+    const f = act.fleet;
+    table(
+      [{ label: 'Fleet', width: 200 }, { label: 'Actual', width: 100, align: 'right' }, { label: 'Case', width: 100, align: 'right' }, { label: 'Variance', width: 80, align: 'right' }],
+      [
+        ['Operating hours (h)', formatNumber(f.hours), formatNumber(f.forecastHours), sp(v(f.hours, f.forecastHours))],
+        ['Fuel burned (L)', formatNumber(f.litres), formatNumber(f.expectedLitres), sp(v(f.litres, f.expectedLitres))],
+        ['Days down', formatNumber(f.daysDown, 1), formatNumber(f.expectedDaysDown, 1), sp(v(f.daysDown, f.expectedDaysDown))],
+        [`Capital spent (${cur} k)`, k(f.capital), k(f.plannedCapital), sp(v(f.capital, f.plannedCapital))],
+        [`Saving against rebuilding (${cur} k)`, k(f.saving), k(f.forecastSaving), ''],
+      ],
+    );
+    const rows = act.trucks.slice(0, MAX_TABLE_ROWS);
+    table(
+      [
+        { label: 'Truck', width: 70 }, { label: 'Policy', width: 60 }, { label: 'Hours var.', width: 70, align: 'right' }, { label: 'Burn var.', width: 70, align: 'right' },
+        { label: `Saving (${cur} k)`, width: 80, align: 'right' }, { label: `Forecast (${cur} k)`, width: 80, align: 'right' }, { label: 'Flags', width: 70 },
+      ],
+      rows.map((r) => [r.unit, r.policy, sp(r.hoursVariance), sp(r.burnVariance), k(r.saving), k(r.forecastSaving), r.flags.join(', ')]),
+      { mark: (i) => rows[i].flags.length > 0 },
+    );
+    more(rows.length, act.trucks.length, 'trucks');
+  }
+
   // ------------------------------------------------------------ assumptions
   heading('Key assumptions');
   facts(data.assumptions.map((a) => [a.label, a.value] as [string, string]));

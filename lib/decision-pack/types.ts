@@ -30,6 +30,15 @@ export type PackChartYear = { fiscalYear: string; capital: number; cashFlow: num
 
 export type PackAssumption = { label: string; value: string };
 
+/** Plan against actual (an approved case with readings after its approval): lib/readings/plan-vs-actual.ts. */
+export type PackActuals = {
+  from: string;
+  to: string;
+  tolerancePercent: number;
+  fleet: { hours: number; forecastHours: number; litres: number; expectedLitres: number; capital: number; plannedCapital: number; saving: number; forecastSaving: number; daysDown: number; expectedDaysDown: number };
+  trucks: Array<{ unit: string; policy: string; hoursVariance: number | null; burnVariance: number | null; saving: number; forecastSaving: number; flags: string[] }>;
+};
+
 export type PackTrailEntry = { at: string; who: string; action: string; comment: string };
 
 export interface DecisionPackData {
@@ -48,4 +57,6 @@ export interface DecisionPackData {
   approvalsRequired: number;
   /** the frozen record's hash once approved, and whether it still verifies */
   frozen: { hash: string; verifies: boolean } | null;
+  /** plan against actual, when the case is approved and has readings after its approval; else null */
+  actuals: PackActuals | null;
 }

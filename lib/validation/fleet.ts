@@ -6,7 +6,7 @@
  */
 import { NUMBER_FORMATS } from '@/lib/number-input';
 import { z } from '@/lib/validation/zod';
-import { assumptionsSchema, engineSchema, repowerOfferSchema, truckSchema } from './case';
+import { assumptionsSchema, engineSchema, ranged, repowerOfferSchema, truckSchema } from './case';
 import { stripControlKeepingLines } from './control-characters';
 
 /**
@@ -106,6 +106,8 @@ export const displaySettingsSchema = z.strictObject({
     .optional(),
   /** how numbers are typed and imported (lib/number-input.ts) */
   numberFormat: z.enum(NUMBER_FORMATS, 'must be "point" (18,950.5) or "comma" (18.950,5)').optional(),
+  /** plan against actual: a truck whose hours or fuel burn stray more than this many percent from the approved case is flagged */
+  actualsTolerancePercent: ranged(0.1, 100, '%').optional(),
 });
 
 // ---------------------------------------------------------------- case-file upload

@@ -200,13 +200,13 @@ describe.each([
     expect(await k('truck_readings').where({ truckId: truck['R-24'], month: '2026-01' }).first('hourMeter')).toEqual({ hourMeter: 22_600 });
   });
 
-  it('the demo readings: T3-05 burns more than its register figure, T3-03 offers its repower engine, T3-02 counts from its overhaul', async () => {
+  it('the demo readings: T3-05 burns more than its register figure, T3-14 offers its repower engine, T3-02 counts from its overhaul', async () => {
     const d = await call(getDerived, { workspace: WS }, { url: 'http://127.0.0.1/api/x?window=12' });
     const of = (u: string) => d.body.items.find((i: { truck: { unitNumber: string } }) => i.truck.unitNumber === u);
     expect(of('T3-05').derived.fuelBurnLitresPerHour).toBeGreaterThan(of('T3-05').truck.fuelBurnLitresPerHour);
     const bypass = (await k('engine_types').where({ workspaceId: wsId, key: 'km-2700-bypass' }).first('id')).id;
-    expect(of('T3-03').offer).toMatchObject({ engineTypeId: bypass, engineKey: 'km-2700-bypass' });
-    expect(of('T3-03').derived.engineHours.basis).toBe('since-repower');
+    expect(of('T3-14').offer).toMatchObject({ engineTypeId: bypass, engineKey: 'km-2700-bypass' });
+    expect(of('T3-14').derived.engineHours).toMatchObject({ basis: 'since-repower', since: '2025-07' });
     expect(of('T3-02').derived.engineHours).toMatchObject({ basis: 'since-overhaul', since: '2025-01' });
     expect(of('T3-01').derived).toBeNull();
   });

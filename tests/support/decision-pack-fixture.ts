@@ -1,7 +1,7 @@
 /** A hand-made decision pack (invented figures) for renderer tests. */
 import type { DecisionPackData } from '@/lib/decision-pack/types';
 
-export function packFixture(o: { trucks?: number; approved?: boolean } = {}): DecisionPackData {
+export function packFixture(o: { trucks?: number; approved?: boolean; actuals?: boolean } = {}): DecisionPackData {
   const n = o.trucks ?? 6;
   const ids = Array.from({ length: n }, (_, i) => `HT-${String(i + 1).padStart(3, '0')}`);
   return {
@@ -41,5 +41,15 @@ export function packFixture(o: { trucks?: number; approved?: boolean } = {}): De
     ],
     approvalsRequired: 1,
     frozen: o.approved ? { hash: 'a'.repeat(64), verifies: true } : null,
+    actuals: o.actuals
+      ? {
+          from: '2027-01', to: '2027-12', tolerancePercent: 5,
+          fleet: { hours: 70_000, forecastHours: 72_000, litres: 21_000_000, expectedLitres: 20_500_000, capital: 2_600_000, plannedCapital: 2_500_000, saving: 1_100_000, forecastSaving: 1_400_000, daysDown: 30, expectedDaysDown: 28 },
+          trucks: [
+            { unit: 'HT-001', policy: 'repower', hoursVariance: -0.02, burnVariance: 0.08, saving: 300_000, forecastSaving: 520_000, flags: ['burn'] },
+            { unit: 'HT-002', policy: 'rebuild', hoursVariance: 0.01, burnVariance: 0.01, saving: 0, forecastSaving: 0, flags: [] },
+          ],
+        }
+      : null,
   };
 }

@@ -67,6 +67,17 @@ describe('page breaks of a table', () => {
     expect(withRanking.slice(1, -1).every((p) => (p.match(/HT-\d{3}\s+(yes\s+)?(repower|rebuild)/g) ?? []).length === perPage)).toBe(true);
   });
 
+  it('prints plan against actual when the approved case has readings after its approval, the flagged truck with its variance', async () => {
+    const text = pdfToText(await renderDecisionPack(packFixture({ trucks: 4, approved: true, actuals: true }), fonts));
+    expect(text).toContain('Plan against actual');
+    expect(text).toContain('Readings 2027-01 to 2027-12');
+    expect(text).toMatch(/HT-001\s+repower\s+−2.0 %\s+\+8.0 %\s+300\s+520\s+burn/);
+    expect(text).toMatch(/Saving against rebuilding \(AUD k\)\s+1,100\s+1,400/);
+    expect(text).toMatch(/Operating hours \(h\)\s+70,000\s+72,000\s+−2.8 %/);
+    const without = pdfToText(await renderDecisionPack(packFixture({ trucks: 4, approved: true }), fonts));
+    expect(without).not.toContain('Plan against actual');
+  });
+
   it('draws a page that is not blank, with the footer "page n of m" on each page', async () => {
     const pdf = await renderDecisionPack(packFixture({ trucks: 8, approved: true }), fonts);
     const n = pdfPageCount(pdf);

@@ -9,11 +9,11 @@ export const metadata: Metadata = { title: 'Settings' };
 export default async function Page({ params }: { params: Promise<{ workspace: string }> }) {
   const { workspace } = await params;
   const access = await getPageAccess(workspace);
-  const { units, negativeStyle, approvalsRequired, fiscalYearStartMonth, numberFormat } = access.workspace.settings;
+  const { units, negativeStyle, approvalsRequired, fiscalYearStartMonth, numberFormat, actualsTolerancePercent } = access.workspace.settings;
   return (
     <>
-      <PageHeader title="Settings" subtitle={`Currency ${access.workspace.currency}; display units, how negative amounts are shown, how numbers are typed and the month the fiscal year starts; approval rule.`} />
-      <DisplaySettings slug={workspace} initial={{ units, negativeStyle, fiscalYearStartMonth, numberFormat }} canEdit={access.role === 'admin'} />
+      <PageHeader title="Settings" subtitle={`Currency ${access.workspace.currency}; display units, how negative amounts are shown, how numbers are typed, the month the fiscal year starts and the plan-against-actual tolerance; approval rule.`} />
+      <DisplaySettings slug={workspace} initial={{ units, negativeStyle, fiscalYearStartMonth, numberFormat, actualsTolerancePercent }} canEdit={access.role === 'admin'} />
       <h2 className="mb-2 mt-6 text-sm font-semibold">Approvals</h2>
       {access.role === 'admin' ? (
         <ApprovalsSettingForm workspace={workspace} current={approvalsRequired} canEdit />

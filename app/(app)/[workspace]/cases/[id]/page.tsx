@@ -33,6 +33,9 @@ export default async function CasePage({ params, searchParams }: Props) {
       <PageHeader title={c.name} subtitle="The proposal the saved plan makes, then NPV of keep, rebuild and repower for every truck, the best policy and the gain of repowering." action={<><DecisionPackLink slug={workspace} caseId={c.id} /><ExportButtons slug={workspace} caseId={c.id} /></>} />
       <CaseNav slug={workspace} caseId={c.id} current="results" />
       <div className="mb-4"><DecisionSummaryPanel slug={workspace} caseId={c.id} negativeStyle={access.workspace.settings.negativeStyle} /></div>
+      {c.status === 'approved' ? (
+        <p className="mb-3 text-sm"><Link className="text-accent underline" data-testid="actuals-link" href={`/${workspace}/cases/${c.id}/actuals`}>Plan against actual: what this approved case promised against the readings since its approval</Link></p>
+      ) : null}
       {previous ? <p className="mb-3 text-sm"><Link className="text-accent underline" href={`/${workspace}/cases/compare?a=${previous.id}&b=${c.id}`}>What changed since the previous revision ({previous.name}, #{previous.id})</Link></p> : null}
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}
       <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
