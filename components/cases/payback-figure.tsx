@@ -19,7 +19,7 @@ export function PaybackFigure({ years, hold }: { years: number | null; hold: Pay
   return (
     <span title={warning ?? undefined} data-testid={warning ? 'payback-flagged' : 'payback'}>
       {formatYears(years)}
-      {warning ? <span className="ml-1 text-[10px] font-semibold text-loss">does not hold</span> : null}
+      {warning ? <> <span className="text-[10px] font-semibold text-loss">does not hold</span></> : null}
     </span>
   );
 }

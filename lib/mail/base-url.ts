@@ -3,21 +3,22 @@ import { env } from '../env';
 
 /**
  * The base of every link in a mail (invitations, password resets, approval
- * mails): the configured `APP_URL` (else `NEXTAUTH_URL`), else the origin of the
+ * mails): the configured `APP_URL`, else the origin of the
  * request being handled (`route(…)` in lib/http.ts runs each API handler inside
  * `withRequestOrigin`, so a mail built while answering a request links back to
  * the host and port the person used), else — a mail built on a background path
- * with no request and no configured URL — http://127.0.0.1:3000, which is a guess:
+ * with no request — `NEXTAUTH_URL`, else http://127.0.0.1:3000, which is a guess:
  * `mailBaseWarning()` says so at start-up (server log) and on the Outbox page.
  */
 const requestOrigin = new AsyncLocalStorage<string>();
 
 export const FALLBACK_BASE = 'http://127.0.0.1:3000';
 
+const trim = (u: string | undefined) => (u ? u.replace(/\/+$/, '') : null);
+
+/** APP_URL, the app's public address, when set. */
 export function configuredBaseUrl(raw: Record<string, string | undefined> = process.env): string | null {
-  const e = env(raw);
-  const url = e.APP_URL || e.NEXTAUTH_URL;
-  return url ? url.replace(/\/+$/, '') : null;
+  return trim(env(raw).APP_URL);
 }
 
 export function withRequestOrigin<T>(origin: string, run: () => T): T {
@@ -25,13 +26,14 @@ export function withRequestOrigin<T>(origin: string, run: () => T): T {
 }
 
 export function mailBaseUrl(raw: Record<string, string | undefined> = process.env): string {
-  return configuredBaseUrl(raw) ?? requestOrigin.getStore() ?? FALLBACK_BASE;
+  return configuredBaseUrl(raw) ?? requestOrigin.getStore() ?? trim(env(raw).NEXTAUTH_URL) ?? FALLBACK_BASE;
 }
 
 /** The warning to show when no base URL is configured, or null. */
 export function mailBaseWarning(raw: Record<string, string | undefined> = process.env): string | null {
   if (configuredBaseUrl(raw)) return null;
-  return `APP_URL is not set: links in mail use the address of the request that sent them, and mail sent from a background task links to ${FALLBACK_BASE}, which may not be where the app runs. Set APP_URL to the app's public address.`;
+  const background = trim(env(raw).NEXTAUTH_URL) ?? FALLBACK_BASE;
+  return `APP_URL is not set: links in mail use the address of the request that sent them, and mail sent from a background task links to ${background}, which may not be where people reach the app. Set APP_URL to the app's public address.`;
 }
 
 let warned = false;

@@ -8,8 +8,11 @@ describe('mail base URL', () => {
     expect(mailBaseWarning(raw)).toBeNull();
   });
 
-  it('falls back to NEXTAUTH_URL', () => {
-    expect(mailBaseUrl({ NEXTAUTH_URL: 'http://plant.example.com:8080' })).toBe('http://plant.example.com:8080');
+  it('outside a request without APP_URL: NEXTAUTH_URL, still with a warning naming it', () => {
+    const raw = { NEXTAUTH_URL: 'http://plant.example.com:8080' };
+    expect(mailBaseUrl(raw)).toBe('http://plant.example.com:8080');
+    expect(withRequestOrigin('http://127.0.0.1:4123', () => mailBaseUrl(raw))).toBe('http://127.0.0.1:4123');
+    expect(mailBaseWarning(raw)).toMatch(/background task links to http:\/\/plant\.example\.com:8080/);
   });
 
   it('uses the request origin when nothing is configured', async () => {
@@ -24,15 +27,13 @@ describe('mail base URL', () => {
     expect(mailBaseUrl({})).toBe(FALLBACK_BASE);
     expect(mailBaseWarning({})).toMatch(/^APP_URL is not set/);
     const logged: string[] = [];
-    const saved = { APP_URL: process.env.APP_URL, NEXTAUTH_URL: process.env.NEXTAUTH_URL };
+    const saved = { APP_URL: process.env.APP_URL };
     delete process.env.APP_URL;
-    delete process.env.NEXTAUTH_URL;
     try {
       warnMailBaseOnce((m) => logged.push(m));
       warnMailBaseOnce((m) => logged.push(m));
     } finally {
       if (saved.APP_URL !== undefined) process.env.APP_URL = saved.APP_URL;
-      if (saved.NEXTAUTH_URL !== undefined) process.env.NEXTAUTH_URL = saved.NEXTAUTH_URL;
     }
     expect(logged).toHaveLength(1);
     expect(logged[0]).toMatch(/APP_URL is not set/);
