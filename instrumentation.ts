@@ -9,6 +9,8 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
   const { checkEnvAtStart } = await import('./lib/env');
   checkEnvAtStart();
+  const { warnMailBaseOnce } = await import('./lib/mail/base-url');
+  warnMailBaseOnce();
   // the caller's socket address for the sign-in and reset throttles (Next gives route handlers no socket)
   const { installPeerAddressStamp } = await import('./lib/auth/peer-address');
   installPeerAddressStamp();

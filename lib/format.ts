@@ -40,3 +40,16 @@ export function formatPercent(x: number | null | undefined, digits = 1): string 
 
 /** Years with one decimal, e.g. payback. */
 export const formatYears = (x: number | null | undefined) => (x === null || x === undefined ? '—' : formatNumber(x, 1));
+
+/**
+ * The colour class of a signed figure, read on the figure as shown: only a value that shows as negative
+ * takes the negative style ('text-loss'), only one that shows as positive 'text-gain'; a figure that
+ * rounds to 0 (0, −0.2 shown in k as "0") is neutral. `shownIn` is the figure's display unit and digits.
+ */
+export function signTone(x: number | null | undefined, shownIn: { scale?: 'unit' | 'k' | 'M'; digits?: number } = {}): '' | 'text-gain' | 'text-loss' {
+  if (x === null || x === undefined || !Number.isFinite(x)) return '';
+  const div = shownIn.scale === 'k' ? 1e3 : shownIn.scale === 'M' ? 1e6 : 1;
+  const digits = shownIn.digits ?? (shownIn.scale === 'M' ? 2 : 0);
+  const rounded = Number((x / div).toFixed(digits));
+  return rounded > 0 ? 'text-gain' : rounded < 0 ? 'text-loss' : '';
+}

@@ -3,7 +3,8 @@ import { z } from 'zod';
 import { EventLimitError } from '@/lib/engine/limits';
 import { CaseValidationError } from '@/lib/validation/case';
 import { BODY_LIMITS, BodyTooLargeError, limitBody, type BodyLimit } from '@/lib/http/body';
-import { checkContentType, checkSameOrigin, HSTS, isHttps, RequestRefused, SAFE_METHODS, type BodyKind } from '@/lib/http/origin';
+import { appOrigins, checkContentType, checkSameOrigin, HSTS, isHttps, RequestRefused, SAFE_METHODS, type BodyKind } from '@/lib/http/origin';
+import { withRequestOrigin } from '@/lib/mail/base-url';
 
 export { BODY_LIMITS, type BodyLimit } from '@/lib/http/body';
 
@@ -130,7 +131,9 @@ export function route<P = Record<string, string>>(handler: (request: Request, ct
         checkSameOrigin(request);
         checkContentType(request, kind);
       }
-      response = await handler(limitBody(request, limit), ctx);
+      // mail built while answering links back to the origin the request used when no APP_URL is set
+      const origin = appOrigins(request)[0];
+      response = await withRequestOrigin(origin, () => handler(limitBody(request, limit), ctx));
     } catch (err) {
       response = errorResponse(err);
     }

@@ -5,6 +5,7 @@ import type { CaseResultDto } from '@/lib/cases/types';
 import { VALUATION_LABEL, VALUATION_NOTE } from '@/lib/cases/valuation';
 import type { ApiError } from '@/lib/fetcher';
 import { FleetSummary } from './fleet-summary';
+import { FleetYearsChart } from './fleet-years-chart';
 import { TruckTable } from './truck-table';
 
 /** The evaluated case: read from the server (the engine never runs in the browser). */
@@ -22,6 +23,7 @@ export function CaseResults({ slug, caseId }: { slug: string; caseId: number }) 
         <p className="text-xs text-muted">{VALUATION_NOTE[data.valuation]}</p>
       </div>
       <FleetSummary data={data} />
+      <FleetYearsChart years={data.fleetYears} currency={data.currency} />
       <TruckTable data={data} slug={slug} />
     </div>
   );

@@ -39,31 +39,31 @@ export function CashFlowTable({ detail, currency, negative }: { detail: TruckDet
           <caption className="px-2 py-1 text-left text-xs text-muted">{POLICY_LABEL[policy]}: cash by category and year ({currency} k, costs negative). Year 0 is now.</caption>
           <thead>
             <tr>
-              <th>Category</th>
+              <th className="sticky left-0 z-10 bg-white">Category</th>
               {periods.map((p) => <th key={p.period} className="n">Y{p.period}</th>)}
             </tr>
           </thead>
           <tbody>
             {BREAKDOWN_CATEGORIES.map((c) => (
               <tr key={c}>
-                <th scope="row" className="whitespace-nowrap text-left font-normal">{CATEGORY_LABEL[c]}</th>
+                <th scope="row" className="sticky left-0 z-10 whitespace-nowrap bg-white text-left font-normal shadow-[1px_0_0_#e3e4e1]">{CATEGORY_LABEL[c]}</th>
                 {periods.map((p) => <td key={p.period} className="n">{Math.abs(p.breakdown[c]) < 0.5 ? '–' : m(p.breakdown[c])}</td>)}
               </tr>
             ))}
             <tr className="font-semibold">
-              <th scope="row" className="text-left">Cash flow</th>
+              <th scope="row" className="sticky left-0 z-10 whitespace-nowrap bg-white text-left shadow-[1px_0_0_#e3e4e1]">Cash flow</th>
               {periods.map((p) => <td key={p.period} className="n">{m(p.cashFlow)}</td>)}
             </tr>
             <tr className="text-muted">
-              <th scope="row" className="text-left font-normal">Discount factor</th>
+              <th scope="row" className="sticky left-0 z-10 whitespace-nowrap bg-white text-left font-normal shadow-[1px_0_0_#e3e4e1]">Discount factor</th>
               {periods.map((p) => <td key={p.period} className="n">{formatNumber(p.discountFactor, 4)}</td>)}
             </tr>
             <tr>
-              <th scope="row" className="text-left font-normal">Discounted</th>
+              <th scope="row" className="sticky left-0 z-10 whitespace-nowrap bg-white text-left font-normal shadow-[1px_0_0_#e3e4e1]">Discounted</th>
               {periods.map((p) => <td key={p.period} className="n">{m(p.cashFlow * p.discountFactor)}</td>)}
             </tr>
             <tr className="text-muted">
-              <th scope="row" className="text-left font-normal">Hours · fuel (kL)</th>
+              <th scope="row" className="sticky left-0 z-10 whitespace-nowrap bg-white text-left font-normal shadow-[1px_0_0_#e3e4e1]">Hours · fuel (kL)</th>
               {periods.map((p) => <td key={p.period} className="n whitespace-nowrap">{formatNumber(p.hours, 0)} · {formatNumber(p.fuelLitres / 1000, 0)}</td>)}
             </tr>
           </tbody>

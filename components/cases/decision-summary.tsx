@@ -3,7 +3,7 @@
 import useSWR from 'swr';
 import type { DecisionSummary } from '@/lib/cases/decision-summary';
 import type { ApiError } from '@/lib/fetcher';
-import { formatMoney, formatNumber, formatPercent, formatYears, type NegativeStyle } from '@/lib/format';
+import { formatMoney, formatNumber, formatPercent, formatYears, signTone, type NegativeStyle } from '@/lib/format';
 import { MONTH_NAMES } from '@/lib/plan/fiscal-year';
 
 const SOURCE_NOTE: Record<DecisionSummary['source'], string> = {
@@ -12,7 +12,7 @@ const SOURCE_NOTE: Record<DecisionSummary['source'], string> = {
   live: 'From the live fleet data (the case is not submitted or approved): the figures change as the fleet, offers and assumptions are edited.',
 };
 
-const tone = (x: number) => (x > 0 ? 'text-gain' : x < 0 ? 'text-loss' : '');
+const tone = (x: number) => signTone(x, { scale: 'k' });
 
 /** The decision summary: loaded from the server (frozen record, submitted snapshot or live data, as the case stands). */
 export function DecisionSummaryPanel({ slug, caseId, negativeStyle }: { slug: string; caseId: number; negativeStyle: NegativeStyle }) {

@@ -1,6 +1,6 @@
 import type { CaseResultDto } from '@/lib/cases/types';
 import { POLICIES } from '@/lib/engine/types';
-import { formatMoney, formatNumber } from '@/lib/format';
+import { formatMoney, formatNumber, signTone } from '@/lib/format';
 import { periodName } from '@/lib/plan/fiscal-year';
 import { POLICY_COLOUR, POLICY_LABEL } from './policy';
 
@@ -67,7 +67,7 @@ export function FleetSummary({ data }: { data: CaseResultDto }) {
 export function ProposalHeadline({ data }: { data: CaseResultDto }) {
   const p = data.proposal;
   const m = (x: number) => formatMoney(x, { scale: 'k', negative: data.negativeStyle });
-  const tone = (x: number) => (x > 0 ? 'text-gain' : x < 0 ? 'text-loss' : '');
+  const tone = (x: number) => signTone(x, { scale: 'k' });
   return (
     <section aria-label="The proposal" className="card p-3" data-testid="proposal-headline">
       <h2 className="text-sm font-semibold">
@@ -105,7 +105,7 @@ function RepowerVsRebuild({ data }: { data: CaseResultDto }) {
   const m = (x: number) => formatMoney(x, { scale: 'k', negative: data.negativeStyle });
   const withGain = data.result.trucks.reduce((s, t) => s + t.repowerVsRebuild.deltaNpv, 0);
   const without = data.withoutGain.fleet;
-  const tone = (x: number) => (x > 0 ? 'text-gain' : x < 0 ? 'text-loss' : '');
+  const tone = (x: number) => signTone(x, { scale: 'k' });
   return (
     <div className="card p-3" data-testid="fleet-delta">
       <h2 className="text-xs font-medium text-muted">Comparison: repower every truck vs rebuild every engine ({data.currency} k)</h2>

@@ -13,9 +13,11 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { irrBlankReason } from '@/lib/cases/irr-reason';
+import { paybackHold, type PaybackHold } from '@/lib/cases/payback';
+import { PaybackFigure } from './payback-figure';
 import type { CaseResultDto } from '@/lib/cases/types';
 import type { PolicyKey } from '@/lib/engine/types';
-import { formatMoney, formatNumber, formatPercent, formatYears } from '@/lib/format';
+import { formatMoney, formatNumber, formatPercent, formatYears, signTone } from '@/lib/format';
 import { bestOtherPolicy, repowerComparison } from '@/lib/plan';
 import { POLICY_COLOUR, POLICY_LABEL } from './policy';
 
@@ -37,7 +39,9 @@ type Row = {
   irrReason: string | null;
   mirr: number | null;
   payback: number | null;
+  paybackHold: PaybackHold;
   discountedPayback: number | null;
+  discountedPaybackHold: PaybackHold;
   pi: number | null;
   fuelLph: number;
   costPerHour: number;
@@ -56,6 +60,7 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
         const c = repowerComparison(t);
         const other = bestOtherPolicy(t);
         const delta = t.options.repower.cashFlows.map((x, i) => x - (t.options[other].cashFlows[i] ?? 0));
+        const df = data.discountFactors[t.id] ?? [];
         return {
           id: t.id,
           proposal: data.proposal.policies[t.id] ?? 'rebuild',
@@ -72,7 +77,9 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
           irrReason: irrBlankReason(c, delta),
           mirr: c.mirr,
           payback: c.paybackYears,
+          paybackHold: paybackHold(delta),
           discountedPayback: c.discountedPaybackYears,
+          discountedPaybackHold: paybackHold(delta.map((x, i) => x * (df[i] ?? 1))),
           pi: c.profitabilityIndex,
           fuelLph: t.options[t.best].fuelLitresPerHour,
           costPerHour: t.options[t.best].costPerHour,
@@ -104,17 +111,17 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
       col.accessor('repower', { header: `NPV repower (${cur} k)`, cell: (i) => money(i.getValue()), meta: { n: true } }),
       col.accessor('deltaNpv', {
         header: `ΔNPV repower vs best other (${cur} k)`,
-        cell: (i) => <span className={i.getValue() > 0 ? 'text-gain' : i.getValue() < 0 ? 'text-loss' : ''}>{money(i.getValue())}</span>,
+        cell: (i) => <span className={signTone(i.getValue(), { scale: 'k' })} data-testid="signed">{money(i.getValue())}</span>,
         meta: { n: true },
       }),
       col.accessor('deltaVsRebuild', {
         header: `ΔNPV repower vs rebuild (${cur} k)`,
-        cell: (i) => <span className={i.getValue() > 0 ? 'text-gain' : i.getValue() < 0 ? 'text-loss' : ''}>{money(i.getValue())}</span>,
+        cell: (i) => <span className={signTone(i.getValue(), { scale: 'k' })} data-testid="signed">{money(i.getValue())}</span>,
         meta: { n: true },
       }),
       col.accessor('deltaVsRebuildNoGain', {
         header: `ΔNPV repower vs rebuild without the productivity gain (${cur} k)`,
-        cell: (i) => <span className={i.getValue() > 0 ? 'text-gain' : i.getValue() < 0 ? 'text-loss' : ''}>{money(i.getValue())}</span>,
+        cell: (i) => <span className={signTone(i.getValue(), { scale: 'k' })} data-testid="signed">{money(i.getValue())}</span>,
         meta: { n: true },
       }),
       col.accessor('irr', {
@@ -124,8 +131,8 @@ export function TruckTable({ data, slug }: { data: CaseResultDto; slug: string }
         meta: { n: true },
       }),
       col.accessor('mirr', { header: 'MIRR', cell: (i) => formatPercent(i.getValue(), 1), meta: { n: true } }),
-      col.accessor('payback', { header: 'Payback (yr)', cell: (i) => formatYears(i.getValue()), meta: { n: true } }),
-      col.accessor('discountedPayback', { header: 'Disc. payback (yr)', cell: (i) => formatYears(i.getValue()), meta: { n: true } }),
+      col.accessor('payback', { header: 'Payback (yr)', sortUndefined: 'last', cell: (i) => <PaybackFigure years={i.getValue()} hold={i.row.original.paybackHold} />, meta: { n: true } }),
+      col.accessor('discountedPayback', { header: 'Disc. payback (yr)', sortUndefined: 'last', cell: (i) => <PaybackFigure years={i.getValue()} hold={i.row.original.discountedPaybackHold} />, meta: { n: true } }),
       col.accessor('pi', { header: 'PI', cell: (i) => formatNumber(i.getValue(), 2), meta: { n: true } }),
       col.accessor('fuelLph', { header: 'Fuel, best (L/h)', cell: (i) => formatNumber(i.getValue(), 1), meta: { n: true } }),
       col.accessor('costPerHour', { header: `Cost, best (${cur}/h)`, cell: (i) => formatNumber(i.getValue(), 2, neg), meta: { n: true } }),

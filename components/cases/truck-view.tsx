@@ -6,10 +6,12 @@ import type { ApiError } from '@/lib/fetcher';
 import { POLICIES } from '@/lib/engine/types';
 import { formatMoney, formatNumber, formatPercent, formatYears } from '@/lib/format';
 import { bestOtherPolicy, repowerComparison } from '@/lib/plan';
+import { paybackHold, paybackWarning } from '@/lib/cases/payback';
 import { CashFlowTable } from './cash-flow-table';
+import { PaybackFigure } from './payback-figure';
 import { EvaluationProblems, ResultsSkeleton } from './case-results';
 import { VALUATION_NOTE } from '@/lib/cases/valuation';
-import { CostStackChart, CumulativeDeltaChart, FuelChart } from './charts';
+import { CostStackChart, CumulativeDeltaChart, FuelChart, partYearOf } from './charts';
 import { ValuationBadge } from './case-results';
 import { EventTimeline } from './event-timeline';
 import { ExpectedEventsTable } from './expected-events-table';
@@ -32,6 +34,11 @@ export function TruckView({ slug, caseId, truckId }: { slug: string; caseId: num
   // a path of events to draw exists on the median path only; the expected valuation has counts per year instead
   const hasPath = POLICIES.some((p) => detail.policies[p].valuation === 'path' && meta.events[p].length > 0);
   const noGain = data.withoutGain.trucks[result.id];
+  const partYear = partYearOf(detail, meta.annualHours);
+  const delta = result.options.repower.cashFlows.map((x, i) => x - result.options[other].cashFlows[i]);
+  const discountedHold = paybackHold(delta.map((x, i) => x * detail.policies.repower.periods[i].discountFactor));
+  const holdNote = paybackWarning(discountedHold) ?? paybackWarning(paybackHold(delta));
+  const noInvestment = paybackHold(delta).kind === 'no-investment';
   return (
     <div className="space-y-4">
       <p className="text-sm">
@@ -58,18 +65,21 @@ export function TruckView({ slug, caseId, truckId }: { slug: string; caseId: num
             <dd className="num text-right" data-testid="delta-no-gain">{formatMoney(noGain, { negative: neg })}</dd>
             <dt>IRR</dt><dd className="num text-right">{formatPercent(c.irr)}</dd>
             <dt>MIRR</dt><dd className="num text-right">{formatPercent(c.mirr)}</dd>
-            <dt>Payback (yr)</dt><dd className="num text-right">{formatYears(c.paybackYears)}</dd>
+            <dt>Payback (yr)</dt><dd className="num text-right" data-testid="truck-payback"><PaybackFigure years={c.paybackYears} hold={paybackHold(delta)} /></dd>
+            <dt>Discounted payback (yr)</dt><dd className="num text-right" data-testid="truck-discounted-payback"><PaybackFigure years={c.discountedPaybackYears} hold={discountedHold} /></dd>
             <dt>PI</dt><dd className="num text-right">{formatNumber(c.profitabilityIndex, 2)}</dd>
           </dl>
         </div>
       </section>
+      {holdNote ? <p role="note" className="rounded border border-loss/40 bg-loss/5 px-2 py-1 text-sm text-loss" data-testid="truck-payback-warning">{holdNote}: the payback does not hold (see the cumulative chart).</p> : null}
+      {noInvestment ? <p role="note" className="text-sm text-muted" data-testid="truck-no-investment">Payback: — (no investment). Repowering this truck spends nothing more than {POLICY_LABEL[other].toLowerCase()} in any year before it gains, so there is nothing to pay back.</p> : null}
       <p className="text-xs text-muted">
         Engine {meta.engineId} at {formatNumber(meta.engineHours, 0)} h, {formatNumber(meta.annualHours, 0)} h a year; offer {meta.repowerOfferId} (engine {detail.repowerEngineId}); horizon {result.horizonYears} years; power demand {formatNumber(detail.powerKw, 0)} kW; fuel calibration ×{formatNumber(detail.calibrationFactor, 3)}.
       </p>
       <div className="grid gap-3 xl:grid-cols-3">
-        <CumulativeDeltaChart result={result} detail={detail} currency={currency} />
+        <CumulativeDeltaChart result={result} detail={detail} currency={currency} partYear={partYear} />
         <CostStackChart detail={detail} currency={currency} />
-        <FuelChart detail={detail} />
+        <FuelChart detail={detail} partYear={partYear} />
       </div>
       {hasPath ? <EventTimeline events={meta.events} horizonYears={result.horizonYears} currency={currency} /> : null}
       <ExpectedEventsTable result={result} valuation={valuation} />

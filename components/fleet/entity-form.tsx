@@ -84,6 +84,8 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
   onSubmit: (values: z.output<S>) => Promise<void>;
   onCancel?: () => void;
   extraActions?: ReactNode;
+  /** a notice drawn above the buttons from the values as typed (e.g. a warning that does not block saving) */
+  notice?: (values: FieldValues) => ReactNode;
   testId?: string;
   /** the workspace's display units (default metric) */
   units?: UnitSystem;
@@ -149,7 +151,7 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
     }
     return { values: out, errors };
   };
-  const { register, handleSubmit, setError, formState } = useForm<FieldValues>({
+  const { register, handleSubmit, setError, formState, watch } = useForm<FieldValues>({
     // The schema's ranges are in stored (metric) units, so unit-bearing fields are
     // converted before the check; submit receives the schema's output, already stored.
     resolver: async (values, context, options) => {
@@ -218,6 +220,7 @@ export function EntityForm<S extends z.ZodType<FieldValues, FieldValues>>(props:
           );
         })}
       </div>
+      {props.notice ? props.notice(watch()) : null}
       <div role="alert" aria-live="polite" className="mt-3 text-sm text-loss" data-testid="form-error">{formError}</div>
       <div className="mt-3 flex items-center gap-2">
         <button type="submit" className="btn btn-primary" disabled={formState.isSubmitting}>{formState.isSubmitting ? 'Saving…' : props.submitLabel}</button>

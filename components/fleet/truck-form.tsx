@@ -4,6 +4,7 @@ import { useState } from 'react';
 import useSWR, { useSWRConfig } from 'swr';
 import { ApiError, sendJson } from '@/lib/fetcher';
 import { truckInputSchema, truckUpdateSchema, type TruckInput } from '@/lib/validation/fleet';
+import { offerPowerFit } from '@/lib/fleet/offer-power';
 import { EntityForm, type FieldSpec } from './entity-form';
 import { api, type EngineRow, type OfferRow, type TruckRow, type WorkspaceView } from './types';
 
@@ -64,6 +65,17 @@ export function TruckForm({ ws, truck, onDone }: { ws: WorkspaceView; truck: Tru
         onSubmit={save}
         onCancel={onDone}
         extraActions={truck ? <button type="button" className="btn btn-danger" onClick={remove}>Delete truck</button> : null}
+        notice={(v) => {
+          const engine = engines.data?.items.find((e) => e.id === Number(v.engineTypeId));
+          const offer = offers.data?.items.find((o) => o.id === Number(v.repowerOfferId));
+          const offerEngine = offer ? engines.data?.items.find((e) => e.id === offer.engineTypeId) : undefined;
+          const fit = engine && offerEngine ? offerPowerFit(engine.ratedKw, offerEngine.ratedKw) : null;
+          return fit && fit.kind !== 'fits' ? (
+            <p role="note" className="mt-3 rounded border border-loss/40 bg-loss/5 px-2 py-1 text-sm" data-testid="offer-power-warning">
+              {fit.message} (Threshold: more than 15 % below or 25 % above, common practice; see the methodology.) You can still save it.
+            </p>
+          ) : null;
+        }}
         testId="truck-form"
       />
     </div>

@@ -12,7 +12,19 @@ import { usePost } from './use-post';
 
 // six distinguishable line colours that are not the policy colours
 const COLOURS = ['#15181c', '#6b4c9a', '#2f7f86', '#a0782c', '#7a7f87', '#c04f7a'];
-const M = { top: 14, right: 170, bottom: 46, left: 78 };
+const M = { top: 14, right: 210, bottom: 46, left: 78 };
+const LINE = 12;
+
+/** A label broken into lines of at most `width` characters at spaces (a word longer than that is kept whole). */
+export function wrapLabel(label: string, width = 30): string[] {
+  const lines: string[] = [];
+  for (const word of label.split(/\s+/).filter(Boolean)) {
+    const last = lines[lines.length - 1];
+    if (last !== undefined && last.length + 1 + word.length <= width) lines[lines.length - 1] = `${last} ${word}`;
+    else lines.push(word);
+  }
+  return lines.length ? lines : [label];
+}
 
 /** The metric against the percentage change of the drivers that swing it most. */
 export function SpiderPanel(props: { base: string; metric: MetricInput; metricLabel: string; driverIds: string[]; drivers: DriverView[]; currency: string; negative: NegativeStyle }) {
@@ -48,13 +60,18 @@ function Chart({ lines, byId, width, height, metric, metricLabel, currency, nega
   const x = scaleLinear<number>({ domain: [Math.min(...changes), Math.max(...changes)], range: [0, innerW] });
   const y = scaleLinear<number>({ domain: [Math.min(...all), Math.max(...all)], range: [innerH, 0], nice: true });
   // direct labels at the right end, pushed apart where lines end close together
+  // (each label as many lines high as it wraps to), then pulled back up when the stack runs off the bottom
   const labelY = new Map<string, number>();
-  const ends = lines.map((l) => ({ id: l.driver, y: y(l.points[l.points.length - 1].metric) })).sort((a, b) => a.y - b.y);
-  let prev = -Infinity;
+  const wrapped = new Map(lines.map((l) => [l.driver, wrapLabel(byId.get(l.driver)?.label ?? l.driver)]));
+  const ends = lines.map((l) => ({ id: l.driver, y: y(l.points[l.points.length - 1].metric), h: (wrapped.get(l.driver)!.length) * LINE })).sort((a, b) => a.y - b.y);
+  let bottom = -Infinity;
   for (const e of ends) {
-    prev = Math.max(e.y, prev + 13);
-    labelY.set(e.id, prev);
+    const top = Math.max(e.y - e.h / 2, bottom + 2);
+    labelY.set(e.id, top);
+    bottom = top + e.h;
   }
+  const overflow = bottom - (innerH + M.bottom - 4);
+  if (overflow > 0) for (const e of ends) labelY.set(e.id, Math.max(-M.top + 2, labelY.get(e.id)! - overflow));
   return (
     <svg width={width} height={height} role="img" aria-label={`Spider chart of ${metricLabel}`}>
       <Group left={M.left} top={M.top}>
@@ -70,8 +87,9 @@ function Chart({ lines, byId, width, height, metric, metricLabel, currency, nega
                   <title>{`${label} ${p.change >= 0 ? '+' : ''}${Math.round(p.change * 100)} %: ${money(p.metric, fleet, negative)} ${currency} ${moneyScale(fleet).suffix}`}</title>
                 </circle>
               ))}
-              <text x={x(last.change) + 6} y={labelY.get(l.driver)} dy="0.33em" fontSize={11} fill={COLOURS[i % COLOURS.length]}>
-                {label.length > 26 ? `${label.slice(0, 25)}…` : label}
+              <text x={x(last.change) + 6} y={labelY.get(l.driver)} fontSize={11} fill={COLOURS[i % COLOURS.length]} data-testid="spider-label">
+                <title>{label}</title>
+                {wrapped.get(l.driver)!.map((line, k) => <tspan key={k} x={x(last.change) + 6} dy={k === 0 ? '0.9em' : LINE}>{line}</tspan>)}
               </text>
             </g>
           );

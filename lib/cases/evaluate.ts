@@ -13,6 +13,7 @@ import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from
 import { invalid, notFound, type Problem } from '@/lib/http';
 import { buildDecisionSummary } from './decision-summary';
 import { buildProposal, timingFromDetails } from './proposal';
+import { fleetByYear } from './fleet-years';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
@@ -118,6 +119,8 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     schedule,
     proposal,
     fiscalYearStartMonth,
+    discountFactors: Object.fromEntries(details.map((d) => [d.truckId, d.policies.repower.periods.map((p) => p.discountFactor)])),
+    fleetYears: fleetByYear(result, details, Object.fromEntries(file.trucks.map((t) => [t.id, t.annualHours]))),
     evaluatedMs: Math.round(performance.now() - started),
   };
 }

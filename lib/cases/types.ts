@@ -2,6 +2,7 @@
 import type { CaseResult, EventKind, PolicyKey, TruckDetail, TruckResult } from '@/lib/engine/types';
 import type { CapitalPlan, PlacedSwap, RankedTruck } from '@/lib/plan';
 import type { PlanSettings } from '@/lib/validation/business-case';
+import type { FleetYear } from './fleet-years';
 import type { DecisionSummary } from './decision-summary';
 
 export type CaseSummaryDto = {
@@ -66,6 +67,10 @@ export type CaseResultDto = {
   proposal: DecisionSummary;
   /** month (1..12) the workspace's fiscal year starts in */
   fiscalYearStartMonth: number;
+  /** the fleet year by year, best mix against rebuilding every engine (lib/cases/fleet-years.ts) */
+  fleetYears: FleetYear[];
+  /** each truck's discount factors by period (the repower policy's; the same for every policy) */
+  discountFactors: Record<string, number[]>;
   /** server time to build and evaluate the case, ms */
   evaluatedMs: number;
 };

@@ -1,4 +1,5 @@
 import { env } from '../env';
+import { mailBaseUrl } from './base-url';
 
 /**
  * Mail settings from the validated environment (lib/env.ts). With no SMTP_HOST
@@ -14,6 +15,7 @@ export type MailConfig = {
   user?: string;
   pass?: string;
   from: string;
+  /** the base of links in mail: APP_URL, else the request's origin, else a fallback (lib/mail/base-url.ts) */
   appUrl: string;
 };
 
@@ -27,7 +29,7 @@ export function readMailConfig(raw: Record<string, string | undefined> = process
     user: e.SMTP_USER,
     pass: e.SMTP_PASS,
     from: e.SMTP_FROM || 'Haulcase <no-reply@haulcase.test>',
-    appUrl: (e.APP_URL || e.NEXTAUTH_URL || 'http://127.0.0.1:3000').replace(/\/+$/, ''),
+    appUrl: mailBaseUrl(raw),
   };
 }
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatMoney, formatNumber, formatPercent } from '@/lib/format';
+import { formatMoney, formatNumber, formatPercent, signTone } from '@/lib/format';
 
 describe('display formatting', () => {
   it('groups thousands and rounds only for display', () => {
@@ -16,5 +16,17 @@ describe('display formatting', () => {
     expect(formatMoney(null)).toBe('—');
     expect(formatPercent(undefined)).toBe('—');
     expect(formatPercent(0.0866, 2)).toBe('8.66 %');
+  });
+});
+
+describe('signTone', () => {
+  it('takes the negative style only for a figure that shows as negative', () => {
+    expect(signTone(0)).toBe('');
+    expect(signTone(-0)).toBe('');
+    expect(signTone(-200, { scale: 'k' })).toBe(''); // shows as "0" in k
+    expect(signTone(-600, { scale: 'k' })).toBe('text-loss'); // shows as "(1)"
+    expect(signTone(0.4)).toBe('');
+    expect(signTone(1)).toBe('text-gain');
+    expect(signTone(null)).toBe('');
   });
 });

@@ -5,6 +5,7 @@ import { PageHeader } from '@/components/ui/page-header';
 import { hasRole } from '@/lib/auth/access';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
+import { mailBaseWarning } from '@/lib/mail/base-url';
 import { fetchOutbox, fetchOutboxQueue, outboxEnabled, type QueuedMessage } from '@/lib/mail/outbox';
 
 export const metadata: Metadata = { title: 'Outbox' };
@@ -15,10 +16,13 @@ export default async function OutboxPage({ params }: { params: Promise<{ workspa
   const access = await getPageAccess(workspace);
   if (!hasRole(access, CAN.administer)) return <AccessDenied need={CAN.administer} have={access.role} />;
   const queued = await fetchOutboxQueue(access.workspace.slug);
+  const baseWarning = mailBaseWarning();
+  const warning = baseWarning ? <p role="note" className="card mb-4 border-loss/40 bg-loss/5 p-3 text-sm" data-testid="outbox-base-warning">{baseWarning}</p> : null;
   if (!outboxEnabled()) {
     return (
       <>
         <PageHeader title="Outbox" />
+        {warning}
         <QueuedMail messages={queued} />
         <EmptyState title="Mail goes to a real SMTP server">SMTP_HOST is configured, so messages are delivered to real mailboxes and there is no local outbox to show.</EmptyState>
       </>
@@ -28,6 +32,7 @@ export default async function OutboxPage({ params }: { params: Promise<{ workspa
   return (
     <>
       <PageHeader title="Outbox" subtitle="Mail received by the local SMTP sink (no SMTP_HOST is configured, so nothing leaves this machine)." />
+      {warning}
       <QueuedMail messages={queued} />
       {messages.length === 0 ? (
         <EmptyState title="No mail yet">Submitting a case, deciding on one, inviting someone or asking for a password reset sends mail; it lands here.</EmptyState>
