@@ -1,6 +1,6 @@
 'use client';
 import type { NegativeStyle } from '@/lib/format';
-import { driverValue, money, moneyScale } from './format';
+import { changeLabel, driverValue, money, moneyScale } from './format';
 import type { BreakEven, DriverView, MetricInput } from './types';
 import { usePost } from './use-post';
 
@@ -41,7 +41,7 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
                 <th>Unit</th>
                 <th className="n">In the case</th>
                 <th className="n">Break-even</th>
-                <th className="n">Change</th>
+                <th className="n" title="Rates and shares in percentage points (pp), other drivers in % of their value in the case">Change</th>
                 <th>Searched</th>
                 <th>Reading</th>
               </tr>
@@ -49,14 +49,13 @@ export function BreakEvenPanel(props: { base: string; metric: MetricInput; drive
             <tbody>
               {rows.map((r) => {
                 const d = byId.get(r.driver);
-                const change = r.value !== null && r.base !== 0 ? (r.value - r.base) / Math.abs(r.base) : null;
                 return (
                   <tr key={r.driver} data-driver={r.driver}>
                     <td>{d?.label ?? r.driver}</td>
                     <td className="text-xs text-muted">{d?.unit}</td>
                     <td className="n whitespace-nowrap">{driverValue(d, r.base)}</td>
                     <td className="n whitespace-nowrap font-medium">{r.kind === 'none' ? '—' : driverValue(d, r.value)}</td>
-                    <td className="n whitespace-nowrap">{change === null ? '' : `${change > 0 ? '+' : ''}${(change * 100).toFixed(1)} %`}</td>
+                    <td className="n whitespace-nowrap" data-testid="break-even-change">{r.kind === 'none' ? '' : changeLabel(d, r.base, r.value)}</td>
                     <td className="text-xs text-muted">{driverValue(d, r.rangeLow)} to {driverValue(d, r.rangeHigh)}</td>
                     <td className="text-xs">{reading(r, subject)}</td>
                   </tr>

@@ -26,3 +26,20 @@ export function unitLabel(d: Pick<DriverView, 'unit'> | undefined): string {
 /** Input ↔ stored value: percentages are typed as percent. */
 export const toInput = (d: DriverView, v: number) => (d.unit.includes('%') ? Number((v * 100).toPrecision(6)) : Number(v.toPrecision(6)));
 export const fromInput = (d: DriverView, v: number) => (d.unit.includes('%') ? v / 100 : v);
+
+/**
+ * The change from a driver's value in the case to another value: rates and shares (a "%" unit, stored as
+ * fractions) in percentage points, "+3.2 pp" for 0.08 → 0.112; other drivers relative to the base,
+ * "+72.5 %"; "" where a relative change has no meaning (a base of 0) or there is no value.
+ */
+export function changeLabel(d: Pick<DriverView, 'unit'> | undefined, base: number, value: number | null): string {
+  if (value === null || !Number.isFinite(value) || !d) return '';
+  const sign = (x: number) => (x > 0 ? '+' : x < 0 ? '−' : '');
+  if (d.unit.includes('%')) {
+    const points = Math.round((value - base) * 1000) / 10; // one decimal of a point
+    return `${sign(points)}${formatNumber(Math.abs(points), 1)} pp`;
+  }
+  if (base === 0) return '';
+  const rel = Math.round(((value - base) / Math.abs(base)) * 1000) / 10;
+  return `${sign(rel)}${formatNumber(Math.abs(rel), 1)} %`;
+}

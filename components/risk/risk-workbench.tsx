@@ -14,13 +14,26 @@ import type { DriversAnswer, MetricInput, RunsAnswer, TornadoRow } from './types
 /** A fleet measure, or one truck's ΔNPV repower vs rebuild. */
 export type Choice = FleetMeasure | `truck:${string}`;
 
+/** Default ranges of the tornado and the spider: each driver's realistic range, or ±20 % on every driver. */
+export type RangeMode = 'realistic' | 'uniform';
+
 /**
  * The risk page's client side: one measure chosen at the top drives every
  * panel below; a fleet analysis reads the proposal by default, repowering
  * every truck and the best mix are comparisons. Opening a Monte Carlo run
  * sets the measure to the one that run was read on.
  */
-export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: { slug: string; caseId: number; initialTruck: string | null; negative: NegativeStyle; canRun: boolean }) {
+export function RiskWorkbench({ slug, caseId, initialTruck, initialRanges = 'realistic', negative, canRun }: { slug: string; caseId: number; initialTruck: string | null; initialRanges?: RangeMode; negative: NegativeStyle; canRun: boolean }) {
+  // realistic ranges per driver, or ±20 % on every driver; kept in the address (?ranges=uniform) so a link or reload keeps it
+  const [rangeMode, setRangeModeState] = useState<RangeMode>(initialRanges);
+  const setRangeMode = (m: RangeMode) => {
+    setRangeModeState(m);
+    const url = new URL(window.location.href);
+    if (m === 'uniform') url.searchParams.set('ranges', 'uniform');
+    else url.searchParams.delete('ranges');
+    window.history.replaceState(window.history.state, '', url);
+    setTop([]);
+  };
   const base = `/api/workspaces/${slug}/cases/${caseId}`;
   // the measure: on a truck's page that truck; otherwise the one the latest Monte Carlo run was read on (the panel
   // opens that run), else the proposal — decided before any analysis is asked for, so none is computed twice
@@ -69,14 +82,21 @@ export function RiskWorkbench({ slug, caseId, initialTruck, negative, canRun }: 
             ))}
           </select>
         </label>
+        <fieldset className="text-sm">
+          <legend className="label">Tornado and spider ranges</legend>
+          <div className="flex gap-3 pt-1">
+            <label className="flex items-center gap-1"><input type="radio" name="range-mode" checked={rangeMode === 'realistic'} onChange={() => setRangeMode('realistic')} /> Realistic ranges</label>
+            <label className="flex items-center gap-1"><input type="radio" name="range-mode" checked={rangeMode === 'uniform'} onChange={() => setRangeMode('uniform')} /> ±20 % on every driver</label>
+          </div>
+        </fieldset>
         <p className="pb-1.5 text-xs text-muted">Figures come from the case as stored{answer.case.status === 'approved' ? ' (the approved, frozen numbers)' : ''}; every point is a full re-run of the engine.</p>
       </div>
       <p className="-mt-2 text-xs text-muted" data-testid="risk-proposal">
         The proposal is the case&rsquo;s saved plan: it repowers {plural(p.repower, 'truck')} the plan chooses; the other{' '}
         {p.keep + p.rebuild === 1 ? 'truck follows' : `${p.keep + p.rebuild} trucks follow`} the better of keep ({p.keep}) and rebuild ({p.rebuild}). Each truck&rsquo;s policy is held fixed while the inputs vary.
       </p>
-      <TornadoPanel key={`t${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} onRows={onRows} />
-      <SpiderPanel key={`s${key}`} base={base} metric={metric} metricLabel={metricLabel} driverIds={top} drivers={answer.drivers} currency={currency} negative={negative} />
+      <TornadoPanel key={`t${key}${rangeMode}`} rangeMode={rangeMode} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} onRows={onRows} />
+      <SpiderPanel key={`s${key}${rangeMode}`} rangeMode={rangeMode} base={base} metric={metric} metricLabel={metricLabel} driverIds={top} drivers={answer.drivers} currency={currency} negative={negative} />
       {/* asked for once the tornado is in: a fleet break-even is hundreds of engine runs, and would hold the tornado and the Monte Carlo answers behind it */}
       <BreakEvenPanel key={`b${key}`} base={base} metric={metric} drivers={answer.drivers} currency={currency} negative={negative} ready={top.length > 0} />
       <TwoWayPanel key={`w${key}`} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} initial={['fuelPrice', firstOffer]} />

@@ -6,9 +6,11 @@ import { ParentSize } from '@visx/responsive';
 import { scaleLinear } from '@visx/scale';
 import { LinePath } from '@visx/shape';
 import type { NegativeStyle } from '@/lib/format';
-import { money, moneyScale } from './format';
+import { driverValue, money, moneyScale } from './format';
+import { formatNumber } from '@/lib/format';
 import type { DriverView, MetricInput, SpiderLine } from './types';
 import { usePost } from './use-post';
+import type { RangeMode } from './risk-workbench';
 
 // six distinguishable line colours that are not the policy colours
 const COLOURS = ['#15181c', '#6b4c9a', '#2f7f86', '#a0782c', '#7a7f87', '#c04f7a'];
@@ -27,16 +29,18 @@ export function wrapLabel(label: string, width = 30): string[] {
 }
 
 /** The metric against the percentage change of the drivers that swing it most. */
-export function SpiderPanel(props: { base: string; metric: MetricInput; metricLabel: string; driverIds: string[]; drivers: DriverView[]; currency: string; negative: NegativeStyle }) {
+export function SpiderPanel(props: { base: string; metric: MetricInput; metricLabel: string; driverIds: string[]; drivers: DriverView[]; currency: string; negative: NegativeStyle; rangeMode?: RangeMode }) {
+  const realistic = (props.rangeMode ?? 'realistic') === 'realistic';
   const { data, error } = usePost<{ baseValue: number; lines: SpiderLine[] }>(props.driverIds.length ? `${props.base}/spider` : null, {
     metric: props.metric,
     drivers: props.driverIds,
+    ...(realistic ? { mode: 'realistic' } : { mode: 'relative', changes: [-0.2, -0.1, 0, 0.1, 0.2] }),
   });
   const byId = new Map(props.drivers.map((d) => [d.id, d]));
   return (
     <section aria-labelledby="spider-title" className="card p-4">
       <h2 id="spider-title" className="text-base font-semibold">How the answer bends</h2>
-      <p className="mb-2 text-sm text-muted">{props.metricLabel} as each of the six largest drivers moves from −30 % to +30 % of its value in the case.</p>
+      <p className="mb-2 text-sm text-muted">{props.metricLabel} as each of the six largest drivers moves {realistic ? 'across its realistic range, from its low (−1) through its value in the case (0) to its high (+1)' : 'from −20 % to +20 % of its value in the case'}.</p>
       {error ? <p role="alert" className="text-sm text-loss">{error.message}</p> : null}
       {data ? (
         <figure aria-label="Spider chart" data-testid="spider-chart">
@@ -51,8 +55,10 @@ export function SpiderPanel(props: { base: string; metric: MetricInput; metricLa
   );
 }
 
-function Chart({ lines, byId, width, height, metric, metricLabel, currency, negative }: { lines: SpiderLine[]; byId: Map<string, DriverView>; width: number; height: number } & Parameters<typeof SpiderPanel>[0]) {
+function Chart({ lines, byId, width, height, metric, metricLabel, currency, negative, rangeMode }: { lines: SpiderLine[]; byId: Map<string, DriverView>; width: number; height: number } & Parameters<typeof SpiderPanel>[0]) {
   const fleet = metric.kind !== 'truck-delta';
+  const realistic = (rangeMode ?? 'realistic') === 'realistic';
+  const pos = (t: number) => (realistic ? `${t > 0 ? '+' : ''}${formatNumber(t, 2)}` : `${t > 0 ? '+' : ''}${Math.round(t * 100)} %`);
   const innerW = Math.max(120, width - M.left - M.right);
   const innerH = height - M.top - M.bottom;
   const all = lines.flatMap((l) => l.points.map((p) => p.metric));
@@ -84,7 +90,7 @@ function Chart({ lines, byId, width, height, metric, metricLabel, currency, nega
               <LinePath data={l.points} x={(p) => x(p.change)} y={(p) => y(p.metric)} stroke={COLOURS[i % COLOURS.length]} strokeWidth={1.5} />
               {l.points.map((p) => (
                 <circle key={p.change} cx={x(p.change)} cy={y(p.metric)} r={2.5} fill={COLOURS[i % COLOURS.length]}>
-                  <title>{`${label} ${p.change >= 0 ? '+' : ''}${Math.round(p.change * 100)} %: ${money(p.metric, fleet, negative)} ${currency} ${moneyScale(fleet).suffix}`}</title>
+                  <title>{`${label} ${pos(p.change)} (${driverValue(byId.get(l.driver), p.value)}): ${money(p.metric, fleet, negative)} ${currency} ${moneyScale(fleet).suffix}`}</title>
                 </circle>
               ))}
               <text x={x(last.change) + 6} y={labelY.get(l.driver)} fontSize={11} fill={COLOURS[i % COLOURS.length]} data-testid="spider-label">
@@ -109,11 +115,11 @@ function Chart({ lines, byId, width, height, metric, metricLabel, currency, nega
           top={innerH}
           scale={x}
           numTicks={changes.length}
-          tickFormat={(v) => `${Number(v) > 0 ? '+' : ''}${Math.round(Number(v) * 100)} %`}
+          tickFormat={(v) => pos(Number(v))}
           stroke="#5d646d"
           tickStroke="#5d646d"
           tickLabelProps={{ fontSize: 11, fill: '#5d646d', textAnchor: 'middle' }}
-          label="Change of the driver from its value in the case (%)"
+          label={realistic ? 'Position in the driver\'s realistic range (−1 low, 0 the case, +1 high)' : 'Change of the driver from its value in the case (%)'}
           labelProps={{ fontSize: 12, fill: '#15181c', textAnchor: 'middle' }}
           labelOffset={14}
         />

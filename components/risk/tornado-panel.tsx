@@ -5,6 +5,7 @@ import { driverValue, fromInput, money, moneyScale, toInput } from './format';
 import { TornadoChart } from './tornado-chart';
 import type { DriverView, MetricInput, TornadoRow } from './types';
 import { usePost } from './use-post';
+import type { RangeMode } from './risk-workbench';
 
 type Ranges = Record<string, { low: number; high: number }>;
 
@@ -17,12 +18,15 @@ export function TornadoPanel(props: {
   currency: string;
   negative: NegativeStyle;
   onRows?: (rows: TornadoRow[]) => void;
+  rangeMode?: RangeMode;
 }) {
   const { base, metric, drivers, currency, negative } = props;
   const fleet = metric.kind !== 'truck-delta';
   const [ranges, setRanges] = useState<Ranges>({});
+  const realistic = (props.rangeMode ?? 'realistic') === 'realistic';
   const [relative, setRelative] = useState(0.2);
-  const { data, error, isLoading } = usePost<{ baseValue: number; rows: TornadoRow[] }>(`${base}/tornado`, { metric, ranges, relative });
+  const body = realistic ? { metric, ranges, mode: 'realistic' } : { metric, ranges, mode: 'relative', relative };
+  const { data, error, isLoading } = usePost<{ baseValue: number; rows: TornadoRow[] }>(`${base}/tornado`, body);
   const byId = new Map(drivers.map((d) => [d.id, d]));
   const { onRows } = props;
   useEffect(() => {
@@ -37,15 +41,20 @@ export function TornadoPanel(props: {
           <h2 id="tornado-title" className="text-base font-semibold">Which drivers matter</h2>
           <p className="text-sm text-muted">{props.metricLabel} with each driver at its low and high value, the others as in the case; largest swing first.</p>
         </div>
-        <label className="text-sm">
+        {realistic ? null : <label className="text-sm">
           <span className="label">Default range (±%)</span>
           <select className="field w-24" value={relative} onChange={(e) => setRelative(Number(e.target.value))} aria-label="Default range">
             {[0.1, 0.2, 0.3, 0.5].map((r) => (
               <option key={r} value={r}>±{r * 100} %</option>
             ))}
           </select>
-        </label>
+        </label>}
       </div>
+      <p className="mb-2 text-xs text-muted" data-testid="tornado-range-note">
+        {realistic
+          ? 'Each driver over its realistic range (hover a driver for the range and where it comes from; the methodology lists them all), clipped to the input limits; type over a low or high to change it.'
+          : `Every driver ±${relative * 100} % of its value in the case; a driver at 0 (carbon price) over its absolute range. Clipped to the input limits.`}
+      </p>
       {error ? <p role="alert" className="text-sm text-loss">{error.message} {error.problems.map((p) => `${p.path}: ${p.message}`).join('; ')}</p> : null}
       {isLoading && !data ? <p className="text-sm text-muted" aria-live="polite">Computing the tornado…</p> : null}
       {data ? (
@@ -69,7 +78,7 @@ export function TornadoPanel(props: {
                   const d = byId.get(r.driver);
                   return (
                     <tr key={r.driver} data-driver={r.driver}>
-                      <td>{d?.label ?? r.driver} <span className="text-xs text-muted">{d?.unit}</span></td>
+                      <td title={d?.rangeSource ? `Realistic range: ${driverValue(d, d.realistic?.[0])} to ${driverValue(d, d.realistic?.[1])} — ${d.rangeSource}` : undefined}>{d?.label ?? r.driver} <span className="text-xs text-muted">{d?.unit}</span></td>
                       <td className="n">{driverValue(d, r.base)}</td>
                       <td className="n"><RangeInput driver={d} value={r.low} label={`Low value of ${d?.label}`} onCommit={(v) => setRanges((x) => ({ ...x, [r.driver]: { low: v, high: x[r.driver]?.high ?? r.high } }))} /></td>
                       <td className="n"><RangeInput driver={d} value={r.high} label={`High value of ${d?.label}`} onCommit={(v) => setRanges((x) => ({ ...x, [r.driver]: { low: x[r.driver]?.low ?? r.low, high: v } }))} /></td>
@@ -83,7 +92,7 @@ export function TornadoPanel(props: {
             </table>
           </div>
           {Object.keys(ranges).length ? (
-            <button type="button" className="btn mt-2" onClick={() => setRanges({})}>Reset ranges to ±{relative * 100} %</button>
+            <button type="button" className="btn mt-2" onClick={() => setRanges({})}>{realistic ? 'Reset to the realistic ranges' : `Reset ranges to ±${relative * 100} %`}</button>
           ) : null}
         </>
       ) : null}

@@ -13,6 +13,10 @@ export interface DriverView {
   base: number;
   min: number;
   max: number | null;
+  /** the driver's realistic default range in the case, clipped to its limits */
+  realistic?: [number, number];
+  /** where that range comes from (common practice / from memory) */
+  rangeSource?: string;
 }
 
 /** The deterministic figures of the case in its own valuation (MODEL.md section 11), which the Monte Carlo histogram marks. */

@@ -247,13 +247,14 @@ export function makeProposalEvaluator(validCase: CaseFileInput, policies: Propos
 /**
  * The drivers that swing the proposal's gain most: a ±20 % tornado over the
  * fleet's drivers (`listDrivers`), largest swing first, `count` rows. A driver
- * whose base is 0 cannot move by ±20 % and is skipped.
+ * whose base is 0 cannot move by ±20 % and is skipped. Kept on ±20 % (not the risk page's
+ * realistic ranges) because the summary and the decision pack label it so.
  */
 export function proposalTopDrivers(validCase: CaseFileInput, policies: ProposalPolicies, count = 3, currency = 'USD'): DecisionDriver[] {
   const drivers: DriverRef[] = listDrivers(validCase).filter((d) => getDriver(validCase, d) !== 0);
   if (drivers.length === 0) return [];
   const ev = makeProposalEvaluator(validCase, policies);
-  return tornado(ev, drivers)
+  return tornado(ev, drivers, {}, 0.2)
     .slice(0, count)
     .map((r) => {
       const d = drivers.find((x) => (x.target ? `${x.key}@${x.target}` : x.key) === r.driver)!;

@@ -6,6 +6,7 @@
 import { invalid, type Problem } from '@/lib/http';
 import {
   breakEvens,
+  DEFAULT_RANGES,
   DRIVER_CATALOGUE,
   driverId,
   driverLabel,
@@ -13,7 +14,9 @@ import {
   listDrivers,
   makeEvaluator,
   parseDriverId,
+  realisticRange,
   spider,
+  spiderRealistic,
   tornado,
   twoWay,
   type DriverRef,
@@ -79,6 +82,8 @@ export function describeDrivers(c: CaseFile, truckId?: string) {
     base: getDriver(c, d),
     min: DRIVER_CATALOGUE[d.key].min,
     max: Number.isFinite(DRIVER_CATALOGUE[d.key].max) ? DRIVER_CATALOGUE[d.key].max : null,
+    realistic: realisticRange(d, getDriver(c, d)),
+    rangeSource: DEFAULT_RANGES[d.key].source,
   }));
 }
 
@@ -95,7 +100,7 @@ export function runTornado(c: CaseFile, proposal: Proposal | null, body: z.infer
   }
   done(problems);
   const ev = makeEvaluator(c, metric);
-  return { metric, baseValue: ev.baseValue, rows: tornado(ev, drivers, body.ranges, body.relative) };
+  return { metric, baseValue: ev.baseValue, rows: tornado(ev, drivers, body.ranges, (body.mode ?? (body.relative !== undefined ? 'relative' : 'realistic')) === 'realistic' ? 'realistic' : (body.relative ?? 0.2)) };
 }
 
 export function runSpider(c: CaseFile, proposal: Proposal | null, body: z.infer<typeof spiderRequestSchema>) {
@@ -104,7 +109,7 @@ export function runSpider(c: CaseFile, proposal: Proposal | null, body: z.infer<
   const drivers = driversOf(c, metric, body.drivers, problems);
   done(problems);
   const ev = makeEvaluator(c, metric);
-  return { metric, baseValue: ev.baseValue, lines: spider(ev, drivers, body.changes) };
+  return { metric, baseValue: ev.baseValue, lines: (body.mode ?? (body.changes ? 'relative' : 'realistic')) === 'realistic' ? spiderRealistic(ev, drivers) : spider(ev, drivers, body.changes) };
 }
 
 export function runBreakEven(c: CaseFile, proposal: Proposal | null, body: z.infer<typeof breakEvenRequestSchema>) {

@@ -25,7 +25,10 @@ const driverIdSchema = z.string().min(1).max(200);
 export const tornadoRequestSchema = z.strictObject({
   metric: metricSchema,
   drivers: z.array(driverIdSchema).max(200).optional(),
-  relative: z.number().gt(0, 'must be above 0').lt(1, 'must be below 1 (100 %)').default(0.2),
+  /** realistic (the default without `relative`): each driver's realistic default range (lib/engine/sensitivity/ranges.ts);
+   * relative (the default with `relative`): ±`relative` (default 0.2) on every driver */
+  mode: z.enum(['realistic', 'relative'], 'must be realistic or relative').optional(),
+  relative: z.number().gt(0, 'must be above 0').lt(1, 'must be below 1 (100 %)').optional(),
   ranges: z
     .record(driverIdSchema, z.strictObject({ low: finite(), high: finite() }).refine((r) => r.low <= r.high, 'low must not exceed high'))
     .default({}),
@@ -34,6 +37,8 @@ export const tornadoRequestSchema = z.strictObject({
 export const spiderRequestSchema = z.strictObject({
   metric: metricSchema,
   drivers: z.array(driverIdSchema).max(200).optional(),
+  /** realistic (the default without `changes`): points across each driver's realistic range; relative: fractional changes (the default with `changes`) */
+  mode: z.enum(['realistic', 'relative'], 'must be realistic or relative').optional(),
   changes: z.array(z.number().min(-0.9, 'must be at least -0.9 (-90 %)').max(2, 'must be at most 2 (+200 %)')).min(2).max(21).optional(),
 });
 

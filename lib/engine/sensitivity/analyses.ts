@@ -5,6 +5,7 @@
  */
 import { clampDriver, driverId, getDriver, type DriverRef } from './drivers';
 import type { Evaluator } from './metric';
+import { realisticRange, uniformRange } from './ranges';
 
 export interface TornadoRow {
   driver: string;
@@ -18,23 +19,30 @@ export interface TornadoRow {
 }
 
 /**
- * Tornado: the metric at each driver's low and high value, ±`relative` of the
- * base by default (0.2 = ±20 %) or the values given per driver id, clamped to
- * the driver's valid range; rows sorted by swing, largest first.
+ * Tornado: the metric at each driver's low and high value, and rows sorted by
+ * swing, largest first. The ends are the values given per driver id where
+ * given, else by default each driver's realistic range (ranges.ts:
+ * `realisticRange`), or with `relative` a number ±that share of the base
+ * (0.2 = ±20 %; a driver whose base is 0 then takes its absolute zero-base
+ * range); always clamped to the driver's valid range.
  *
- * @example tornado(ev, [{ key: 'fuelPrice' }])[0].low // = 0.8 × the base fuel price
+ * @example tornado(ev, [{ key: 'fuelPrice' }])[0].low        // = 0.75 × the base fuel price (realistic −25 %)
+ * @example tornado(ev, [{ key: 'fuelPrice' }], {}, 0.2)[0].low // = 0.8 × the base fuel price
  */
 export function tornado(
   ev: Evaluator,
   drivers: readonly DriverRef[],
   ranges: Readonly<Record<string, { low: number; high: number }>> = {},
-  relative = 0.2,
+  relative: number | 'realistic' = 'realistic',
 ): TornadoRow[] {
   const rows = drivers.map((d) => {
     const base = getDriver(ev.base, d);
     const given = ranges[driverId(d)];
-    const low = clampDriver(d, given ? given.low : base * (1 - relative));
-    const high = clampDriver(d, given ? given.high : base * (1 + relative));
+    const [low, high] = given
+      ? [clampDriver(d, given.low), clampDriver(d, given.high)]
+      : relative === 'realistic'
+        ? realisticRange(d, base)
+        : uniformRange(d, base, relative);
     const metricLow = ev.at([[d, low]]);
     const metricHigh = ev.at([[d, high]]);
     return { driver: driverId(d), base, low, high, metricLow, metricHigh, swing: Math.abs(metricHigh - metricLow) };
@@ -58,6 +66,25 @@ export function spider(ev: Evaluator, drivers: readonly DriverRef[], changes: re
     const points = changes.map((change) => {
       const value = clampDriver(d, base * (1 + change));
       return { change, value, metric: change === 0 ? ev.baseValue : ev.at([[d, value]]) };
+    });
+    return { driver: driverId(d), base, points };
+  });
+}
+
+/**
+ * Spider over the realistic ranges: the metric at positions t of each
+ * driver's realistic range (ranges.ts), t = −1 its low, 0 the base, +1 its
+ * high, the value base + |t|·(end − base) on either side; `change` carries t.
+ *
+ * @example spiderRealistic(ev, [{ key: 'fuelPrice' }], [-1, 0, 1])[0].points[2].value // = 1.25 × the base fuel price
+ */
+export function spiderRealistic(ev: Evaluator, drivers: readonly DriverRef[], positions: readonly number[] = [-1, -2 / 3, -1 / 3, 0, 1 / 3, 2 / 3, 1]): SpiderLine[] {
+  return drivers.map((d) => {
+    const base = getDriver(ev.base, d);
+    const [low, high] = realisticRange(d, base);
+    const points = positions.map((t) => {
+      const value = clampDriver(d, t < 0 ? base + -t * (low - base) : base + t * (high - base));
+      return { change: t, value, metric: t === 0 ? ev.baseValue : ev.at([[d, value]]) };
     });
     return { driver: driverId(d), base, points };
   });

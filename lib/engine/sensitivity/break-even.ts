@@ -5,6 +5,7 @@
  */
 import { clampDriver, DRIVER_CATALOGUE, driverId, getDriver, type DriverRef } from './drivers';
 import type { Evaluator } from './metric';
+import { DEFAULT_RANGES } from './ranges';
 import { findRoot } from './root';
 
 export type BreakEvenKind =
@@ -30,9 +31,15 @@ export interface BreakEven {
 
 const SCAN_STEPS = 16;
 
-/** The default search range: rates within −20/+30 points of the base, other figures from 0 to 3× the base (0 to 1 where the base is 0). */
+/**
+ * The default search range: rates within −20/+30 points of the base, other figures from 0 to 3× the base;
+ * where the base is 0, the driver's absolute zero-base range (ranges.ts: carbon price 0 to 200 per t CO2,
+ * productivity gain 0 to 5 %), else 0 to 1.
+ */
 export function defaultBreakEvenRange(d: DriverRef, base: number): [number, number] {
   const info = DRIVER_CATALOGUE[d.key];
+  const zero = DEFAULT_RANGES[d.key].zero;
+  if (base === 0 && zero) return [clampDriver(d, zero[0]), clampDriver(d, zero[1])];
   if (info.unit.includes('%')) return [clampDriver(d, base - 0.2), clampDriver(d, base + 0.3)];
   return [clampDriver(d, 0), clampDriver(d, base === 0 ? 1 : 3 * base)];
 }

@@ -3,4 +3,5 @@ export * from './metric';
 export * from './analyses';
 export * from './break-even';
 export * from './touched';
+export * from './ranges';
 export { findRoot } from './root';

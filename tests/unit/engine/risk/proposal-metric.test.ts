@@ -82,7 +82,7 @@ describe('the proposal metric on the demo mine, against the full engine re-run b
     close(makeEvaluator(demo, metric).baseValue, gain(result));
   });
 
-  it('holds the policies fixed when the fuel price moves (tornado end points = the engine re-run at ±20 %)', () => {
+  it('holds the policies fixed when the fuel price moves (tornado end points = the engine re-run at the realistic fuel range, ±25 %, ranges.ts)', () => {
     const ev = makeEvaluator(demo, metric);
     const [row] = tornado(ev, [{ key: 'fuelPrice' }]);
     const at = (f: number) => {
@@ -90,8 +90,8 @@ describe('the proposal metric on the demo mine, against the full engine re-run b
       c.assumptions.fuelPrice = demo.assumptions.fuelPrice * f;
       return gain(evaluateCase(c));
     };
-    close(row.metricLow, at(0.8));
-    close(row.metricHigh, at(1.2));
+    close(row.metricLow, at(0.75));
+    close(row.metricHigh, at(1.25));
   });
 
   it('equals repower-everything when every truck is repowered, and is 0 at every input when every truck is rebuilt', () => {

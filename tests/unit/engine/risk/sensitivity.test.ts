@@ -47,16 +47,35 @@ describe('tornado', () => {
     for (let i = 1; i < rows.length; i++) expect(rows[i - 1].swing).toBeGreaterThanOrEqual(rows[i].swing);
   });
 
-  it('puts each end point where the engine lands when that driver is changed by hand (±20 %)', () => {
+  // realistic ranges (lib/engine/sensitivity/ranges.ts, docs/methodology.md): fuel price ±25 %, module price −10/+20 %,
+  // annual hours −10/+5 % (common practice, as documented there)
+  it('puts each end point where the engine lands when that driver is changed by hand (realistic ranges)', () => {
     const truck = demo.trucks.find((t) => t.id === TRUCK)!;
     const fuel = rows.find((r) => r.driver === 'fuelPrice')!;
-    close(fuel.metricLow, truckDelta(rerun((c) => (c.assumptions.fuelPrice = demo.assumptions.fuelPrice * 0.8))));
-    close(fuel.metricHigh, truckDelta(rerun((c) => (c.assumptions.fuelPrice = demo.assumptions.fuelPrice * 1.2))));
+    close(fuel.metricLow, truckDelta(rerun((c) => (c.assumptions.fuelPrice = demo.assumptions.fuelPrice * 0.75))));
+    close(fuel.metricHigh, truckDelta(rerun((c) => (c.assumptions.fuelPrice = demo.assumptions.fuelPrice * 1.25))));
     const module = rows.find((r) => r.driver === `modulePrice@${truck.repowerOfferId}`)!;
     const offer = demo.repowerOffers.find((o) => o.id === truck.repowerOfferId)!;
     close(module.metricHigh, truckDelta(rerun((c) => (c.repowerOffers.find((o: { id: string }) => o.id === offer.id).modulePrice = offer.modulePrice * 1.2))));
     const hours = rows.find((r) => r.driver === `annualHours@${TRUCK}`)!;
-    close(hours.metricLow, truckDelta(rerun((c) => (c.trucks.find((t: { id: string }) => t.id === TRUCK).annualHours = truck.annualHours * 0.8))));
+    close(hours.metricLow, truckDelta(rerun((c) => (c.trucks.find((t: { id: string }) => t.id === TRUCK).annualHours = truck.annualHours * 0.9))));
+  });
+
+  it('keeps ±20 % on every driver as an option', () => {
+    const [fuel] = tornado(ev, [{ key: 'fuelPrice' }], {}, 0.2);
+    expect(fuel.low).toBeCloseTo(demo.assumptions.fuelPrice * 0.8, 12);
+    close(fuel.metricLow, truckDelta(rerun((c) => (c.assumptions.fuelPrice = demo.assumptions.fuelPrice * 0.8))));
+    close(fuel.metricHigh, truckDelta(rerun((c) => (c.assumptions.fuelPrice = demo.assumptions.fuelPrice * 1.2))));
+  });
+
+  it('searches a driver at 0 over its absolute range in both modes (carbon price 0 to 200 per t CO2)', () => {
+    const noCarbon = JSON.parse(JSON.stringify(demo));
+    noCarbon.assumptions.carbonPrice = 0;
+    const ev0 = makeEvaluator(noCarbon, { kind: 'truck-delta', truckId: TRUCK });
+    for (const mode of ['realistic', 0.2] as const) {
+      const [row] = tornado(ev0, [{ key: 'carbonPrice' }], {}, mode);
+      expect([row.low, row.high]).toEqual([0, 200]);
+    }
   });
 
   it('takes the ranges the user sets, and the fleet best-mix npv as its metric', () => {
@@ -72,8 +91,9 @@ describe('tornado', () => {
     const d: DriverRef = { key: 'loadFactor', target: '*' };
     const mean = getDriver(demo, d);
     const [row] = tornado(fleet, [d]);
-    const byHand = rerun((c) => c.trucks.forEach((t: { loadFactor: number }) => (t.loadFactor *= 1.2)));
-    close(row.high, mean * 1.2);
+    // realistic load factor range ±15 % (common practice, ranges.ts)
+    const byHand = rerun((c) => c.trucks.forEach((t: { loadFactor: number }) => (t.loadFactor *= 1.15)));
+    close(row.high, mean * 1.15);
     close(row.metricHigh, byHand.fleet.npv.repower - byHand.fleet.npv.rebuild);
   });
 });

@@ -94,10 +94,12 @@ describe('drivers of the new fields', () => {
       edit(c);
       return evaluateCase(c).trucks[0].repowerVsRebuild.deltaNpv;
     };
-    expect([fcc.low, fcc.high]).toEqual([32000, 48000]);
+    // realistic ranges (ranges.ts, from memory / common practice): failed core credit −50/+20 % of 40,000, share of lost margin −25 points of 1
+    expect([fcc.low, fcc.high]).toEqual([20000, 48000]);
     close(fcc.metricHigh, rerun((c) => (c.repowerOffers[0].failedCoreCredit = 48000)));
-    close(fcc.metricLow, rerun((c) => (c.repowerOffers[0].failedCoreCredit = 32000)));
+    close(fcc.metricLow, rerun((c) => (c.repowerOffers[0].failedCoreCredit = 20000)));
     const lms = rows.find((r) => r.driver === 'lostMarginShare')!;
-    close(lms.metricLow, rerun((c) => (c.assumptions.lostMarginShare = 0.8)));
+    expect([lms.low, lms.high]).toEqual([0.75, 1]);
+    close(lms.metricLow, rerun((c) => (c.assumptions.lostMarginShare = 0.75)));
   });
 });

@@ -34,10 +34,10 @@ function PinnedLine({ run, currency, negative, status }: { run: PinnedRun | null
   );
 }
 
-/** Sensitivity and risk of one business case; `?truck=ID` opens it on one truck (links from truck pages). */
-export default async function Page({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ truck?: string }> }) {
+/** Sensitivity and risk of one business case; `?truck=ID` opens it on one truck (links from truck pages); `?ranges=uniform` the tornado and spider on ±20 %. */
+export default async function Page({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ truck?: string; ranges?: string }> }) {
   const { workspace, id } = await params;
-  const { truck } = await searchParams;
+  const { truck, ranges } = await searchParams;
   const access = await getPageAccess(workspace);
   const caseId = Number(id);
   if (!Number.isInteger(caseId) || caseId <= 0) notFound();
@@ -58,7 +58,7 @@ export default async function Page({ params, searchParams }: { params: Promise<{
         }
       />
       <CaseNav slug={workspace} caseId={caseId} current="risk" />
-      <RiskWorkbench slug={workspace} caseId={caseId} initialTruck={truck ?? null} negative={negative} canRun={CAN_RUN_RISK.includes(access.role)} />
+      <RiskWorkbench slug={workspace} caseId={caseId} initialTruck={truck ?? null} initialRanges={ranges === 'uniform' ? 'uniform' : 'realistic'} negative={negative} canRun={CAN_RUN_RISK.includes(access.role)} />
       <SafetyCaution />
     </>
   );
