@@ -49,7 +49,7 @@ export interface FrozenRecord {
   case: CaseFile;
   result: CaseResult;
   proposal: {
-    settings: { budgets: Record<string, number | null>; swapsPerMonth: number; startMonth: string };
+    settings: { budgets: Record<string, number | null>; swapsPerMonth: number; startMonth: string; capacityByMonth?: Record<string, number>; maxDelayMonths?: number };
     chosenTrucks: string[];
     policies: Record<string, string>;
     plan: CapitalPlan;

@@ -100,7 +100,7 @@ export async function freezeCase(
   const file = readSubmittedCase(row) ?? (await buildCaseForRow(row, trx));
   const plan = readPlanSettings(row.plan ?? null, row.createdAt ?? nowIso());
   const pinnedRun = await fetchPinnedRun(row.id, trx);
-  const { result, proposal, summary } = decideFigures(file, {
+  const { result, proposal, summary } = await decideFigures(file, {
     caseId: row.id,
     caseName: row.name,
     status: 'approved',
@@ -116,7 +116,7 @@ export async function freezeCase(
     case: file,
     result,
     proposal: {
-      settings: { budgets: plan.budgets, swapsPerMonth: plan.swapsPerMonth, startMonth: plan.startMonth },
+      settings: { budgets: plan.budgets, swapsPerMonth: plan.swapsPerMonth, startMonth: plan.startMonth, capacityByMonth: plan.capacityByMonth ?? {}, maxDelayMonths: plan.maxDelayMonths },
       chosenTrucks: proposal.chosen,
       policies: proposal.policies,
       plan: proposal.plan,

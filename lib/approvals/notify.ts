@@ -3,7 +3,8 @@ import type { Knex } from 'knex';
 import type { Access } from '@/lib/auth/access';
 import { readMailConfig } from '@/lib/mail/config';
 import { buildDecisionSummary, type DecisionSummary } from '@/lib/cases/decision-summary';
-import { buildProposal, timingFromDetails } from '@/lib/cases/proposal';
+import { programmeOf } from '@/lib/cases/programme';
+import { proposalFromProgramme } from '@/lib/cases/proposal';
 import { evaluateCaseDetailed, type CaseFile } from '@/lib/engine';
 import { formatMoney } from '@/lib/format';
 import { caseDecidedMail, caseSubmittedMail, type MailHeadline } from '@/lib/mail/messages';
@@ -36,7 +37,7 @@ export function mailHeadline(s: DecisionSummary, negative: Access['workspace']['
  * the headline). Null when neither is stored or the snapshot cannot be
  * evaluated — the mail then goes without figures rather than not at all.
  */
-export function headlineOfRow(access: Access, row: Row): MailHeadline | null {
+export async function headlineOfRow(access: Access, row: Row): Promise<MailHeadline | null> {
   const neg = access.workspace.settings.negativeStyle;
   const record = readFrozenRecord(row.frozenRecord);
   if (record) return mailHeadline(record.summary, neg);
@@ -44,12 +45,12 @@ export function headlineOfRow(access: Access, row: Row): MailHeadline | null {
   try {
     const file = JSON.parse(row.submittedCase) as CaseFile;
     const settings = readPlanSettings(row.plan, row.createdAt ?? new Date().toISOString());
-    const { result, details } = evaluateCaseDetailed(file, { trusted: true });
-    const proposal = buildProposal(result, timingFromDetails(file, result, details), settings);
+    const { result } = evaluateCaseDetailed(file, { trusted: true });
+    const proposal = proposalFromProgramme(result, await programmeOf(file, settings), settings);
     const summary = buildDecisionSummary({
       caseId: row.id, caseName: row.name, status: row.status ?? 'submitted', source: 'submitted', currency: access.workspace.currency,
       fiscalYearStartMonth: access.workspace.settings.fiscalYearStartMonth, planStartMonth: settings.startMonth,
-      file, result, plan: proposal.plan, drivers: [], risk: null,
+      file, result, plan: proposal.plan, policies: proposal.policies, timings: proposal.timings, timingSpecs: proposal.timingSpecs, drivers: [], risk: null,
     });
     return mailHeadline(summary, neg);
   } catch (e) {
@@ -79,7 +80,7 @@ export async function notifySubmitted(trx: Knex, access: Access, row: Row, comme
   const to = (approvers.length ? approvers : members).map((m) => m.email as string);
   const body = caseSubmittedMail({
     workspaceName: access.workspace.name, caseName: row.name, submitter: await personName(trx, access.userId), comment, link: caseLink(access.workspace.slug, row.id),
-    packLink: packLink(access.workspace.slug, row.id), headline: headlineOfRow(access, row),
+    packLink: packLink(access.workspace.slug, row.id), headline: await headlineOfRow(access, row),
   });
   await enqueueMail(trx, { ...body, to, workspace: access.workspace.slug });
   return { queued: to.length > 0, to };
@@ -92,7 +93,7 @@ export async function notifyDecision(trx: Knex, access: Access, row: Row, decisi
   if (!submitter) return { queued: false, to: [] as string[] };
   const body = caseDecidedMail({
     workspaceName: access.workspace.name, caseName: row.name, decider: await personName(trx, access.userId), decision, final, comment, link: caseLink(access.workspace.slug, row.id),
-    packLink: packLink(access.workspace.slug, row.id), headline: headlineOfRow(access, row),
+    packLink: packLink(access.workspace.slug, row.id), headline: await headlineOfRow(access, row),
   });
   await enqueueMail(trx, { ...body, to: [submitter.email], workspace: access.workspace.slug });
   return { queued: true, to: [submitter.email as string] };

@@ -32,10 +32,11 @@
 import { comparePolicies } from '@/lib/engine/results';
 import { buildYearTables, resolveAssumptions } from '@/lib/engine/setup';
 import { driverLabel, getDriver, listDrivers, makeEvaluator, tornado, DRIVER_CATALOGUE, type DriverRef, type Evaluator } from '@/lib/engine/sensitivity';
-import type { CaseResult, PolicyKey } from '@/lib/engine/types';
+import type { CaseResult, PolicyResult } from '@/lib/engine/types';
+import type { TimingSpec } from '@/lib/engine/timing';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { fiscalLabelOfPeriod, type CapitalPlan } from '@/lib/plan';
-import { chosenTrucks, proposalGainVsRebuild, proposalPolicies, type ProposalPolicies } from './proposal';
+import { chosenTrucks, proposalGainVsRebuild, proposalPolicies, proposalPolicyResult, type ProposalPolicies } from './proposal';
 
 /** The pinned Monte Carlo run the summary quotes (its figures are the run's measure, in the case's currency). */
 export interface DecisionRisk {
@@ -108,6 +109,8 @@ export interface DecisionSummary {
   chosenTrucks: string[];
   /** the policy of every truck in the proposal */
   policies: ProposalPolicies;
+  /** each repowered truck's timing in the proposal (the fleet programme's option); absent in records made before it */
+  timings?: Record<string, TimingSpec>;
   /** read from a frozen record: whether its hash still verifies (absent otherwise) */
   recordVerifies?: boolean;
 }
@@ -125,20 +128,26 @@ export interface DecisionSummaryInput {
   result: CaseResult;
   /** the proposal: the capital plan of the saved budgets */
   plan: CapitalPlan;
+  /** the proposal's policy per truck (default: the plan's chosen trucks repowered, the rest the better of keep and rebuild) */
+  policies?: ProposalPolicies;
+  /** each repowered truck's chosen timing (lib/cases/proposal.ts `Proposal.timings`); absent: the engine's repower */
+  timings?: Record<string, PolicyResult>;
+  /** the same trucks' timings as specs (kept in the summary: a risk analysis holds them fixed) */
+  timingSpecs?: Record<string, TimingSpec>;
   /** `proposalTopDrivers(file, policies)`, or [] when not computed */
   drivers: DecisionDriver[];
   risk: DecisionRisk | null;
 }
 
 /** Σ_trucks CF_y(policy) − CF_y(rebuild), y = 0..longest horizon, and the capital categories the same way. */
-export function proposalIncrementalFlows(result: CaseResult, policies: ProposalPolicies): { delta: number[]; capital: number[] } {
+export function proposalIncrementalFlows(result: CaseResult, policies: ProposalPolicies, timings: Record<string, PolicyResult> = {}): { delta: number[]; capital: number[] } {
   const n = result.trucks.reduce((m, t) => Math.max(m, t.options.rebuild.cashFlows.length - 1), 0);
   const delta = new Array<number>(n + 1).fill(0);
   const capital = new Array<number>(n + 1).fill(0);
   for (const t of result.trucks) {
     const p = policies[t.id] ?? 'rebuild';
     if (p === 'rebuild') continue;
-    const a = t.options[p];
+    const a = proposalPolicyResult(t, policies, timings);
     const b = t.options.rebuild;
     for (let y = 0; y < a.cashFlows.length; y++) {
       delta[y] += a.cashFlows[y] - (b.cashFlows[y] ?? 0);
@@ -150,15 +159,16 @@ export function proposalIncrementalFlows(result: CaseResult, policies: ProposalP
 
 export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSummary {
   const { result, plan, file } = input;
-  const policies = proposalPolicies(result, plan);
+  const policies = input.policies ?? proposalPolicies(result, plan);
+  const timings = input.timings ?? {};
   const chosen = chosenTrucks(plan);
-  const gain = proposalGainVsRebuild(result, policies);
+  const gain = proposalGainVsRebuild(result, policies, timings);
   const bestMixGain = result.fleet.npv.best - result.fleet.npv.rebuild;
   const repowerAllGain = result.fleet.npv.repower - result.fleet.npv.rebuild;
 
   // the proposal's incremental cash flow against rebuilding every engine, through the engine's own comparison
   const a = resolveAssumptions(file.assumptions);
-  const { delta, capital } = proposalIncrementalFlows(result, policies);
+  const { delta, capital } = proposalIncrementalFlows(result, policies, timings);
   const tables = buildYearTables(a, Math.max(1, delta.length - 1));
   const zeros = new Array<number>(delta.length).fill(0);
   const cmp = comparePolicies(delta, zeros, tables.discountFactor, a.discountRate, capital);
@@ -185,10 +195,10 @@ export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSumma
   let fuel = 0;
   let co2 = 0;
   for (const t of result.trucks) {
-    const p: PolicyKey = policies[t.id] ?? 'rebuild';
+    const r = proposalPolicyResult(t, policies, timings);
     const years = Math.max(1, t.horizonYears);
-    fuel += (t.options.rebuild.fuelLitres - t.options[p].fuelLitres) / years;
-    co2 += (t.options.rebuild.co2Tonnes - t.options[p].co2Tonnes) / years;
+    fuel += (t.options.rebuild.fuelLitres - r.fuelLitres) / years;
+    co2 += (t.options.rebuild.co2Tonnes - r.co2Tonnes) / years;
   }
 
   const leftOut = plan.years.flatMap((y) => {
@@ -232,6 +242,7 @@ export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSumma
     topDrivers: input.drivers.slice(0, 3),
     chosenTrucks: chosen,
     policies,
+    timings: input.timingSpecs ?? {},
   };
 }
 
@@ -240,8 +251,8 @@ export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSumma
  * truck kept on its policy in the proposal while the drivers change), so the
  * summary's drivers and the risk pages measure the same thing.
  */
-export function makeProposalEvaluator(validCase: CaseFileInput, policies: ProposalPolicies): Evaluator {
-  return makeEvaluator(validCase, { kind: 'proposal', policies });
+export function makeProposalEvaluator(validCase: CaseFileInput, policies: ProposalPolicies, timings: Record<string, TimingSpec> = {}): Evaluator {
+  return makeEvaluator(validCase, { kind: 'proposal', policies, timings });
 }
 
 /**
@@ -250,10 +261,10 @@ export function makeProposalEvaluator(validCase: CaseFileInput, policies: Propos
  * whose base is 0 cannot move by ±20 % and is skipped. Kept on ±20 % (not the risk page's
  * realistic ranges) because the summary and the decision pack label it so.
  */
-export function proposalTopDrivers(validCase: CaseFileInput, policies: ProposalPolicies, count = 3, currency = 'USD'): DecisionDriver[] {
+export function proposalTopDrivers(validCase: CaseFileInput, policies: ProposalPolicies, count = 3, currency = 'USD', timings: Record<string, TimingSpec> = {}): DecisionDriver[] {
   const drivers: DriverRef[] = listDrivers(validCase).filter((d) => getDriver(validCase, d) !== 0);
   if (drivers.length === 0) return [];
-  const ev = makeProposalEvaluator(validCase, policies);
+  const ev = makeProposalEvaluator(validCase, policies, timings);
   return tornado(ev, drivers, {}, 0.2)
     .slice(0, count)
     .map((r) => {

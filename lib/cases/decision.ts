@@ -15,7 +15,9 @@ import { notFound } from '@/lib/http';
 import { readFrozenRecord, verifyFrozen } from '@/lib/approvals/canonical';
 import { buildDecisionSummary, proposalTopDrivers, type DecisionRisk, type DecisionSummary } from './decision-summary';
 import { loadValidCase } from './evaluate';
-import { buildProposal, timingFromDetails, type PlanSettingsLike, type Proposal } from './proposal';
+import { programmeOf } from './programme';
+import { proposalFromProgramme, type Proposal } from './proposal';
+import type { PlanSettings } from '@/lib/validation/business-case';
 
 /** The summary's risk block from a pinned run. */
 export function riskOfPinnedRun(run: PinnedRun | null): DecisionRisk | null {
@@ -43,14 +45,14 @@ export interface DecisionContext {
   source: DecisionSummary['source'];
   currency: string;
   fiscalYearStartMonth: number;
-  plan: PlanSettingsLike;
+  plan: PlanSettings;
   pinnedRun: PinnedRun | null;
 }
 
 /** Evaluate a validated case file, build its proposal from the plan settings and its decision summary (with the top drivers). */
-export function decideFigures(file: CaseFile, ctx: DecisionContext): { result: CaseResult; proposal: Proposal; summary: DecisionSummary } {
-  const { result, details } = evaluateCaseDetailed(file, { trusted: true });
-  const proposal = buildProposal(result, timingFromDetails(file, result, details), ctx.plan);
+export async function decideFigures(file: CaseFile, ctx: DecisionContext): Promise<{ result: CaseResult; proposal: Proposal; summary: DecisionSummary }> {
+  const { result } = evaluateCaseDetailed(file, { trusted: true });
+  const proposal = proposalFromProgramme(result, await programmeOf(file, ctx.plan), ctx.plan);
   const summary = buildDecisionSummary({
     caseId: ctx.caseId,
     caseName: ctx.caseName,
@@ -62,7 +64,10 @@ export function decideFigures(file: CaseFile, ctx: DecisionContext): { result: C
     file,
     result,
     plan: proposal.plan,
-    drivers: proposalTopDrivers(file, proposal.policies, 3, ctx.currency),
+    policies: proposal.policies,
+    timings: proposal.timings,
+    timingSpecs: proposal.timingSpecs,
+    drivers: proposalTopDrivers(file, proposal.policies, 3, ctx.currency, proposal.timingSpecs),
     risk: riskOfPinnedRun(ctx.pinnedRun),
   });
   return { result, proposal, summary };
@@ -76,7 +81,7 @@ export async function fetchDecisionSummary(access: Access, caseId: number, k: Kn
   if (frozen) return { ...frozen.summary, status: raw.status, source: 'frozen', recordVerifies: verifyFrozen(raw) };
   const { row, file } = await loadValidCase(access, caseId);
   const source: DecisionSummary['source'] = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';
-  return decideFigures(file, {
+  return (await decideFigures(file, {
     caseId: row.id,
     caseName: row.name,
     status: row.status,
@@ -85,5 +90,5 @@ export async function fetchDecisionSummary(access: Access, caseId: number, k: Kn
     fiscalYearStartMonth: access.workspace.settings.fiscalYearStartMonth,
     plan: row.plan,
     pinnedRun: await fetchPinnedRun(caseId, k),
-  }).summary;
+  })).summary;
 }

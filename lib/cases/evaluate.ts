@@ -12,8 +12,9 @@ import { db } from '@/lib/db';
 import { evaluateCaseDetailed, evaluateTruck, validateCase, type CaseFile } from '@/lib/engine';
 import { invalid, notFound, type Problem } from '@/lib/http';
 import { buildDecisionSummary } from './decision-summary';
-import { buildProposal, timingFromDetails } from './proposal';
 import { fleetByYear } from './fleet-years';
+import { programmeOf } from './programme';
+import { proposalFromProgramme } from './proposal';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
@@ -87,8 +88,9 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     const annual = file.trucks.find((t) => t.id === d.truckId)!.annualHours;
     trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
   }
-  const timing = timingFromDetails(file, result, details);
-  const { ranking, plan, schedule } = buildProposal(result, timing, row.plan);
+  // the proposal is the fleet programme's answer under the saved budgets and shop capacity
+  const built = proposalFromProgramme(result, await programmeOf(file, row.plan), row.plan);
+  const { ranking, plan, schedule } = built;
   const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
   const source = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';
   const proposal = buildDecisionSummary({
@@ -102,6 +104,9 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     file,
     result,
     plan,
+    policies: built.policies,
+    timings: built.timings,
+    timingSpecs: built.timingSpecs,
     drivers: [],
     risk: null,
   });

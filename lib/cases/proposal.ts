@@ -1,19 +1,22 @@
 /**
- * The proposal: a case's answer. The trucks its saved plan chooses are
- * repowered; every other truck follows the better of keep and rebuild (what a
- * planner who does not repower it would do; ties go to rebuild, as in the
- * ranking). Pure: the engine's result and the capital plan in, one policy per
- * truck out.
+ * The proposal: a case's answer, the fleet programme's (lib/cases/programme.ts):
+ * each truck takes the timing the programme chose under the saved budgets
+ * and shop capacity — repowered now or at its k-th planned event (possibly
+ * late), or kept, or rebuilt. Pure: the engine's result and the programme in,
+ * one policy per truck (with its timing when repowered) out.
  *
  * The proposal's gain is measured against rebuilding every engine:
- *   gain = Σ_trucks npv(policy of the truck in the proposal) − npv(rebuild).
- * The same policy map is held fixed when a risk analysis varies the inputs
- * (the engine's `proposal` metric), so the risk pages test what is proposed.
+ *   gain = Σ_trucks npv(policy of the truck in the proposal, at its timing) − npv(rebuild).
+ * The same policies and timings are held fixed when a tornado or break-even
+ * varies the inputs (the engine's `proposal` metric), so the risk pages test
+ * what is proposed. A Monte Carlo run simulates a repowered truck at its
+ * offer's own repower (its sampled failure paths do not follow a later or
+ * delayed timing).
  */
-import type { CaseFile } from '@/lib/engine';
-import { repowerDue } from './swap-due';
-import type { CaseResult, PolicyKey, TruckDetail } from '@/lib/engine/types';
-import { bestOtherPolicy, monthLabel, monthOfEvent, planCapital, rankTrucks, scheduleSwaps, type CapitalPlan, type PlacedSwap, type RankedTruck } from '@/lib/plan';
+import type { CaseResult, PolicyKey, PolicyResult } from '@/lib/engine/types';
+import type { CaseProgramme } from '@/lib/plan/programme-case';
+import type { TimingSpec } from '@/lib/engine/timing';
+import { bestOtherPolicy, monthLabel, rankTrucks, type CapitalPlan, type PlacedSwap, type RankedTruck } from '@/lib/plan';
 
 export type ProposalPolicies = Record<string, PolicyKey>;
 
@@ -27,23 +30,11 @@ export function proposalPolicies(result: CaseResult, plan: CapitalPlan): Proposa
   return Object.fromEntries(result.trucks.map((t) => [t.id, chosen.has(t.id) ? 'repower' : bestOtherPolicy(t)]));
 }
 
-/** Σ over trucks of npv(proposal's policy) − npv(rebuild), currency. */
-export function proposalGainVsRebuild(result: CaseResult, policies: ProposalPolicies): number {
+/** Σ over trucks of npv(proposal's policy, with its chosen timing when repowered) − npv(rebuild), currency. */
+export function proposalGainVsRebuild(result: CaseResult, policies: ProposalPolicies, timings: Record<string, PolicyResult> = {}): number {
   let sum = 0;
-  for (const t of result.trucks) sum += t.options[policies[t.id] ?? 'rebuild'].npv - t.options.rebuild.npv;
+  for (const t of result.trucks) sum += proposalPolicyResult(t, policies, timings).npv - t.options.rebuild.npv;
   return sum;
-}
-
-/**
- * What the plan and schedule need of a truck: when its repower is due (the
- * period its capital is planned in and the month of the swap:
- * lib/cases/swap-due.ts), and its annual hours. Null when no repower is due.
- */
-export interface ProposalTruckTiming {
-  repowerMonth: number | null;
-  /** period the repower's capital is planned in (null: the ranking's first period of spend) */
-  duePeriod: number | null;
-  annualHours: number;
 }
 
 export interface PlanSettingsLike {
@@ -61,75 +52,118 @@ export interface Proposal {
   schedule: ProposalSwap[];
   policies: ProposalPolicies;
   chosen: string[];
+  /**
+   * the expected result of each repowered truck's chosen timing (the fleet
+   * programme's option: now, at the k-th planned event, possibly d months
+   * late), which stands for the truck's `repower` in the proposal's figures
+   */
+  timings: Record<string, PolicyResult>;
+  /** the same trucks' timings as specs (kind, k, delay): what a risk analysis holds fixed */
+  timingSpecs: Record<string, TimingSpec>;
+}
+
+/** A truck's result under its policy in the proposal: its chosen timing when repowered, else the engine's policy. */
+export function proposalPolicyResult(truck: CaseResult['trucks'][number], policies: ProposalPolicies, timings: Record<string, PolicyResult> = {}): PolicyResult {
+  const p = policies[truck.id] ?? 'rebuild';
+  return p === 'repower' && timings[truck.id] ? timings[truck.id] : truck.options[p];
 }
 
 /**
- * The proposal of a case from the engine's result and its saved plan settings:
- * rank the trucks, choose the repowers within each year's budget, place each
- * chosen swap in the month its repower is due (at most `swapsPerMonth` a
- * month). Pure; the server's evaluation and the freeze both call it, so what
- * is shown and what is approved are one computation.
+ * The proposal as the fleet programme answers it (lib/cases/programme.ts,
+ * issue 15): a truck whose chosen option swaps its engine (now, or at the
+ * k-th planned event, possibly late) is repowered with that timing's
+ * expected result; keep and rebuild stay the engine's own policies. The
+ * capital plan lists each swap in the period whose budget carries it; the
+ * schedule places it in its planned month (its due month + the delay the
+ * shop or a budget forced). A truck whose best option swaps but whose
+ * chosen one does not is left out of its period's budget.
  */
-export function buildProposal(result: CaseResult, timing: Record<string, ProposalTruckTiming>, settings: PlanSettingsLike): Proposal {
-  // the capital of a repower is planned in the period its swap is due
-  const ranking = rankTrucks(result).map((r) => {
-    const due = r.capitalYear === null ? null : timing[r.truckId]?.duePeriod;
-    return due === null || due === undefined ? r : { ...r, capitalYear: due };
+export function proposalFromProgramme(result: CaseResult, programme: CaseProgramme, settings: PlanSettingsLike): Proposal {
+  const ranking = rankTrucks(result);
+  const policies: ProposalPolicies = {};
+  const timings: Record<string, PolicyResult> = {};
+  const timingSpecs: Record<string, TimingSpec> = {};
+  const years = new Map<number, { chosen: PlanCandidateLike[]; leftOut: CapitalPlan['years'][number]['leftOut'] }>();
+  const notWorthIt: PlanCandidateLike[] = [];
+  const schedule: ProposalSwap[] = [];
+  const yearOf = (y: number) => {
+    let v = years.get(y);
+    if (!v) years.set(y, (v = { chosen: [], leftOut: [] }));
+    return v;
+  };
+  const byId = new Map(result.trucks.map((t) => [t.id, t]));
+  const choices = programme.result.ok ? programme.result.choices : [];
+  programme.options.forEach((entry, i) => {
+    const truck = byId.get(entry.truckId);
+    if (!truck) return;
+    const choice = choices[i];
+    const chosen = choice ? entry.options.find((o) => o.key === choice.option.key) : undefined;
+    const best = choice ? entry.options.find((o) => o.key === choice.best.key) : undefined;
+    const other = bestOtherPolicy(truck);
+    const otherNpv = truck.options[other].npv;
+    const swaps = (o: typeof chosen) => !!o && o.swapPeriod !== null && o.kind !== 'keep' && o.kind !== 'rebuild';
+    if (chosen && swaps(chosen)) {
+      policies[truck.id] = 'repower';
+      timings[truck.id] = chosen.result;
+      timingSpecs[truck.id] = { kind: chosen.kind, k: chosen.k, delayMonths: chosen.delayMonths };
+      const period = chosen.swapPeriod as number;
+      const capital = chosen.plannedCapital[period] ?? 0;
+      const gain = chosen.npv - otherNpv;
+      yearOf(period).chosen.push({ truckId: truck.id, gain, profitabilityIndex: capital > 0 ? gain / capital : null, capital, capitalYear: period });
+      const month = chosen.swapMonth as number;
+      schedule.push({
+        truckId: truck.id,
+        dueMonth: month - chosen.delayMonths,
+        month,
+        movedEarlier: false,
+        late: chosen.delayMonths > 0,
+        label: monthLabel(settings.startMonth, month),
+        dueLabel: monthLabel(settings.startMonth, month - chosen.delayMonths),
+        capitalYear: period,
+      });
+      return;
+    }
+    policies[truck.id] = chosen?.kind === 'keep' ? 'keep' : chosen?.kind === 'rebuild' ? 'rebuild' : other;
+    if (best && swaps(best)) {
+      const period = best.swapPeriod as number;
+      const capital = best.plannedCapital[period] ?? 0;
+      yearOf(period).leftOut.push({ truckId: truck.id, gain: best.npv - otherNpv, capital, extraBudget: Math.max(0, capital - budgetLeft(programme, settings, period)) });
+    } else {
+      const r = ranking.find((x) => x.truckId === truck.id);
+      if (r && r.capitalYear !== null) notWorthIt.push({ truckId: truck.id, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear });
+    }
   });
-  const candidates = ranking
-    .filter((r) => r.capitalYear !== null)
-    .map((r) => ({ truckId: r.truckId, gain: r.gain, profitabilityIndex: r.profitabilityIndex, capital: r.capital, capitalYear: r.capitalYear as number }));
-  const budgets = Object.fromEntries(Object.entries(settings.budgets).map(([y, b]) => [Number(y), b]));
-  const plan = planCapital(candidates, budgets);
-  // each chosen swap is placed from the month its repower is due
-  const requests = plan.years.flatMap((y) =>
-    y.chosen.map((c) => {
-      const t = timing[c.truckId];
-      return { truckId: c.truckId, gain: c.gain, dueMonth: t?.repowerMonth ?? monthOfEvent(c.capitalYear, 0, t?.annualHours ?? 0) };
-    }),
-  );
-  const yearOf = new Map(candidates.map((c) => [c.truckId, c.capitalYear]));
-  const schedule = scheduleSwaps(requests, settings.swapsPerMonth).map((s) => ({
-    ...s,
-    label: monthLabel(settings.startMonth, s.month),
-    dueLabel: monthLabel(settings.startMonth, s.dueMonth),
-    capitalYear: yearOf.get(s.truckId) ?? null,
-  }));
-  return { ranking, plan, schedule, policies: proposalPolicies(result, plan), chosen: chosenTrucks(plan) };
+  const plan: CapitalPlan = {
+    years: [...years.entries()]
+      .sort((a, b) => a[0] - b[0])
+      .map(([year, y]) => {
+        const b = settings.budgets[String(year)];
+        const chosen = y.chosen.sort((a, c) => c.gain - a.gain);
+        return {
+          year,
+          budget: b === undefined || b === null ? null : b,
+          chosen,
+          leftOut: y.leftOut.sort((a, c) => c.gain - a.gain),
+          spent: chosen.reduce((s, c) => s + c.capital, 0),
+          gain: chosen.reduce((s, c) => s + c.gain, 0),
+          unit: 1,
+        };
+      }),
+    notWorthIt,
+    totalGain: 0,
+    totalSpent: 0,
+  };
+  plan.totalGain = plan.years.reduce((s, y) => s + y.gain, 0);
+  plan.totalSpent = plan.years.reduce((s, y) => s + y.spent, 0);
+  schedule.sort((a, b) => a.month - b.month || a.truckId.localeCompare(b.truckId));
+  return { ranking, plan, schedule, policies, chosen: chosenTrucks(plan), timings, timingSpecs };
 }
 
-/**
- * Every truck's repower timing (lib/cases/swap-due.ts): on the median path the
- * repower event of the engine's trace, under the expected valuation the month
- * the current engine reaches its planned life with no failure before it (or
- * now). The server's evaluation, the freeze and the mails all call it.
- */
-export function timingFromDetails(file: CaseFile, result: CaseResult, details: readonly TruckDetail[]): Record<string, ProposalTruckTiming> {
-  const out: Record<string, ProposalTruckTiming> = {};
-  const firstSpend = new Map(rankTrucks(result).map((r) => [r.truckId, r.capitalYear]));
-  for (const d of details) {
-    const input = file.trucks.find((t) => t.id === d.truckId);
-    const truck = result.trucks.find((t) => t.id === d.truckId);
-    if (!input || !truck) continue;
-    const annualHours = input.annualHours;
-    const ev = d.policies.repower.events.find((e) => e.kind === 'repower');
-    const traced = ev ? { period: ev.period, month: monthOfEvent(ev.period, ev.hourOfYear, annualHours) } : undefined;
-    const fallbackPeriod = firstSpend.get(d.truckId) ?? null;
-    const due =
-      fallbackPeriod === null
-        ? null
-        : repowerDue({
-            valuation: file.assumptions.valuation,
-            engineHours: input.engineHours,
-            annualHours,
-            remainingLifeHours: input.remainingLifeHours,
-            lifeHours: file.engines.find((e) => e.id === input.engineId)!.lifeHours,
-            timing: file.repowerOffers.find((o) => o.id === input.repowerOfferId)!.timing,
-            horizonYears: truck.horizonYears,
-            traced,
-            fallbackPeriod,
-          });
-    out[d.truckId] = { repowerMonth: due?.month ?? null, duePeriod: due?.period ?? null, annualHours };
-  }
-  return out;
+type PlanCandidateLike = CapitalPlan['years'][number]['chosen'][number];
+
+/** Budget of a period less the programme's planned capital in it (∞ without a budget). */
+function budgetLeft(programme: CaseProgramme, settings: PlanSettingsLike, period: number): number {
+  const b = settings.budgets[String(period)];
+  if (b === undefined || b === null) return Number.POSITIVE_INFINITY;
+  return b - (programme.byFiscalYear[period]?.plannedCapital ?? 0);
 }

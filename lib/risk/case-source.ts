@@ -6,10 +6,17 @@ import 'server-only';
  */
 import type { Access } from '@/lib/auth/access';
 import { evaluateStoredCase, loadValidCase } from '@/lib/cases/evaluate';
-import { proposalPolicies, type ProposalPolicies } from '@/lib/cases/proposal';
+import type { ProposalPolicies } from '@/lib/cases/proposal';
+import type { TimingSpec } from '@/lib/engine/timing';
 import { db } from '@/lib/db';
 import { invalid, notFound } from '@/lib/http';
 import { validateCase, type CaseFile } from '@/lib/validation/case';
+
+/** The proposal a risk analysis holds fixed: each truck's policy, and each repowered truck's timing (the fleet programme's). */
+export interface RiskProposal {
+  policies: ProposalPolicies;
+  timings: Record<string, TimingSpec>;
+}
 
 export interface RiskCase {
   id: number;
@@ -43,7 +50,7 @@ export async function loadRiskCase(access: Access, caseId: number): Promise<Risk
  * chooses are repowered, every other truck follows the better of keep and
  * rebuild, from the same case the page evaluates (frozen, submitted or live).
  */
-export async function loadProposal(access: Access, risk: RiskCase): Promise<ProposalPolicies> {
+export async function loadProposal(access: Access, risk: RiskCase): Promise<RiskProposal> {
   const evaluated = await evaluateStoredCase(access, risk.id);
-  return proposalPolicies(evaluated.result, evaluated.plan);
+  return { policies: evaluated.proposal.policies, timings: evaluated.proposal.timings ?? {} };
 }

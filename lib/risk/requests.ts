@@ -23,6 +23,7 @@ import {
   type Metric,
 } from '@/lib/engine/sensitivity';
 import type { PolicyKey } from '@/lib/engine/types';
+import type { TimingSpec } from '@/lib/engine/timing';
 import type { CaseFile } from '@/lib/validation/case';
 import type { MetricInput } from '@/lib/validation/risk';
 import type { z } from 'zod';
@@ -46,7 +47,7 @@ function checkInRange(d: DriverRef, value: number, path: string, problems: Probl
 }
 
 /** The policy of each truck in the case's proposal (lib/cases/proposal.ts), given to the `proposal` metric. */
-export type Proposal = Readonly<Record<string, PolicyKey>>;
+export type Proposal = { readonly policies: Readonly<Record<string, PolicyKey>>; readonly timings?: Readonly<Record<string, TimingSpec>> };
 
 /** Does the request's metric need the case's proposal (so the route evaluates the plan first)? */
 export function needsProposal(m: MetricInput): boolean {
@@ -59,7 +60,7 @@ function checkMetric(c: CaseFile, m: MetricInput, problems: Problem[], proposal:
   }
   if (m.kind === 'proposal') {
     if (!proposal) throw new Error('the proposal metric needs the case\'s proposal'); // a route that forgot needsProposal
-    return { kind: 'proposal', policies: proposal };
+    return { kind: 'proposal', policies: proposal.policies, timings: proposal.timings ?? {} };
   }
   return m;
 }

@@ -97,7 +97,7 @@ describe.each(backends)('the frozen record on $name', ({ pg }) => {
     expect(row.frozenHash).toBe(createHash('sha256').update(Buffer.from(row.frozenRecord, 'utf8')).digest('hex'));
     expect(record.case.trucks).toHaveLength(24);
     expect(record.result.format).toBe('case-result/1');
-    expect(record.proposal.settings).toEqual({ budgets: { '0': 5_000_000, '1': 6_000_000 }, swapsPerMonth: 1, startMonth: '2027-01' });
+    expect(record.proposal.settings).toEqual({ budgets: { '0': 5_000_000, '1': 6_000_000 }, swapsPerMonth: 1, startMonth: '2027-01', capacityByMonth: {}, maxDelayMonths: 6 });
     expect(record.proposal.chosenTrucks.length).toBeGreaterThan(0);
     expect(record.proposal.schedule).toHaveLength(record.proposal.chosenTrucks.length);
     expect(record.summary.chosenTrucks).toEqual(record.proposal.chosenTrucks);

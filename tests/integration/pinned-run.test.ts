@@ -10,7 +10,9 @@ import type { Knex } from 'knex';
 import { useDbForTests } from '@/lib/db';
 import { buildCaseFile } from '@/lib/db/queries/case-file';
 import { evaluateCaseDetailed } from '@/lib/engine';
-import { buildProposal, proposalGainVsRebuild, proposalPolicies, timingFromDetails } from '@/lib/cases/proposal';
+import { proposalFromProgramme, proposalGainVsRebuild } from '@/lib/cases/proposal';
+import { programmeOf } from '@/lib/cases/programme';
+import { readPlanSettings } from '@/lib/validation/business-case';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
 import { whenFinished } from '@/lib/risk/jobs';
 import { fetchPinnedRun } from '@/lib/risk/runs';
@@ -139,7 +141,7 @@ describe.each(backends)('the proposal measure and the pin route on $name', ({ pg
   let workspaceId: number;
   let params: { workspace: string; id: string };
   // the proposal worked out here from the stored case: the engine's result, ranked and planned under the saved budgets
-  let expected: { policies: Record<string, string>; gain: number };
+  let expected: { policies: Record<string, string>; timings: Record<string, unknown>; gain: number };
 
   beforeAll(async () => {
     const t = await createTestDb({ pgUrl: pg ? inject('pgUrl') : undefined });
@@ -154,11 +156,12 @@ describe.each(backends)('the proposal measure and the pin route on $name', ({ pg
     await k('business_cases').where({ id: caseId }).update({ plan: JSON.stringify({ budgets: { 0: 4_000_000, 1: 4_000_000 }, swapsPerMonth: 2, startMonth: '2027-01' }) });
     const set = await k('assumption_sets').where({ workspaceId }).orderBy('id').first('id');
     const file = await buildCaseFile(workspaceId, { name: 'x', assumptionSetId: set.id }, k);
-    // the proposal as lib/cases/proposal.ts builds it from the engine's result (each repower's capital in the period its swap is due)
-    const { result, details } = evaluateCaseDetailed(file as never, { trusted: true });
-    const { plan } = buildProposal(result, timingFromDetails(file as never, result, details), { budgets: { 0: 4_000_000, 1: 4_000_000 }, swapsPerMonth: 2, startMonth: '2027-01' });
-    const policies = proposalPolicies(result, plan);
-    expected = { policies, gain: proposalGainVsRebuild(result, policies) };
+    // the proposal as lib/cases/proposal.ts builds it: the fleet programme under the saved budgets and shop capacity
+    const { result } = evaluateCaseDetailed(file as never, { trusted: true });
+    const settings = readPlanSettings(JSON.stringify({ budgets: { 0: 4_000_000, 1: 4_000_000 }, swapsPerMonth: 2, startMonth: '2027-01' }), '2027-01-01');
+    const proposal = proposalFromProgramme(result, await programmeOf(file as never, settings), settings);
+    const policies = proposal.policies;
+    expected = { policies, timings: proposal.timingSpecs, gain: proposalGainVsRebuild(result, policies, proposal.timings) };
   });
   afterAll(async () => destroy());
 
@@ -176,7 +179,7 @@ describe.each(backends)('the proposal measure and the pin route on $name', ({ pg
     expect(d.body.headline.proposalDeltaNpv).toBeCloseTo(expected.gain, 2);
     const t = await call(postTornado, params, { body: { metric: { kind: 'proposal' }, drivers: ['fuelPrice'] } });
     expect(t.status).toBe(200);
-    expect(t.body.metric).toEqual({ kind: 'proposal', policies: expected.policies });
+    expect(t.body.metric).toEqual({ kind: 'proposal', policies: expected.policies, timings: expected.timings });
     expect(t.body.baseValue).toBeCloseTo(expected.gain, 2);
     const b = await call(postBreakEven, params, { body: { metric: { kind: 'proposal' }, drivers: ['fuelPrice'] } });
     expect(b.status).toBe(200);

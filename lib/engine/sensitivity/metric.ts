@@ -5,6 +5,7 @@
 import type { CaseFileInput } from '@/lib/validation/case';
 import { evaluateNpvs } from '../evaluate';
 import type { PolicyKey } from '../types';
+import { timingOption, truckSetupOf, type TimingSpec } from '../timing';
 import { createCaseNpvs, fleetBestNpv, type CaseNpvs } from '../npv-only';
 import { cloneCase, getDriver, setDriver, type DriverRef } from './drivers';
 import { trucksTouchedByAll } from './touched';
@@ -18,6 +19,9 @@ import { trucksTouchedByAll } from './touched';
  *   held fixed while the inputs vary (what is proposed is tested, not the best
  *   answer to each changed input); a truck the map does not name counts as
  *   rebuilt (adds 0). Zero: the proposal just breaks even against rebuilding.
+ *   `timings` gives a repowered truck its chosen timing (the fleet programme's
+ *   option: now, or at the k-th planned event d months late, lib/engine/timing.ts):
+ *   its npv(repower) is then that option's npv, re-valued as the inputs vary.
  *
  * @example
  * // npvs (keep, rebuild, repower) A: (10, 8, 12), B: (5, 7, 4), C: (0, 3, 9);
@@ -27,7 +31,26 @@ export type Metric =
   | { kind: 'truck-delta'; truckId: string }
   | { kind: 'fleet-delta' }
   | { kind: 'fleet-best' }
-  | { kind: 'proposal'; policies: Readonly<Record<string, PolicyKey>> };
+  | { kind: 'proposal'; policies: Readonly<Record<string, PolicyKey>>; timings?: Readonly<Record<string, TimingSpec>> };
+
+/** Trucks of the case (by index) whose repower the proposal times (metric `timings`), with their timing. */
+function timedTrucks(c: CaseFileInput, metric: Metric): { index: number; spec: TimingSpec }[] {
+  if (metric.kind !== 'proposal' || !metric.timings) return [];
+  const out: { index: number; spec: TimingSpec }[] = [];
+  c.trucks.forEach((t, index) => {
+    const spec = metric.timings?.[t.id];
+    if (spec && metric.policies[t.id] === 'repower') out.push({ index, spec });
+  });
+  return out;
+}
+
+/** Write each timed truck's option npv over its repower npv (only trucks in `which`, or all when null). */
+function applyTimings(c: CaseFileInput, n: CaseNpvs, timed: readonly { index: number; spec: TimingSpec }[], which: ReadonlySet<number> | null): void {
+  for (const { index, spec } of timed) {
+    if (which && !which.has(index)) continue;
+    n.repower[index] = timingOption(truckSetupOf(c, c.trucks[index].id), spec).npv;
+  }
+}
 
 /** Δnpv metrics: zero means the repower (or the proposal) just breaks even against rebuilding. */
 export function isDeltaMetric(m: Metric): boolean {
@@ -90,6 +113,7 @@ export function checkProposalPolicies(validCase: CaseFileInput, policies: Readon
  */
 export function makeEvaluator(validCase: CaseFileInput, metric: Metric): Evaluator {
   if (metric.kind === 'proposal') checkProposalPolicies(validCase, metric.policies);
+  const timed = timedTrucks(validCase, metric);
   const base =
     metric.kind === 'truck-delta' ? { ...validCase, trucks: validCase.trucks.filter((t) => t.id === metric.truckId) } : validCase;
   if (base.trucks.length === 0) throw new RangeError(`no truck with id "${(metric as { truckId: string }).truckId}"`);
@@ -101,6 +125,7 @@ export function makeEvaluator(validCase: CaseFileInput, metric: Metric): Evaluat
     const touched = baseNpvs === null ? null : trucksTouchedByAll(work, overrides.map(([d]) => d));
     if (touched === null || touched.length === count) {
       const all = evaluateNpvs(work, { trusted: true });
+      applyTimings(work, all, timed, null);
       if (baseNpvs === null) baseNpvs = all;
       return readMetric(all, metric);
     }
@@ -118,6 +143,7 @@ export function makeEvaluator(validCase: CaseFileInput, metric: Metric): Evaluat
         merged.repower[i] = some.repower[k];
         merged.best[i] = some.best[k];
       });
+      applyTimings(work, merged, timed, new Set(touched));
     }
     return readMetric(merged, metric);
   };
@@ -143,7 +169,9 @@ export function makeFullEvaluator(validCase: CaseFileInput, metric: Metric): Eva
     const saved = overrides.map(([d]) => getDriver(work, d));
     for (const [d, v] of overrides) setDriver(work, base, d, v);
     try {
-      return readMetric(evaluateNpvs(work, { trusted: true }), metric);
+      const n = evaluateNpvs(work, { trusted: true });
+      applyTimings(work, n, timedTrucks(validCase, metric), null);
+      return readMetric(n, metric);
     } finally {
       for (let i = overrides.length - 1; i >= 0; i--) setDriver(work, base, overrides[i][0], saved[i]);
     }

@@ -1,5 +1,6 @@
 import { NextResponse } from 'next/server';
 import { evaluateNpvs } from '@/lib/engine';
+import { makeEvaluator } from '@/lib/engine/sensitivity';
 import { route } from '@/lib/http';
 import { describeDrivers } from '@/lib/risk/requests';
 import { loadProposal } from '@/lib/risk/case-source';
@@ -20,12 +21,9 @@ export const GET = route<CaseParams>(async (req, { params }) => {
   const truckId = truck && c.trucks.some((t) => t.id === truck) ? truck : undefined;
   const npvs = evaluateNpvs(c, { trusted: true });
   const proposal = await loadProposal(access, risk);
-  let proposalDelta = 0;
-  npvs.truckIds.forEach((id, i) => {
-    const p = proposal[id] ?? 'rebuild';
-    proposalDelta += npvs[p][i] - npvs.rebuild[i];
-  });
-  const count = (p: string) => Object.values(proposal).filter((x) => x === p).length;
+  // the proposal's gain as the risk analyses read it: each truck on its policy, a repowered truck at its chosen timing
+  const proposalDelta = makeEvaluator(c, { kind: 'proposal', policies: proposal.policies, timings: proposal.timings }).baseValue;
+  const count = (p: string) => Object.values(proposal.policies).filter((x) => x === p).length;
   const deltas: Record<string, number> = {};
   let fleetDelta = 0;
   let fleetBest = 0;
@@ -36,7 +34,7 @@ export const GET = route<CaseParams>(async (req, { params }) => {
   });
   return NextResponse.json({
     headline: { valuation: c.assumptions.valuation, fleetDeltaNpv: fleetDelta, fleetBestNpv: fleetBest, proposalDeltaNpv: proposalDelta, trucks: deltas },
-    proposal: { policies: proposal, repower: count('repower'), keep: count('keep'), rebuild: count('rebuild') },
+    proposal: { policies: proposal.policies, timings: proposal.timings, repower: count('repower'), keep: count('keep'), rebuild: count('rebuild') },
     case: { id: risk.id, name: risk.name, status: risk.status, currency: c.currency },
     trucks: c.trucks.map((t) => ({ id: t.id, engineId: t.engineId, repowerOfferId: t.repowerOfferId })),
     truckId: truckId ?? null,

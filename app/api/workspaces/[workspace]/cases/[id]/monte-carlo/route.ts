@@ -23,7 +23,8 @@ export const POST = route<CaseParams>(async (req, { params }) => {
   const spec = parseOr422(monteCarloRequestSchema, await readJson(req));
   checkMonteCarlo(risk.caseFile, spec);
   // every run sums the proposal too (its policies held fixed), whatever it is read on, and keeps the policies it used
-  const proposal = await loadProposal(access, risk);
+  // (a repowered truck is simulated at its offer's repower: the sampled paths do not follow a later or delayed timing)
+  const { policies: proposal } = await loadProposal(access, risk);
   const run = await startRun({ workspaceId: access.workspace.id, caseId: risk.id, userId: access.userId, caseFile: risk.caseFile, spec: { ...spec, proposal } });
   return NextResponse.json({ run }, { status: 202 });
 });
