@@ -8,6 +8,7 @@ import type { FrozenRecord } from '../../lib/approvals/canonical';
 import { freezeCase, snapshotForSubmission, type CaseRow as FreezeRow } from '../../lib/approvals/freeze';
 import type { PolicyKey } from '../../lib/engine/types';
 import { monthOfIndex, yearForecast } from '../../lib/readings/plan-vs-actual';
+import { resultAtProposalTimings } from '../../lib/cases/proposal';
 
 /** The demo password of every demo account (listed in the README). */
 export const DEMO_PASSWORD = 'haulcase-demo';
@@ -152,7 +153,8 @@ function demoReadingRows(
   const rows: Record<string, unknown>[] = [];
   const swapMonth = new Map((record.proposal.schedule as Array<{ truckId: string; month: number }>).map((x) => [x.truckId, x.month]));
   const file = record.case;
-  record.result.trucks.forEach((truck, k) => {
+  // each truck as the proposal times it (a repowered truck's chosen timing stands for its repower)
+  resultAtProposalTimings(record.result, record.proposal.timings).trucks.forEach((truck, k) => {
     const t = file.trucks.find((x) => x.id === truck.id)!;
     const offer = file.repowerOffers.find((o) => o.id === t.repowerOfferId)!;
     const policy = (record.proposal.policies[truck.id] ?? 'rebuild') as PolicyKey;

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import type { DecisionSummary } from '@/lib/cases/decision-summary';
-import type { CaseResult } from '@/lib/engine/types';
+import type { CaseResult, PolicyResult } from '@/lib/engine/types';
 import type { CapitalPlan } from '@/lib/plan';
 import type { CaseFile } from '@/lib/validation/case';
 
@@ -50,6 +50,8 @@ export interface FrozenRecord {
   result: CaseResult;
   proposal: {
     settings: { budgets: Record<string, number | null>; swapsPerMonth: number; startMonth: string; capacityByMonth?: Record<string, number>; maxDelayMonths?: number };
+    /** each repowered truck's chosen timing's result (the fleet programme's); absent in records made before it */
+    timings?: Record<string, PolicyResult>;
     chosenTrucks: string[];
     policies: Record<string, string>;
     plan: CapitalPlan;

@@ -121,6 +121,7 @@ export async function freezeCase(
       policies: proposal.policies,
       plan: proposal.plan,
       schedule: proposal.schedule,
+      timings: proposal.timings,
     },
     summary,
     pinnedRun,

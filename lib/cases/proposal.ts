@@ -62,6 +62,16 @@ export interface Proposal {
   timingSpecs: Record<string, TimingSpec>;
 }
 
+/**
+ * The case result with each timed truck's `repower` replaced by its chosen
+ * timing's result (for readers of one policy per truck, e.g. plan against
+ * actual on a frozen record). The fleet totals are left as they were.
+ */
+export function resultAtProposalTimings(result: CaseResult, timings: Record<string, PolicyResult> = {}): CaseResult {
+  if (Object.keys(timings).length === 0) return result;
+  return { ...result, trucks: result.trucks.map((t) => (timings[t.id] ? { ...t, options: { ...t.options, repower: timings[t.id] } } : t)) };
+}
+
 /** A truck's result under its policy in the proposal: its chosen timing when repowered, else the engine's policy. */
 export function proposalPolicyResult(truck: CaseResult['trucks'][number], policies: ProposalPolicies, timings: Record<string, PolicyResult> = {}): PolicyResult {
   const p = policies[truck.id] ?? 'rebuild';

@@ -12,6 +12,7 @@ import { readFrozenRecord } from '@/lib/approvals/canonical';
 import { db } from '@/lib/db';
 import { notFound } from '@/lib/http';
 import { planVsActual, type ActualReading, type PlanVsActual } from './plan-vs-actual';
+import { resultAtProposalTimings } from '@/lib/cases/proposal';
 
 export type PlanVsActualView = {
   caseId: number;
@@ -57,7 +58,7 @@ export async function loadPlanVsActual(access: Access, caseId: number, k: Knex =
   const tolerancePercent = access.workspace.settings.actualsTolerancePercent;
   const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
   const figures = planVsActual({
-    file: record.case, result: record.result, policies: record.proposal.policies, startMonth, swapMonths, readings, tolerance: tolerancePercent / 100, fiscalYearStartMonth,
+    file: record.case, result: resultAtProposalTimings(record.result, record.proposal.timings), policies: record.proposal.policies, startMonth, swapMonths, readings, tolerance: tolerancePercent / 100, fiscalYearStartMonth,
   });
   const latest = figures.fleetMonths.at(-1)?.month ?? null;
   return { caseId: row.id, caseName: row.name, approvedMonth, startMonth, currency: access.workspace.currency, tolerancePercent, fiscalYearStartMonth, latestMonth: latest, figures };
