@@ -133,8 +133,8 @@ const APPROVED_PLAN = { budgets: { '0': 3_000_000, '1': 8_000_000, '2': 6_000_00
 const APPROVED_AT = { submitted: '2024-11-12T09:30:00.000Z', approved: '2024-11-20T15:10:00.000Z' };
 /** Months of readings after the approval (2024-12 … 2026-11), after a baseline reading in 2024-11. */
 const READING_MONTHS = 24;
-/** T3-14's repower, scheduled in the plan's month 3 (2025-03), was done four months late. */
-const LATE_REPOWER = { unit: 'T3-14', monthsLate: 4 };
+/** T3-14's repower, planned by the programme in the plan's month 0 (2024-12), was done seven months late (2025-07). */
+const LATE_REPOWER = { unit: 'T3-14', monthsLate: 7 };
 /** T3-05 burns about 8 % more than the approved case forecast. */
 const OVER_BURN = { unit: 'T3-05', factor: 1.08 };
 
@@ -143,7 +143,7 @@ const OVER_BURN = { unit: 'T3-05', factor: 1.08 };
  * forecast: each month runs the case's hours for that year / 12 and burns the
  * proposal's expected litres an hour, both varied a little month to month
  * (deterministic: sines of the month), T3-05 8 % over; the scheduled swaps in
- * the two years are done in their month (T3-14 four months late) at the offer's
+ * the two years are done in their month (T3-14 seven months late) at the offer's
  * price; T3-02 had an overhaul in 2025-01 and T3-07 an in-service failure in
  * 2025-06. Every figure is invented.
  */

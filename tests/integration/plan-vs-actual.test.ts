@@ -42,7 +42,7 @@ describe.each([
     expect(r.body.figures.fleetMonths[0].month).toBe('2024-12');
     expect(r.body.latestMonth).toBe('2026-11');
     expect(r.body.tolerancePercent).toBe(5);
-    // T3-05 burns about 8 % over the case and is the only truck flagged for burn; T3-14's repower came four months late
+    // T3-05 burns about 8 % over the case and is the only truck flagged for burn; T3-14's repower came seven months late
     const t5 = r.body.figures.trucks.find((t: { unit: string }) => t.unit === 'T3-05');
     expect(t5.burnVariance).toBeGreaterThan(0.07);
     expect(t5.burnVariance).toBeLessThan(0.09);
