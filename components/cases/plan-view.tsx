@@ -87,7 +87,7 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
                   <td className="font-mono text-xs">{s.label}</td>
                   <td>{truckLink(s.truckId)}</td>
                   <td className="font-mono text-xs">{s.dueLabel}</td>
-                  <td className="text-xs">{s.movedEarlier ? `moved ${s.dueMonth - s.month} month(s) earlier: shop full in ${s.dueLabel}` : s.late ? `late by ${s.month - s.dueMonth} month(s): no earlier month had room` : 'on due month'}</td>
+                  <td className="text-xs">{s.movedEarlier ? `moved ${s.dueMonth - s.month} month(s) earlier: shop full in ${s.dueLabel}` : s.late ? `${s.month - s.dueMonth} month(s) after it is due: the programme's timing (budget, shop or value)` : 'on due month'}</td>
                 </tr>
               ))}
             </tbody>

@@ -80,7 +80,8 @@ describe('business cases in the browser', () => {
       expect(r[1].toLowerCase()).toBe(t.best);
       const close = (shown: string, value: number | null, scale: number, digits: number) => {
         if (value === null) return expect(num(shown)).toBeNull();
-        expect(Math.abs((num(shown) as number) - value / scale)).toBeLessThanOrEqual(0.5 * 10 ** -digits + 1e-9);
+        // a payback that does not hold carries the flag after its figure
+        expect(Math.abs((num(shown.replace(/\s*does not hold$/, '')) as number) - value / scale)).toBeLessThanOrEqual(0.5 * 10 ** -digits + 1e-9);
       };
       close(r[2], t.options.rebuild.failureBeforePlanned * 100, 1, 1);
       close(r[3], t.options.keep.npv, 1000, 0);
@@ -155,6 +156,8 @@ describe('business cases in the browser', () => {
     // budgets are by fiscal year: the plan's periods are named by the fiscal year they start in (January by default)
     const label = ((await page.locator(`label[for="budget-${y}"]`).textContent()) ?? '').trim();
     expect(label).toMatch(new RegExp(`^FY\\d{4}${y === 0 ? ' \\(now\\)' : ''} budget$`));
+    const units = (t: string | null) => (t ?? '').match(/T\d-\d\d/g)?.length ?? 0;
+    const chosenBefore = units(await page.getByTestId(`chosen-${y}`).textContent());
     await page.getByLabel(label, { exact: true }).fill('3,000,000');
     await page.getByLabel('Swaps per month').fill('1');
     await page.getByRole('button', { name: 'Save and plan' }).click();
@@ -162,8 +165,13 @@ describe('business cases in the browser', () => {
     const row = plan.locator(`tbody tr[data-year="${y}"]`);
     expect(num((await row.locator('td').nth(1).textContent()) ?? '')).toBe(3000);
     expect(num((await row.locator('td').nth(2).textContent()) ?? '')).toBeLessThanOrEqual(3000);
-    expect(await page.getByTestId(`chosen-${y}`).textContent()).not.toBe('—');
-    expect(await page.getByTestId(`left-out-${y}`).textContent()).toMatch(/forgoes [\d,]+ · needs \+[\d,]+/);
+    // the fleet programme keeps the year within its budget: fewer swaps planned in it than without one; a truck that
+    // no timing fits is listed as left out with what it forgoes, the others move to a later timing
+    const chosenAfter = units(await page.getByTestId(`chosen-${y}`).textContent());
+    expect(chosenAfter).toBeGreaterThan(0);
+    expect(chosenAfter).toBeLessThan(chosenBefore);
+    const leftOut = (await page.getByTestId(`left-out-${y}`).textContent()) ?? '';
+    if (leftOut !== '—') expect(leftOut).toMatch(/forgoes [\d,]+ · needs \+[\d,]+/);
     const months = await page.getByTestId('schedule-table').locator('tbody tr td:first-child').allTextContents();
     expect(months.length).toBeGreaterThan(0);
     expect(new Set(months).size).toBe(months.length); // one swap a month

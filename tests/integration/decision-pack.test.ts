@@ -100,8 +100,8 @@ describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])
     expect(ask.text).toContain(`Capital asked: ${k(submitted.totalCapital)} ${submitted.currency} k to repower ${submitted.chosenTrucks.length} trucks (${fyPart}).`);
     expect(ask.text).toContain(`Expected NPV gain against rebuilding every engine: ${k(submitted.gainVsRebuildAll)} ${submitted.currency} k.`);
     expect(ask.text).toContain(`/${WS}/approvals/${id}`);
-    expect(ask.text).toContain(`Decision pack (PDF): http://127.0.0.1:3000${packPath}`);
-    expect(ask.html).toContain(`href="http://127.0.0.1:3000${packPath}"`);
+    expect(ask.text).toContain(`Decision pack (PDF): http://127.0.0.1${packPath}`);
+    expect(ask.html).toContain(`href="http://127.0.0.1${packPath}"`);
     expect(ask.html).toContain('Download the decision pack (PDF)');
     await kx('mail_sink').del();
     signInAs(ids['approver@aldervane.test']);
@@ -114,7 +114,7 @@ describe.each([{ name: 'SQLite', pg: false }, { name: 'PostgreSQL', pg: true }])
     expect(JSON.parse(told.toAddresses)).toEqual(['analyst@aldervane.test']);
     expect(told.text).toContain(`Capital asked: ${k(submitted.totalCapital)} ${submitted.currency} k`);
     expect(told.text).toContain(`Expected NPV gain against rebuilding every engine: ${k(submitted.gainVsRebuildAll)} ${submitted.currency} k.`);
-    expect(told.text).toContain(`Decision pack (PDF): http://127.0.0.1:3000${packPath}`);
+    expect(told.text).toContain(`Decision pack (PDF): http://127.0.0.1${packPath}`);
     signInAs(ids['viewer@aldervane.test']);
     const pdf = Buffer.from(await (await call(decisionPack, p(id))).response.arrayBuffer());
     const text = pdfToText(pdf);

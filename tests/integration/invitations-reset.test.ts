@@ -53,7 +53,7 @@ describe.each(backends)('invitations and password reset by e-mail on $name', ({ 
     expect(JSON.parse(m.toAddresses)).toEqual(['second.approver@aldervane.test']);
     expect(m.subject).toBe('You are invited to Aldervane Copper — North Pit on Haulcase');
     expect(m.html).toContain('/invite/');
-    const token = tokenIn(m.text, 'http://127.0.0.1:3000/invite');
+    const token = tokenIn(m.text, 'http://127.0.0.1/invite');
     expect(token.length).toBeGreaterThanOrEqual(40);
     const row = await k('invitations').where({ id: r.body.id }).first();
     expect(row.tokenHash).toBe(hashToken(token));

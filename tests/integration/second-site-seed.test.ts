@@ -31,7 +31,8 @@ describe('the second demo site has a fleet of its own', () => {
     expect(corrin.body.workspace.currency).toBe('AUD');
     expect(corrin.body.counts).toEqual({ trucks: 7, engines: 2, offers: 1, assumptionSets: 1, cases: 1 });
     const first = await call(getWorkspace, { workspace: 'aldervane-north-pit' });
-    expect(first.body.counts).toEqual({ trucks: 24, engines: 4, offers: 2, assumptionSets: 4, cases: 1 });
+    // the first site: the draft demo case and the approved case its readings are held against
+    expect(first.body.counts).toEqual({ trucks: 24, engines: 4, offers: 2, assumptionSets: 4, cases: 2 });
 
     const trucks = (await call(listTrucks, { workspace: 'corrin-flats' })).body.items as Array<{ unitNumber: string }>;
     expect(trucks.map((t) => t.unitNumber)).toEqual(['CF-101', 'CF-102', 'CF-103', 'CF-104', 'CF-105', 'CF-106', 'CF-107']);
