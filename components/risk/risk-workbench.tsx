@@ -65,6 +65,7 @@ export function RiskWorkbench({ slug, caseId, initialTruck, initialRanges = 'rea
   const metric: MetricInput = truckId ? { kind: 'truck-delta', truckId } : { kind: fleetChoice! };
   const metricLabel = truckId ? `ΔNPV repower vs rebuild, truck ${truckId}` : MEASURE_LABELS[fleetChoice!];
   const p = fleetDrivers.proposal;
+  const later = Object.values(p.timings ?? {}).filter((t) => t.kind === 'event' && (t.k > 1 || t.delayMonths > 0)).length;
   const key = JSON.stringify(metric);
   const firstOffer = answer.drivers.find((d) => d.id.startsWith('modulePrice@'))?.id ?? 'discountRate';
 
@@ -94,6 +95,11 @@ export function RiskWorkbench({ slug, caseId, initialTruck, initialRanges = 'rea
       <p className="-mt-2 text-xs text-muted" data-testid="risk-proposal">
         The proposal is the case&rsquo;s saved plan: it repowers {plural(p.repower, 'truck')} the plan chooses; the other{' '}
         {p.keep + p.rebuild === 1 ? 'truck follows' : `${p.keep + p.rebuild} trucks follow`} the better of keep ({p.keep}) and rebuild ({p.rebuild}). Each truck&rsquo;s policy is held fixed while the inputs vary.
+        {later > 0 ? (
+          <span data-testid="risk-timing-note">
+            {' '}The fleet programme times {plural(later, 'repowered truck')} later than {later === 1 ? 'its' : 'their'} next planned overhaul: the tornado and break-even value that timing; a Monte Carlo run repowers {later === 1 ? 'it' : 'them'} at the offer&rsquo;s own timing.
+          </span>
+        ) : null}
       </p>
       <TornadoPanel key={`t${key}${rangeMode}`} rangeMode={rangeMode} base={base} metric={metric} metricLabel={metricLabel} drivers={answer.drivers} currency={currency} negative={negative} onRows={onRows} />
       <SpiderPanel key={`s${key}${rangeMode}`} rangeMode={rangeMode} base={base} metric={metric} metricLabel={metricLabel} driverIds={top} drivers={answer.drivers} currency={currency} negative={negative} />

@@ -37,7 +37,14 @@ export interface DriversAnswer {
   trucks: { id: string; engineId: string; repowerOfferId: string }[];
   truckId: string | null;
   drivers: DriverView[];
-  proposal: { policies: Record<string, 'keep' | 'rebuild' | 'repower'>; repower: number; keep: number; rebuild: number };
+  proposal: {
+    policies: Record<string, 'keep' | 'rebuild' | 'repower'>;
+    /** each repowered truck's timing in the proposal (the fleet programme's) */
+    timings?: Record<string, { kind: 'keep' | 'rebuild' | 'now' | 'event'; k: number; delayMonths: number }>;
+    repower: number;
+    keep: number;
+    rebuild: number;
+  };
 }
 
 export interface RunView {

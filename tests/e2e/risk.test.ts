@@ -94,6 +94,13 @@ describe('sensitivity and risk of the demo case', () => {
     await status().waitFor();
     expect(await status().textContent()).toMatch(/cancelled/);
     expect(await page.getByRole('button', { name: 'Run Monte Carlo' }).count()).toBe(0);
+    // the proposal line says how many repowered trucks the fleet programme times past their next overhaul,
+    // counted here from the drivers route's timings
+    const drivers = await (await page.request.get(`${baseURL}/api/workspaces/${WS}/cases/${caseId}/drivers`)).json();
+    const later = Object.values(drivers.proposal.timings as Record<string, { kind: string; k: number; delayMonths: number }>).filter((t) => t.kind === 'event' && (t.k > 1 || t.delayMonths > 0)).length;
+    const note = page.getByTestId('risk-timing-note');
+    if (later > 0) expect(await note.textContent()).toContain(`times ${later} repowered truck${later === 1 ? '' : 's'} later than`);
+    else expect(await note.count()).toBe(0);
     // the page's fleet break-even holds the server a while: let it finish before signing out
     await page.getByTestId('break-even-table').waitFor({ timeout: 180_000 });
     await signOut(page);
