@@ -25,14 +25,14 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
     <div className="space-y-4">
       <PlanControls data={data} slug={slug} canEdit={canEdit} onSaved={() => mutate()} />
       <section aria-label="Capital plan" className="card p-3" data-testid="capital-plan">
-        <h2 className="text-sm font-semibold">The proposal: the repowers that maximise total gain within each fiscal year&rsquo;s budget</h2>
+        <h2 className="text-sm font-semibold">The proposal: each truck&rsquo;s repower timing that maximises the fleet&rsquo;s expected NPV within the budgets and the shop&rsquo;s capacity</h2>
         <p className="text-sm" data-testid="plan-proposal">
           Capital <span className="num font-semibold" data-testid="plan-proposal-capital">{k(data.proposal.totalCapital)}</span> {data.currency} k
           {data.proposal.capitalByFiscalYear.length ? <> ({data.proposal.capitalByFiscalYear.map((r) => `${r.fiscalYear} ${k(r.capital)}`).join(' · ')})</> : null};
           expected NPV gain <span className="num font-semibold" data-testid="plan-proposal-gain">{k(data.proposal.gainVsRebuildAll)}</span> {data.currency} k against rebuilding every engine.
           <span className="text-muted"> Comparisons: unconstrained best mix {k(data.proposal.bestMixGain)}; repower every truck {k(data.proposal.repowerAllGain)}.</span>
         </p>
-        <p className="text-xs text-muted">Solved exactly per year as a 0/1 knapsack (costs counted in whole units of {formatNumber(Math.max(1000, ...data.plan.years.map((y) => y.unit)), 0)} {data.currency}, rounded up, so no plan exceeds its budget). A truck left out waits: it takes its better other policy and forgoes the gain shown. Gain over each truck&rsquo;s better other policy {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital. A period runs 12 months from the plan&rsquo;s first month and is named by the fiscal year it starts in.</p>
+        <p className="text-xs text-muted">Solved exactly as one programme over every truck&rsquo;s timings (repower now, at its next or a later planned overhaul, or some months late), each period&rsquo;s budget and each month&rsquo;s swaps together. A truck no timing fits is left out: it takes its better other policy and forgoes the gain shown; the extra budget is what its best timing would need on top of what is left. Gain over each truck&rsquo;s better other policy {k(data.plan.totalGain)} {data.currency} k for {k(data.plan.totalSpent)} {data.currency} k of capital. A period runs 12 months from the plan&rsquo;s first month and is named by the fiscal year it starts in.</p>
         <table className="data-table mt-2">
           <thead><tr><th>Fiscal year of spend</th><th className="n">Budget ({data.currency} k)</th><th className="n">Spent ({data.currency} k)</th><th className="n">Gain ({data.currency} k)</th><th>Chosen</th><th>Left out: gain forgone · extra budget to add it ({data.currency} k)</th></tr></thead>
           <tbody>
@@ -72,10 +72,10 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
           </table>
         </section>
         <section aria-label="Swap schedule" className="card overflow-x-auto p-3">
-          <h2 className="text-sm font-semibold">Swap schedule: at most {data.case.plan.swapsPerMonth} a month, each in the month its engine is due</h2>
+          <h2 className="text-sm font-semibold">Swap schedule: at most {data.case.plan.swapsPerMonth} a month, in the month the programme plans</h2>
           <p className="text-xs text-muted" data-testid="schedule-due-note">
             {data.valuation === 'expected'
-              ? 'Due: the month the engine reaches its planned life (the planned repower; now for a repower now or an engine past its life). Its capital is planned in that year. The expected figures also count the chance that the engine fails first, which would bring the swap forward.'
+              ? 'Due: the month the engine reaches its planned life (the planned repower; now for a repower now or an engine past its life). A swap planned later runs the old engine on past that life when the programme finds it pays or a budget or the shop requires it. Its capital is planned in the year of the planned swap. The expected figures also count the chance that the engine fails first, which would bring the swap forward.'
               : 'Due: the month of the repower on the median failure path (at the planned life, or at the median failure age when that comes first).'}
           </p>
           <table className="data-table mt-2" data-testid="schedule-table">
