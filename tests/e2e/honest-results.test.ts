@@ -44,6 +44,8 @@ describe('honest results: flagged paybacks, fuel axis from zero, the fleet by ye
     const warning = page.getByTestId('payback-warning');
     await warning.waitFor();
     expect(await warning.textContent()).toMatch(/^Pays back in year \d+\.\d but falls below zero again in years? [\d–, and]+ \(discounted\): the payback does not hold\.$/);
+    // the chart draws its shading once it has measured its width: wait for it rather than count at once
+    await page.getByTestId('payback-dip').first().waitFor();
     expect(await page.getByTestId('payback-dip').count()).toBeGreaterThan(0);
     expect(await page.getByTestId('truck-discounted-payback').textContent()).toMatch(/does not hold/);
     expect(await page.getByTestId('truck-payback-warning').textContent()).toMatch(/the payback does not hold/);
