@@ -64,6 +64,16 @@ function gainOverRebuild(n: CaseNpvs, i: number, policy: PolicyKey | undefined):
   return 0;
 }
 
+/**
+ * The metric from npvs already evaluated for `c`: a proposal's timed trucks
+ * (`timings`) are valued at their option's npv first. `n` is changed in place
+ * (its `repower` entries of the timed trucks).
+ */
+export function readMetricOf(c: CaseFileInput, n: CaseNpvs, m: Metric): number {
+  applyTimings(c, n, timedTrucks(c, m), null);
+  return readMetric(n, m);
+}
+
 export function readMetric(n: CaseNpvs, m: Metric): number {
   if (m.kind === 'fleet-best') return fleetBestNpv(n);
   if (m.kind === 'proposal') {

@@ -1,6 +1,6 @@
 import { NextResponse } from 'next/server';
 import { evaluateNpvs } from '@/lib/engine';
-import { makeEvaluator } from '@/lib/engine/sensitivity';
+import { readMetricOf } from '@/lib/engine/sensitivity';
 import { route } from '@/lib/http';
 import { describeDrivers } from '@/lib/risk/requests';
 import { loadProposal } from '@/lib/risk/case-source';
@@ -21,8 +21,6 @@ export const GET = route<CaseParams>(async (req, { params }) => {
   const truckId = truck && c.trucks.some((t) => t.id === truck) ? truck : undefined;
   const npvs = evaluateNpvs(c, { trusted: true });
   const proposal = await loadProposal(access, risk);
-  // the proposal's gain as the risk analyses read it: each truck on its policy, a repowered truck at its chosen timing
-  const proposalDelta = makeEvaluator(c, { kind: 'proposal', policies: proposal.policies, timings: proposal.timings }).baseValue;
   const count = (p: string) => Object.values(proposal.policies).filter((x) => x === p).length;
   const deltas: Record<string, number> = {};
   let fleetDelta = 0;
@@ -32,6 +30,9 @@ export const GET = route<CaseParams>(async (req, { params }) => {
     fleetDelta += deltas[id];
     fleetBest += npvs[npvs.best[i]][i];
   });
+  // the proposal's gain as the risk analyses read it: each truck on its policy, a repowered truck at its chosen
+  // timing (read last: it writes the timed trucks' option npvs over their repower npvs)
+  const proposalDelta = readMetricOf(c, npvs, { kind: 'proposal', policies: proposal.policies, timings: proposal.timings });
   return NextResponse.json({
     headline: { valuation: c.assumptions.valuation, fleetDeltaNpv: fleetDelta, fleetBestNpv: fleetBest, proposalDeltaNpv: proposalDelta, trucks: deltas },
     proposal: { policies: proposal.policies, timings: proposal.timings, repower: count('repower'), keep: count('keep'), rebuild: count('rebuild') },
