@@ -1,7 +1,7 @@
 'use client';
 
 import { useMemo } from 'react';
-import { offerPowerWarning } from '@/lib/cases/offer-power';
+import { offerPowerFit } from '@/lib/fleet/offer-power';
 import type { Selection } from '@/lib/validation/business-case';
 
 export type CaseOptions = {
@@ -16,7 +16,8 @@ export type CaseOptions = {
  * Which trucks a case holds and the offer for each (null = the truck's own).
  * The selection keeps the register's order so a saved case reads the same way.
  * Where the offer that applies (the chosen one, else the truck's own) fits an
- * engine far from the truck's power, the row says so (lib/cases/offer-power.ts).
+ * engine far from the truck's power, the row says so (`offerPowerFit`, the
+ * register form's rule).
  */
 export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }: {
   options: CaseOptions;
@@ -43,7 +44,8 @@ export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }
           <tbody>
             {options.trucks.map((t) => {
               const applies = chosen.get(t.id) ?? t.repowerOfferId;
-              const power = chosen.has(t.id) && applies !== null ? offerPowerWarning(t.engineKw, offerKw.get(applies)) : null;
+              const fit = chosen.has(t.id) && applies !== null ? offerPowerFit(t.engineKw ?? 0, offerKw.get(applies) ?? 0) : null;
+              const power = fit && fit.kind !== 'fits' ? fit.message : null;
               return (
               <tr key={t.id}>
                 <td>
@@ -74,7 +76,7 @@ export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }
                     {options.offers.map((o) => <option key={o.id} value={o.id}>{o.key} — {o.supplier}</option>)}
                   </select>
                   {rowErrors[t.id] ? <p className="mt-0.5 text-xs text-loss">{rowErrors[t.id]}</p> : null}
-                  {power ? <p className="mt-0.5 max-w-md text-xs text-caution" data-testid={`selection-power-warning-${t.unitNumber}`}>{power.words}</p> : null}
+                  {power ? <p className="mt-0.5 max-w-md text-xs text-caution" data-testid={`selection-power-warning-${t.unitNumber}`}>{power}</p> : null}
                 </td>
               </tr>
               );
