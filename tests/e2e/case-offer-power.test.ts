@@ -19,7 +19,7 @@ describe('a planner is warned where an offer\'s engine is far from the truck\'s 
   it('names how far below or above, on the row of the truck, while the form is filled in', async () => {
     await page.goto(`${baseURL}/${WS}/cases`);
     await page.getByRole('button', { name: 'New case' }).first().click();
-    await page.getByLabel('Name').fill('Offer power check');
+    await page.getByLabel('Name', { exact: true }).fill('Offer power check');
     // every truck on its own offer: the demo's own offers match their trucks
     await page.getByLabel('Offer for T3-01').waitFor();
     expect(await page.locator('[data-testid^="selection-power-warning-"]').count()).toBe(0);
