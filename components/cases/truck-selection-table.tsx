@@ -1,17 +1,23 @@
 'use client';
 
 import { useMemo } from 'react';
+import { offerPowerFit } from '@/lib/fleet/offer-power';
 import type { Selection } from '@/lib/validation/business-case';
 
 export type CaseOptions = {
   assumptionSets: Array<{ id: number; name: string }>;
-  trucks: Array<{ id: number; unitNumber: string; payloadClass: string; repowerOfferId: number | null }>;
-  offers: Array<{ id: number; key: string; supplier: string }>;
+  /** engineKw: rated power of the engine fitted today */
+  trucks: Array<{ id: number; unitNumber: string; payloadClass: string; repowerOfferId: number | null; engineKw?: number | null }>;
+  /** ratedKw: rated power of the engine the offer fits */
+  offers: Array<{ id: number; key: string; supplier: string; ratedKw?: number | null }>;
 };
 
 /**
  * Which trucks a case holds and the offer for each (null = the truck's own).
  * The selection keeps the register's order so a saved case reads the same way.
+ * Where the offer that applies (the chosen one, else the truck's own) fits an
+ * engine far from the truck's power, the row says so (`offerPowerFit`, the
+ * register form's rule).
  */
 export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }: {
   options: CaseOptions;
@@ -21,6 +27,7 @@ export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }
   rowErrors?: Record<number, string>;
 }) {
   const offerKey = useMemo(() => new Map(options.offers.map((o) => [o.id, o.key])), [options]);
+  const offerKw = useMemo(() => new Map(options.offers.map((o) => [o.id, o.ratedKw ?? null])), [options]);
   const chosen = new Map(value.map((s) => [s.truckId, s.repowerOfferId]));
   const rebuild = (next: Map<number, number | null>) =>
     onChange(options.trucks.filter((t) => next.has(t.id)).map((t) => ({ truckId: t.id, repowerOfferId: next.get(t.id) ?? null })));
@@ -35,7 +42,11 @@ export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }
         <table className="data-table">
           <thead><tr><th>Include</th><th>Truck</th><th>Class</th><th>Repower offer</th></tr></thead>
           <tbody>
-            {options.trucks.map((t) => (
+            {options.trucks.map((t) => {
+              const applies = chosen.get(t.id) ?? t.repowerOfferId;
+              const fit = chosen.has(t.id) && applies !== null ? offerPowerFit(t.engineKw ?? 0, offerKw.get(applies) ?? 0) : null;
+              const power = fit && fit.kind !== 'fits' ? fit.message : null;
+              return (
               <tr key={t.id}>
                 <td>
                   <input
@@ -65,9 +76,11 @@ export function TruckSelectionTable({ options, value, onChange, rowErrors = {} }
                     {options.offers.map((o) => <option key={o.id} value={o.id}>{o.key} — {o.supplier}</option>)}
                   </select>
                   {rowErrors[t.id] ? <p className="mt-0.5 text-xs text-loss">{rowErrors[t.id]}</p> : null}
+                  {power ? <p className="mt-0.5 max-w-md text-xs text-caution" data-testid={`selection-power-warning-${t.unitNumber}`}>{power}</p> : null}
                 </td>
               </tr>
-            ))}
+              );
+            })}
           </tbody>
         </table>
       </div>

@@ -59,15 +59,32 @@ export async function fetchCase(workspaceId: number, id: number, k: Knex = db())
   return r ? toCase(r) : null;
 }
 
-/** What the create form offers: assumption sets, trucks with their own offer, offers. */
+/**
+ * What the create form offers: assumption sets, trucks with their own offer
+ * and the rated power of the engine fitted today, offers with the rated power
+ * of the engine they fit (the form warns where the two are far apart).
+ */
 export async function fetchCaseFormOptions(workspaceId: number) {
   const k = db();
   const [assumptionSets, trucks, offers] = await Promise.all([
     k('assumption_sets').where({ workspaceId }).orderBy('name').select('id', 'name'),
-    k('trucks').where({ workspaceId }).orderBy('unitNumber').select('id', 'unitNumber', 'payloadClass', 'repowerOfferId', 'engineHours', 'annualHours'),
-    k('repower_offers').where({ workspaceId }).orderBy('key').select('id', 'key', 'supplier'),
+    k('trucks as t')
+      .leftJoin('engine_types as e', 'e.id', 't.engineTypeId')
+      .where('t.workspaceId', workspaceId)
+      .orderBy('t.unitNumber')
+      .select('t.id', 't.unitNumber', 't.payloadClass', 't.repowerOfferId', 't.engineHours', 't.annualHours', 'e.ratedKw as engineKw'),
+    k('repower_offers as o')
+      .leftJoin('engine_types as e', 'e.id', 'o.engineTypeId')
+      .where('o.workspaceId', workspaceId)
+      .orderBy('o.key')
+      .select('o.id', 'o.key', 'o.supplier', 'e.ratedKw as ratedKw'),
   ]);
-  return { assumptionSets, trucks, offers };
+  const kw = (v: unknown) => (v === null || v === undefined ? null : Number(v));
+  return {
+    assumptionSets,
+    trucks: trucks.map((t) => ({ ...t, engineKw: kw(t.engineKw) })),
+    offers: offers.map((o) => ({ ...o, ratedKw: kw(o.ratedKw) })),
+  };
 }
 
 /** Every id a case names must belong to the workspace; each stranger is one problem with its path. */
