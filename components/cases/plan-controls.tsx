@@ -43,7 +43,7 @@ export function PlanControls({ data, slug, canEdit, numberFormat, onSaved }: { d
   const years = [
     ...new Set([...data.plan.years.map((y) => y.year), ...data.summary.capitalByYear.map((c) => c.year), ...Object.keys(stored.budgets).map(Number)]),
   ].sort((a, b) => a - b);
-  const cheapest = useMemo(() => cheapestSwapByPeriod(data.ranking), [data.ranking]);
+  const cheapest = useMemo(() => cheapestSwapByPeriod(data.dueSwaps), [data.dueSwaps]);
   const [text, setText] = useState<PlanFormText>(() => planFormText(stored, numberFormat, months));
   const [problems, setProblems] = useState<Problem[]>([]);
   const [message, setMessage] = useState('');

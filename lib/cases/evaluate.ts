@@ -15,6 +15,7 @@ import { buildDecisionSummary } from './decision-summary';
 import { fleetByYear } from './fleet-years';
 import { programmeOf } from './programme';
 import { proposalFromProgramme } from './proposal';
+import { dueSwapsOf } from '@/lib/plan/settings-input';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
 import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
@@ -89,7 +90,8 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
   }
   // the proposal is the fleet programme's answer under the saved budgets and shop capacity
-  const built = proposalFromProgramme(result, await programmeOf(file, row.plan), row.plan);
+  const programme = await programmeOf(file, row.plan);
+  const built = proposalFromProgramme(result, programme, row.plan);
   const { ranking, plan, schedule } = built;
   const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
   const source = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';
@@ -122,6 +124,7 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
     ranking,
     plan,
     schedule,
+    dueSwaps: dueSwapsOf(programme.options),
     proposal,
     fiscalYearStartMonth,
     discountFactors: Object.fromEntries(details.map((d) => [d.truckId, d.policies.repower.periods.map((p) => p.discountFactor)])),

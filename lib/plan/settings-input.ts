@@ -88,22 +88,44 @@ export function readWholeText(text: string, format: NumberFormat, label: string,
   return { ok: true, value: r.value };
 }
 
-/** A repower due in a period (the ranking's rows: each truck's repower at its own timing). */
+/** A swap the programme can plan on time in a period: one truck's option (now, or at its k-th planned overhaul) with no delay. */
 export interface DueSwap {
   truckId: string;
-  /** planned capital, positive, whole currency */
+  /** planned capital of the swap, positive, whole currency */
   capital: number;
-  /** period of the spend (the budgets' key), null: none */
-  capitalYear: number | null;
+  /** period of the spend (the budgets' key) */
+  period: number;
 }
 
-/** The cheapest repower due in each period (capital > 0), by period. */
+/** The options the programme values per truck (lib/plan/programme-case.ts), as much of them as this needs. */
+export interface TruckOptionsLike {
+  truckId: string;
+  options: Array<{ kind: string; delayMonths: number; swapPeriod: number | null; plannedCapital: number[] }>;
+}
+
+/**
+ * Every on-time swap of every truck: each option that swaps the engine
+ * (repower now or at a planned overhaul) without a planned delay, with its
+ * planned capital in the period of the swap (no failure before it). Delayed
+ * options are the programme's way round a full shop, not what is due.
+ */
+export function dueSwapsOf(trucks: TruckOptionsLike[]): DueSwap[] {
+  const out: DueSwap[] = [];
+  for (const t of trucks)
+    for (const o of t.options) {
+      if (o.swapPeriod === null || o.delayMonths > 0 || o.kind === 'keep' || o.kind === 'rebuild') continue;
+      out.push({ truckId: t.truckId, capital: o.plannedCapital[o.swapPeriod] ?? 0, period: o.swapPeriod });
+    }
+  return out;
+}
+
+/** The cheapest swap due in each period (capital > 0; ties to the first truck id), by period. */
 export function cheapestSwapByPeriod(swaps: DueSwap[]): Map<number, { truckId: string; capital: number }> {
   const out = new Map<number, { truckId: string; capital: number }>();
   for (const s of swaps) {
-    if (s.capitalYear === null || !(s.capital > 0)) continue;
-    const was = out.get(s.capitalYear);
-    if (!was || s.capital < was.capital || (s.capital === was.capital && s.truckId < was.truckId)) out.set(s.capitalYear, { truckId: s.truckId, capital: s.capital });
+    if (!(s.capital > 0)) continue;
+    const was = out.get(s.period);
+    if (!was || s.capital < was.capital || (s.capital === was.capital && s.truckId < was.truckId)) out.set(s.period, { truckId: s.truckId, capital: s.capital });
   }
   return out;
 }

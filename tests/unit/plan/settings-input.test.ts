@@ -3,6 +3,7 @@ import {
   budgetToStored,
   budgetWarning,
   cheapestSwapByPeriod,
+  dueSwapsOf,
   planFieldLabel,
   planFormText,
   readBudgetText,
@@ -66,11 +67,10 @@ describe('budgets are typed in thousands and stored in whole currency', () => {
 
 describe('the warning under a budget below the cheapest repower due in its year', () => {
   const due = [
-    { truckId: 'T3-01', capital: 1_900_000.4, capitalYear: 1 },
-    { truckId: 'T3-02', capital: 2_400_000, capitalYear: 1 },
-    { truckId: 'T3-03', capital: 2_100_000, capitalYear: 2 },
-    { truckId: 'T3-04', capital: 0, capitalYear: null },
-    { truckId: 'T3-05', capital: 0, capitalYear: 3 },
+    { truckId: 'T3-01', capital: 1_900_000.4, period: 1 },
+    { truckId: 'T3-02', capital: 2_400_000, period: 1 },
+    { truckId: 'T3-03', capital: 2_100_000, period: 2 },
+    { truckId: 'T3-05', capital: 0, period: 3 },
   ];
   const cheapest = cheapestSwapByPeriod(due);
 
@@ -79,6 +79,30 @@ describe('the warning under a budget below the cheapest repower due in its year'
       [1, { truckId: 'T3-01', capital: 1_900_000.4 }],
       [2, { truckId: 'T3-03', capital: 2_100_000 }],
     ]);
+  });
+
+  it('counts only on-time swaps: repower now or at a planned overhaul, not keep, rebuild or a delayed swap', () => {
+    const options = (o: Array<[string, number, number | null, number[]]>) => o.map(([kind, delayMonths, swapPeriod, plannedCapital]) => ({ kind, delayMonths, swapPeriod, plannedCapital }));
+    const swaps = dueSwapsOf([
+      {
+        truckId: 'T2-05',
+        options: options([
+          ['keep', 0, null, []],
+          ['rebuild', 0, null, []],
+          ['now', 0, 0, [1_890_000]],
+          ['event', 0, 1, [0, 1_890_000]],
+          ['event', 3, 2, [0, 0, 1_937_250]],
+        ]),
+      },
+      { truckId: 'T3-04', options: options([['event', 0, 3, [0, 0, 0, 0]]]) },
+    ]);
+    expect(swaps).toEqual([
+      { truckId: 'T2-05', capital: 1_890_000, period: 0 },
+      { truckId: 'T2-05', capital: 1_890_000, period: 1 },
+      { truckId: 'T3-04', capital: 0, period: 3 },
+    ]);
+    // a swap with no planned capital in its period sets no floor for its budget
+    expect(cheapestSwapByPeriod(swaps).get(3)).toBeUndefined();
   });
 
   it('warns below the cheapest, not at or above it, not without a budget or a swap due', () => {
