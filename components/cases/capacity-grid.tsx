@@ -47,8 +47,8 @@ export function CapacityGrid({
           <thead>
             <tr>
               <th className="pr-2 text-left font-normal text-muted">Period</th>
-              {Array.from({ length: 12 }, (_, c) => (
-                <th key={c} className="px-0.5 text-center font-normal text-muted">{c + 1}</th>
+              {Array.from({ length: Math.min(12, months) }, (_, c) => (
+                <th key={c} className="px-0.5 text-center font-normal text-muted">{MONTH_NAMES[Number(monthLabel(startMonth, c).slice(5)) - 1].slice(0, 3)}</th>
               ))}
             </tr>
           </thead>
@@ -69,15 +69,14 @@ export function CapacityGrid({
                     const shutdown = value === 0;
                     const changed = value !== null && value !== fallback;
                     const err = errorOf(m);
-                    const month = Number(label.slice(5)) - 1;
                     return (
                       <td key={m} className="px-0.5 py-0.5 align-top">
                         <div
-                          className={`rounded border px-0.5 text-center ${shutdown ? 'border-caution-rule bg-caution-ground' : changed ? 'border-accent' : 'border-transparent'}`}
+                          title={shutdown ? `${label}: shutdown, no swaps` : changed ? `${label}: ${value} swaps, not the usual ${fallback ?? ''}` : `${label}: the usual capacity`}
+                          className={`rounded border p-0.5 text-center ${shutdown ? 'border-caution-rule bg-caution-ground' : changed ? 'border-accent' : 'border-transparent'}`}
                           data-testid={`capacity-cell-${label}`}
                           data-state={shutdown ? 'shutdown' : changed ? 'changed' : 'default'}
                         >
-                          <span className="block text-muted" aria-hidden="true">{MONTH_NAMES[month].slice(0, 3)}</span>
                           <input
                             aria-label={capacityLabel(label)}
                             inputMode="numeric"
@@ -89,7 +88,7 @@ export function CapacityGrid({
                             aria-invalid={!!err}
                             aria-describedby={err ? `capacity-errors-${r}` : undefined}
                           />
-                          <span className="block font-semibold text-caution" data-testid={`capacity-note-${label}`}>{shutdown ? 'shutdown' : '\u00a0'}</span>
+                          {shutdown ? <span className="block font-semibold text-caution" data-testid={`capacity-note-${label}`}>shutdown</span> : null}
                         </div>
                       </td>
                     );

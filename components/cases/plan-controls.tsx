@@ -40,9 +40,8 @@ export function PlanControls({ data, slug, canEdit, numberFormat, onSaved }: { d
   const fy = data.fiscalYearStartMonth;
   const currency = data.currency;
   const months = horizonMonths(data);
-  const years = [
-    ...new Set([...data.plan.years.map((y) => y.year), ...data.summary.capitalByYear.map((c) => c.year), ...Object.keys(stored.budgets).map(Number)]),
-  ].sort((a, b) => a - b);
+  // a budget field for every period of the horizon (0 = now), and for any period a stored budget names
+  const years = [...new Set([...Array.from({ length: months / 12 + 1 }, (_, p) => p), ...Object.keys(stored.budgets).map(Number)])].sort((a, b) => a - b);
   const cheapest = useMemo(() => cheapestSwapByPeriod(data.dueSwaps), [data.dueSwaps]);
   const [text, setText] = useState<PlanFormText>(() => planFormText(stored, numberFormat, months));
   const [problems, setProblems] = useState<Problem[]>([]);
@@ -59,7 +58,7 @@ export function PlanControls({ data, slug, canEdit, numberFormat, onSaved }: { d
   const ctx = {
     format: numberFormat,
     currency,
-    periodName: (p: number) => periodName(text.startMonth || stored.startMonth, p, fy),
+    periodName: (p: number) => periodName(stored.startMonth, p, fy),
     monthLabel: (m: number) => monthLabel(stored.startMonth, m),
     keepOverrides: Object.fromEntries(Object.entries(stored.capacityByMonth ?? {}).filter(([m]) => Number(m) >= months)),
   };
