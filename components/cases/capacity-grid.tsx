@@ -6,8 +6,8 @@ import { monthLabel } from '@/lib/plan/schedule';
 import { capacityLabel } from '@/lib/plan/settings-input';
 
 /**
- * The shop's swaps month by month: one field per month of the plan's
- * horizon, a row per plan period. An empty field takes the default (swaps
+ * The shop's swaps month by month: one field per month in which the
+ * programme can plan a swap (`formExtent`), a row per plan period. An empty field takes the default (swaps
  * per month, shown greyed); a month set to 0 is a shutdown and is marked so;
  * a month that differs from the default is marked as changed. Only those
  * months are saved (the form reads the text with `readPlanForm`).

@@ -10,6 +10,7 @@ import {
   budgetLabel,
   budgetWarning,
   cheapestSwapByPeriod,
+  formExtent,
   MAX_DELAY_LABEL,
   planFieldLabel,
   planFormText,
@@ -22,11 +23,8 @@ import {
 } from '@/lib/plan/settings-input';
 import { CapacityGrid } from './capacity-grid';
 
-/** Months of the plan's horizon (the case's longest), at most the 240 the settings take. */
-function horizonMonths(data: CaseResultDto): number {
-  const periods = Math.max(2, ...Object.values(data.discountFactors).map((d) => d.length));
-  return Math.min(240, (periods - 1) * 12);
-}
+/** Periods of the case's horizon (0 = now … the longest truck's last year). */
+const horizonPeriods = (data: CaseResultDto) => Math.max(2, ...Object.values(data.discountFactors).map((d) => d.length));
 
 /**
  * The plan settings: a budget per fiscal year of spend (typed in the tables'
@@ -39,9 +37,9 @@ export function PlanControls({ data, slug, canEdit, numberFormat, onSaved }: { d
   const stored = data.case.plan;
   const fy = data.fiscalYearStartMonth;
   const currency = data.currency;
-  const months = horizonMonths(data);
-  // a budget field for every period of the horizon (0 = now), and for any period a stored budget names
-  const years = [...new Set([...Array.from({ length: months / 12 + 1 }, (_, p) => p), ...Object.keys(stored.budgets).map(Number)])].sort((a, b) => a - b);
+  const { lastPeriod, months } = formExtent(data.dueSwaps, horizonPeriods(data));
+  // a budget field for every period up to the last swap due (0 = now), and for any period the plan or a stored budget names
+  const years = [...new Set([...Array.from({ length: lastPeriod + 1 }, (_, p) => p), ...data.plan.years.map((y) => y.year), ...Object.keys(stored.budgets).map(Number)])].sort((a, b) => a - b);
   const cheapest = useMemo(() => cheapestSwapByPeriod(data.dueSwaps), [data.dueSwaps]);
   const [text, setText] = useState<PlanFormText>(() => planFormText(stored, numberFormat, months));
   const [problems, setProblems] = useState<Problem[]>([]);

@@ -131,6 +131,21 @@ export function cheapestSwapByPeriod(swaps: DueSwap[]): Map<number, { truckId: s
 }
 
 /**
+ * How far the form reaches: budget fields for periods 0 … the last period
+ * with a swap due, and capacity fields for the months up to a year past that
+ * period's end (a swap may be planned up to 12 months late), both within the
+ * horizon (`periods`: 0 = now … the longest truck's last year). Past that no
+ * option plans a swap, so a figure there would change nothing.
+ *
+ * @example formExtent([{ truckId: 'T1', capital: 1, period: 3 }], 13) // → { lastPeriod: 3, months: 48 }
+ */
+export function formExtent(swaps: DueSwap[], periods: number): { lastPeriod: number; months: number } {
+  const horizonMonths = Math.min(240, Math.max(1, periods - 1) * 12);
+  const last = Math.min(Math.max(1, ...swaps.map((s) => s.period)), Math.max(1, periods - 1));
+  return { lastPeriod: last, months: Math.min(horizonMonths, 12 * (last + 1)) };
+}
+
+/**
  * The warning under a budget: when it is below the cheapest repower due in
  * its period, no swap due then fits it. Null without a budget, without a swap
  * due, or at or above the cheapest. The cheapest is given in thousands,

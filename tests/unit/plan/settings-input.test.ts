@@ -4,6 +4,7 @@ import {
   budgetWarning,
   cheapestSwapByPeriod,
   dueSwapsOf,
+  formExtent,
   planFieldLabel,
   planFormText,
   readBudgetText,
@@ -116,6 +117,18 @@ describe('the warning under a budget below the cheapest repower due in its year'
     expect(budgetWarning(3_000_000, cheapest.get(1), c)).toBeNull();
     expect(budgetWarning(null, cheapest.get(1), c)).toBeNull();
     expect(budgetWarning(0, cheapest.get(3), c)).toBeNull();
+  });
+});
+
+describe('how far the form reaches', () => {
+  it('asks for budgets up to the last period with a swap due and capacity up to a year past it, within the horizon', () => {
+    const swap = (period: number) => ({ truckId: 'T1', capital: 1, period });
+    expect(formExtent([swap(1), swap(3)], 13)).toEqual({ lastPeriod: 3, months: 48 });
+    // the horizon ends first: months 0 … 12·(periods − 1) − 1
+    expect(formExtent([swap(6)], 7)).toEqual({ lastPeriod: 6, months: 72 });
+    // no swap due: the first year still has its fields
+    expect(formExtent([], 5)).toEqual({ lastPeriod: 1, months: 24 });
+    expect(formExtent([swap(0)], 1)).toEqual({ lastPeriod: 1, months: 12 });
   });
 });
 
