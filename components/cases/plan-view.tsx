@@ -5,13 +5,14 @@ import useSWR from 'swr';
 import type { CaseResultDto } from '@/lib/cases/types';
 import type { ApiError } from '@/lib/fetcher';
 import { formatMoney, formatNumber } from '@/lib/format';
+import type { NumberFormat } from '@/lib/number-input';
 import { periodMonths, periodName } from '@/lib/plan/fiscal-year';
 import { EvaluationProblems, ResultsSkeleton } from './case-results';
 import { PlanControls } from './plan-controls';
 import { POLICY_LABEL } from './policy';
 
 /** Ranking for repower, the exact capital plan per year of spend, and the swap schedule. */
-export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: number; canEdit: boolean }) {
+export function PlanView({ slug, caseId, canEdit, numberFormat }: { slug: string; caseId: number; canEdit: boolean; numberFormat: NumberFormat }) {
   const { data, error, isLoading, mutate } = useSWR<CaseResultDto, ApiError>(`/api/workspaces/${slug}/cases/${caseId}/result`);
   if (error) return <EvaluationProblems error={error} />;
   if (isLoading || !data) return <ResultsSkeleton />;
@@ -23,7 +24,7 @@ export function PlanView({ slug, caseId, canEdit }: { slug: string; caseId: numb
   const yearName = (y: number | null) => (y === null ? '—' : periodName(start, y, data.fiscalYearStartMonth));
   return (
     <div className="space-y-4">
-      <PlanControls data={data} slug={slug} canEdit={canEdit} onSaved={() => mutate()} />
+      <PlanControls data={data} slug={slug} canEdit={canEdit} numberFormat={numberFormat} onSaved={() => mutate()} />
       <section aria-label="Capital plan" className="card p-3" data-testid="capital-plan">
         <h2 className="text-sm font-semibold">The proposal: each truck&rsquo;s repower timing that maximises the fleet&rsquo;s expected NPV within the budgets and the shop&rsquo;s capacity</h2>
         <p className="text-sm" data-testid="plan-proposal">

@@ -15,6 +15,7 @@ import { buildDecisionSummary } from './decision-summary';
 import { fleetByYear } from './fleet-years';
 import { programmeOf } from './programme';
 import { proposalFromProgramme } from './proposal';
+import { dueSwapsOf } from '@/lib/plan/settings-input';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
 import { cachedEvaluation } from './result-cache';
@@ -132,7 +133,8 @@ export async function evaluateInputs(access: Access, inputs: CaseInputs): Promis
     trucks[d.truckId] = metaFor(file, truckRows, d.truckId, timelines(d, annual));
   }
   // the proposal is the fleet programme's answer under the saved budgets and shop capacity
-  const built = proposalFromProgramme(result, await programmeOf(file, row.plan), row.plan);
+  const programme = await programmeOf(file, row.plan);
+  const built = proposalFromProgramme(result, programme, row.plan);
   const { ranking, plan, schedule } = built;
   const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
   const source = inputs.source;
@@ -165,6 +167,7 @@ export async function evaluateInputs(access: Access, inputs: CaseInputs): Promis
     ranking,
     plan,
     schedule,
+    dueSwaps: dueSwapsOf(programme.options),
     proposal,
     fiscalYearStartMonth,
     discountFactors: Object.fromEntries(details.map((d) => [d.truckId, d.policies.repower.periods.map((p) => p.discountFactor)])),

@@ -1,6 +1,7 @@
 /** Shapes the case API answers with; shared by route handlers and the client screens. */
 import type { CaseResult, EventKind, PolicyKey, PolicyResult, TruckDetail, TruckResult } from '@/lib/engine/types';
 import type { CapitalPlan, PlacedSwap, RankedTruck } from '@/lib/plan';
+import type { DueSwap } from '@/lib/plan/settings-input';
 import type { PlanSettings } from '@/lib/validation/business-case';
 import type { FleetYear } from './fleet-years';
 import type { DecisionSummary } from './decision-summary';
@@ -67,6 +68,8 @@ export type EvaluatedCase = {
   ranking: RankedTruck[];
   plan: CapitalPlan;
   schedule: ScheduledSwap[];
+  /** every swap the programme can plan on time (repower now or at a planned overhaul, no delay) with its planned capital and period: what the budget warnings read */
+  dueSwaps: DueSwap[];
   /** the proposal's figures (the decision summary without the drivers and the risk, which its own route adds) */
   proposal: DecisionSummary;
   /** month (1..12) the workspace's fiscal year starts in */

@@ -155,13 +155,15 @@ describe('business cases in the browser', () => {
     const y = years.includes(1) ? 1 : years[0];
     // budgets are by fiscal year: the plan's periods are named by the fiscal year they start in (January by default)
     const label = ((await page.locator(`label[for="budget-${y}"]`).textContent()) ?? '').trim();
-    expect(label).toMatch(new RegExp(`^FY\\d{4}${y === 0 ? ' \\(now\\)' : ''} budget$`));
+    // typed in the unit the table shows, thousands of the currency
+    expect(label).toMatch(new RegExp(`^FY\\d{4}${y === 0 ? ' \\(now\\)' : ''} budget \\(USD k\\)$`));
     const units = (t: string | null) => (t ?? '').match(/T\d-\d\d/g)?.length ?? 0;
     const chosenBefore = units(await page.getByTestId(`chosen-${y}`).textContent());
-    await page.getByLabel(label, { exact: true }).fill('3,000,000');
+    await page.getByLabel(label, { exact: true }).fill('3,000');
     await page.getByLabel('Swaps per month').fill('1');
     await page.getByRole('button', { name: 'Save and plan' }).click();
     await page.getByText('Plan saved.').waitFor();
+    expect(await page.getByLabel(label, { exact: true }).inputValue()).toBe('3,000');
     const row = plan.locator(`tbody tr[data-year="${y}"]`);
     expect(num((await row.locator('td').nth(1).textContent()) ?? '')).toBe(3000);
     expect(num((await row.locator('td').nth(2).textContent()) ?? '')).toBeLessThanOrEqual(3000);

@@ -183,7 +183,7 @@ describe('the decision summary and the frozen record', () => {
       const id = (await copy.json()).case.id;
       await page.goto(`${baseURL}/${WS}/cases/${id}/plan`);
       await page.getByTestId('capital-plan').waitFor();
-      expect(await page.getByLabel('FY2028 budget').inputValue()).toBe('10000000');
+      expect(await page.getByLabel('FY2028 budget (USD k)', { exact: true }).inputValue()).toBe('10,000');
       await screenshot(page, 'plan-july-fiscal-year');
     } finally {
       await page.goto(`${baseURL}/${WS}/settings`);

@@ -22,7 +22,7 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
       <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Ranking, capital plan and schedule" />
       <PageHeader title={`${c.name}: ranking and plan`} subtitle="The proposal: which trucks to repower within each fiscal year's capital budget, and when the shop swaps them." />
       <CaseNav slug={workspace} caseId={c.id} current="plan" />
-      <PlanView slug={workspace} caseId={c.id} canEdit={hasRole(access, CAN.edit)} />
+      <PlanView slug={workspace} caseId={c.id} canEdit={hasRole(access, CAN.edit)} numberFormat={access.workspace.settings.numberFormat} />
       <SafetyCaution />
     </>
   );
