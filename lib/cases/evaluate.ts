@@ -58,7 +58,7 @@ export async function loadValidCase(access: Access, id: number): Promise<Loaded>
   });
   if (problems.length) throw invalid(problems, 'This case cannot be evaluated.');
   const offerOverrides = Object.fromEntries(row.selection.map((s) => [s.truckId, s.repowerOfferId]));
-  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides });
+  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides, truckFigures: row.truckFigures });
   const v = validateCase(built);
   if (!v.ok) {
     // name the truck beside its index so a planner can find it in the register
