@@ -27,7 +27,7 @@ describe('readings import template', () => {
   it('the XLSX has a header-only "Readings" sheet and a "Columns" sheet with each column, whether required, what it holds and an example', async () => {
     const bytes = await readingsTemplateXlsx({ unit: 'T7-02', engine: 'km-new', engines: ['km-new', 'old-eng'] });
     const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(Buffer.from(bytes));
+    await wb.xlsx.load(bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength) as ArrayBuffer);
     expect(wb.worksheets.map((w) => w.name)).toEqual(['Readings', 'Columns']);
     const sheet = wb.getWorksheet('Readings')!;
     expect(sheet.rowCount).toBe(1);
