@@ -227,3 +227,23 @@ export async function createReforecast(
   });
   return { id, name, preview };
 }
+
+/** A case's own truck figures (a re-forecast case's) with unit numbers and engine keys, for its page; [] when it has none. */
+export async function listOwnTruckFigures(k: Knex, workspaceId: number, figures: TruckFigures) {
+  const ids = Object.keys(figures).map(Number);
+  if (ids.length === 0) return [];
+  const [trucks, engines] = await Promise.all([
+    k('trucks').where({ workspaceId }).whereIn('id', ids).select('id', 'unitNumber'),
+    k('engine_types').where({ workspaceId }).select('id', 'key'),
+  ]);
+  const engineKey = new Map<number, string>(engines.map((e) => [e.id as number, e.key as string]));
+  return trucks
+    .map((t) => {
+      const f = figures[String(t.id)];
+      return {
+        truckId: t.id as number, unitNumber: t.unitNumber as string, engineHours: f.engineHours ?? null, annualHours: f.annualHours ?? null,
+        fuelBurnLitresPerHour: f.fuelBurnLitresPerHour ?? null, engineKey: f.engineTypeId !== undefined ? engineKey.get(f.engineTypeId) ?? null : null,
+      };
+    })
+    .sort((a, b) => (a.unitNumber < b.unitNumber ? -1 : a.unitNumber > b.unitNumber ? 1 : 0));
+}
