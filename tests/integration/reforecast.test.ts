@@ -10,6 +10,9 @@ import type { Knex } from 'knex';
 import { useDbForTests } from '@/lib/db';
 import { GET as getPreview, POST as postReforecast } from '@/app/api/workspaces/[workspace]/cases/[id]/reforecast/route';
 import { GET as getResult } from '@/app/api/workspaces/[workspace]/cases/[id]/result/route';
+import { POST as copyCase } from '@/app/api/workspaces/[workspace]/cases/[id]/copy/route';
+import { POST as submitCase } from '@/app/api/workspaces/[workspace]/cases/[id]/submit/route';
+import { setOutboxKicksForTests } from '@/lib/mail/queue';
 import { deriveFigures } from '@/lib/readings/derive';
 import { createTestDb } from '../support/test-db';
 import { call } from './support/call';
@@ -71,7 +74,10 @@ describe.each([
     const now = new Date().toISOString();
     await k('truck_readings').insert(EXAMPLE.map((r) => ({ workspaceId: wsId, truckId: truck['T3-05'], ...r, failures: 0, daysDown: 0, notes: '', version: 1, createdAt: now, updatedAt: now })));
   });
-  afterAll(async () => destroy());
+  afterAll(async () => {
+    setOutboxKicksForTests('background');
+    await destroy();
+  });
 
   const preview = async (query = '') => call(getPreview, { workspace: WS, id: String(approvedId) }, { url: `http://127.0.0.1/api/test${query}` });
   const byUnit = (body: { trucks: Truck[] }, unit: string) => body.trucks.find((t) => t.unitNumber === unit)!;
@@ -157,6 +163,24 @@ describe.each([
     expect(JSON.parse(audit[0].before)).toEqual({ reforecastOf: approvedId, windowMonths: 12, readingsTo: '2026-11' });
     expect(JSON.parse(audit[0].after).truckFigures['T3-05']).toMatchObject({ engineHours: 1000, annualHours: 6000, fuelBurnLitresPerHour: 200, source: 'readings to 2026-03' });
     expect(JSON.parse(audit[0].after).truckFigures['T3-03'].source).toBe('kept (no readings)');
+  });
+
+  it('a copy of the re-forecast draft keeps its figures, and its submission snapshot holds them', async () => {
+    signInAs(ids['analyst@aldervane.test']);
+    setOutboxKicksForTests('off');
+    const id = (await k('business_cases').where({ workspaceId: wsId }).where('name', 'like', '% — re-forecast 2026-11').first('id')).id as number;
+    const copy = await call(copyCase, { workspace: WS, id: String(id) }, { body: {} });
+    expect(copy.status).toBe(201);
+    const copied = await call(getResult, { workspace: WS, id: String(copy.body.case.id) });
+    expect(copied.body.trucks['T3-05']).toMatchObject({ engineHours: 1000, annualHours: 6000 });
+    const version = (await k('business_cases').where({ id }).first('version')).version;
+    const submitted = await call(submitCase, { workspace: WS, id: String(id) }, { body: { comment: 'Re-forecast from readings.', version } });
+    expect(submitted.status).toBe(200);
+    const snapshot = JSON.parse((await k('business_cases').where({ id }).first('submittedCase')).submittedCase);
+    const t5 = snapshot.trucks.find((t: { id: string }) => t.id === 'T3-05');
+    expect(t5).toMatchObject({ engineHours: 1000, annualHours: 6000, fuelBurnLitresPerHour: 200, engineId: 'ac-2600-legacy' });
+    expect(snapshot.trucks.find((t: { id: string }) => t.id === 'T3-14').engineId).toBe('km-2700-bypass');
+    expect(snapshot.engines.map((e: { id: string }) => e.id)).toContain('km-2700-bypass');
   });
 
   it('refuses a case that is not approved with 409, and saves nothing', async () => {
