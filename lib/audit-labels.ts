@@ -29,6 +29,7 @@ export const ACTION_LABELS: Record<string, string> = {
   'update-plan': 'plan changed',
   copy: 'copied',
   'create-revision': 'new revision',
+  reforecast: 're-forecast from readings',
   submit: 'submitted for approval',
   approve: 'approved',
   reject: 'rejected',

@@ -192,6 +192,11 @@ function ImportReadings({ ws, columns, onDone }: { ws: WorkspaceView; columns: A
         One row per truck and month (CSV in UTF-8 or XLSX; 5 MB and 10,000 rows at most), checked row by row and saved all or nothing. A meter reading lower
         than the month before (except in a repower month), a month in the future, an unknown unit number or a month twice are row errors.
       </p>
+      <p className="mt-2 text-sm" data-testid="readings-template">
+        Template (the import&rsquo;s columns, header only):{' '}
+        <a className="text-accent underline" href={`${api(ws.slug, 'readings/template')}?format=xlsx`} download>XLSX, with a sheet explaining each column</a>{' '}
+        or <a className="text-accent underline" href={`${api(ws.slug, 'readings/template')}?format=csv`} download>CSV</a>
+      </p>
       <details className="mt-2 text-sm">
         <summary className="cursor-pointer text-muted">Columns</summary>
         <table className="data-table mt-1">

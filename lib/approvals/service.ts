@@ -118,6 +118,7 @@ export async function createRevision(access: Access, id: number): Promise<{ id: 
       assumptionSetId: row.assumptionSetId,
       selection: row.selection,
       plan: row.plan,
+      truckFigures: row.truckFigures ?? null,
       status: 'draft',
       revisionOf: id,
       version: 1,

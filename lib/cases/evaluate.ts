@@ -79,7 +79,7 @@ export async function loadCaseInputs(access: Access, id: number): Promise<CaseIn
   const truckRows: TruckRows = new Map(found.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }]));
   if (problems.length) return { row, file: null, source: 'live', problems, truckRows };
   const offerOverrides = Object.fromEntries(row.selection.map((s) => [s.truckId, s.repowerOfferId]));
-  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides });
+  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides, truckFigures: row.truckFigures });
   return { row, file: built, source: 'live', problems, truckRows };
 }
 

@@ -4,6 +4,7 @@
  * the capital-plan settings. One schema per shape, shared by forms and handlers.
  */
 import { z } from '@/lib/validation/zod';
+import { ranged, truckSchema } from './case';
 import { plainText } from './fleet';
 
 /** Largest budget for one year of the capital plan. */
@@ -63,6 +64,33 @@ export const updateCaseSchema = z.strictObject({
 });
 
 export const copyCaseSchema = z.strictObject({ name: caseNameSchema.optional() });
+
+/**
+ * A case's own figures for a truck in place of the register's (a re-forecast
+ * case holds those derived from the truck's readings; migration 0018). Each
+ * figure has the case file's own range.
+ */
+export const caseTruckFiguresSchema = z.strictObject({
+  engineHours: truckSchema.shape.engineHours.optional(),
+  annualHours: truckSchema.shape.annualHours.optional(),
+  fuelBurnLitresPerHour: ranged(0, 10_000, 'litres per hour', true).optional(),
+  engineTypeId: id.optional(),
+});
+/** By truck row id (as text, the JSON key). */
+export const truckFiguresSchema = z.record(z.string().regex(/^\d{1,9}$/, 'must be a truck id'), caseTruckFiguresSchema);
+export type CaseTruckFigures = z.infer<typeof caseTruckFiguresSchema>;
+export type TruckFigures = Record<string, CaseTruckFigures>;
+
+/** Stored truckFigures JSON, or {} when none (or unreadable: the case then reads the register). */
+export function readTruckFigures(json: string | null | undefined): TruckFigures {
+  if (!json) return {};
+  try {
+    const parsed = truckFiguresSchema.safeParse(JSON.parse(json));
+    return parsed.success ? parsed.data : {};
+  } catch {
+    return {};
+  }
+}
 
 export type Selection = z.infer<typeof selectionSchema>;
 export type PlanSettings = z.infer<typeof planSettingsSchema>;

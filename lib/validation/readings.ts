@@ -4,6 +4,7 @@
  * (`ranged`, listed in docs/methodology.md "Input limits").
  */
 import { z } from '@/lib/validation/zod';
+import { caseNameSchema } from './business-case';
 import { MAX_MONEY, ranged } from './case';
 import { plainText } from './fleet';
 
@@ -88,4 +89,13 @@ export const acceptSchema = z.object({
     .array(z.enum(['engineHours', 'annualHours', 'fuelBurnLitresPerHour', 'engineTypeId']))
     .min(1, 'choose at least one figure')
     .max(4),
+});
+
+/** The derivation window when none is asked (the readings page's default too). */
+export const DEFAULT_WINDOW_MONTHS = 12;
+
+/** Re-forecast (POST …/cases/[id]/reforecast): the window of the derived figures and, optionally, the new case's name. */
+export const reforecastSchema = z.strictObject({
+  windowMonths: windowMonthsSchema.default(DEFAULT_WINDOW_MONTHS),
+  name: caseNameSchema.optional(),
 });

@@ -2,6 +2,7 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { db } from '../index';
 import { assumptionsOfRow } from '../assumption-columns';
+import type { CaseTruckFigures } from '@/lib/validation/business-case';
 
 /**
  * Builds a `case/1` object (MODEL.md section 10) from a workspace's stored data.
@@ -18,6 +19,11 @@ export type CaseSelection = {
   offerOverrides?: Record<number, number | null | undefined>;
   /** Include every engine type and offer, not only those the trucks refer to (case file download). */
   includeAll?: boolean;
+  /**
+   * Per truck row id, the case's own figures in place of the register's (a
+   * re-forecast case's figures from readings, `business_cases.truckFigures`).
+   */
+  truckFigures?: Record<string, CaseTruckFigures | undefined>;
 };
 
 const ENGINE_FIELDS = [
@@ -40,7 +46,7 @@ export async function buildCaseFile(workspaceId: number, sel: CaseSelection, k: 
   if (!ws || !set) throw new Error('Workspace or assumption set not found');
   let truckQuery = k('trucks').where({ workspaceId }).orderBy('unitNumber');
   if (sel.truckIds) truckQuery = truckQuery.whereIn('id', sel.truckIds);
-  const trucks = await truckQuery;
+  const registerTrucks = await truckQuery;
   const engines = await k('engine_types').where({ workspaceId }).orderBy('key');
   const offers = await k('repower_offers').where({ workspaceId }).orderBy('key');
   const engineKey = new Map<number, string>(engines.map((e) => [e.id, e.key]));
@@ -50,6 +56,14 @@ export async function buildCaseFile(workspaceId: number, sel: CaseSelection, k: 
     const o = sel.offerOverrides?.[t.id];
     return o === undefined || o === null ? t.repowerOfferId : o;
   };
+  // the case's own figures replace the register's; an engine type it names must still be the workspace's
+  const ownFigures = <T extends { id: number; engineTypeId: number }>(t: T): T => {
+    const f = sel.truckFigures?.[String(t.id)];
+    if (!f) return t;
+    const { engineTypeId, ...figures } = f;
+    return { ...t, ...figures, engineTypeId: engineTypeId !== undefined && engineKey.has(engineTypeId) ? engineTypeId : t.engineTypeId };
+  };
+  const trucks = registerTrucks.map(ownFigures);
   const usedOffers = new Set(trucks.map(truckOffer).filter((x): x is number => x != null));
   const usedEngines = new Set<number>(trucks.map((t) => t.engineTypeId));
   for (const o of offers) if (usedOffers.has(o.id)) usedEngines.add(o.engineTypeId);

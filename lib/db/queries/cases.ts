@@ -4,7 +4,7 @@ import { writeAudit } from '@/lib/audit';
 import type { Access } from '@/lib/auth/access';
 import { conflict, invalid, notFound, type Problem } from '@/lib/http';
 import { nowIso } from '@/lib/time';
-import { readPlanSettings, type CreateCaseInput, type PlanSettings, type Selection, type UpdateCaseInput } from '@/lib/validation/business-case';
+import { readPlanSettings, readTruckFigures, type CreateCaseInput, type PlanSettings, type Selection, type TruckFigures, type UpdateCaseInput } from '@/lib/validation/business-case';
 import { db } from '../index';
 
 export type CaseRow = {
@@ -14,6 +14,8 @@ export type CaseRow = {
   assumptionSetName: string | null;
   selection: Selection;
   plan: PlanSettings;
+  /** the case's own figures per truck row id in place of the register's (a re-forecast case); {} = the register's */
+  truckFigures: TruckFigures;
   status: string;
   version: number;
   /** canonical case/1 JSON frozen on approval, or null */
@@ -34,6 +36,7 @@ function toCase(r: Raw): CaseRow {
     assumptionSetName: r.assumptionSetName ?? null,
     selection: JSON.parse(r.selection || '[]'),
     plan: readPlanSettings(r.plan, r.createdAt),
+    truckFigures: readTruckFigures(r.truckFigures),
     status: r.status,
     version: r.version,
     frozenCase: r.frozenCase ?? null,
@@ -162,7 +165,7 @@ export async function copyCase(access: Access, id: number, name?: string): Promi
     if (!src) throw notFound('No such business case in this workspace.');
     const now = nowIso();
     const [row] = await trx('business_cases')
-      .insert({ workspaceId: wsId, name: name ?? `${src.name} (copy)`.slice(0, 200), assumptionSetId: src.assumptionSetId, selection: JSON.stringify(src.selection), plan: JSON.stringify(src.plan), status: 'draft', version: 1, createdBy: access.userId, updatedBy: access.userId, createdAt: now, updatedAt: now })
+      .insert({ workspaceId: wsId, name: name ?? `${src.name} (copy)`.slice(0, 200), assumptionSetId: src.assumptionSetId, selection: JSON.stringify(src.selection), plan: JSON.stringify(src.plan), truckFigures: Object.keys(src.truckFigures).length ? JSON.stringify(src.truckFigures) : null, status: 'draft', version: 1, createdBy: access.userId, updatedBy: access.userId, createdAt: now, updatedAt: now })
       .returning('id');
     const created = (await fetchCase(wsId, typeof row === 'object' ? row.id : row, trx)) as CaseRow;
     await writeAudit(trx, { workspaceId: wsId, userId: access.userId, action: 'copy', entity: 'business_case', entityId: created.id, before: { copiedFrom: id }, after: snapshot(created) });

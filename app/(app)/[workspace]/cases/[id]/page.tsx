@@ -6,6 +6,7 @@ import { CaseNav } from '@/components/cases/case-nav';
 import { CaseSettings } from '@/components/cases/case-settings';
 import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
 import { CaseResults } from '@/components/cases/case-results';
+import { OwnTruckFigures } from '@/components/cases/own-truck-figures';
 import { DecisionPackLink } from '@/components/cases/decision-pack-link';
 import { ExportButtons } from '@/components/export/export-buttons';
 import { PrintHeader } from '@/components/ui/print-header';
@@ -15,6 +16,8 @@ import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
 import { fetchPreviousRevision } from '@/lib/cases/compare-load';
 import { fetchCase } from '@/lib/db/queries/cases';
+import { listOwnTruckFigures } from '@/lib/db/queries/reforecast';
+import { db } from '@/lib/db';
 
 export const metadata: Metadata = { title: 'Case results' };
 
@@ -27,6 +30,8 @@ export default async function CasePage({ params, searchParams }: Props) {
   const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
   if (!c) notFound();
   const previous = await fetchPreviousRevision(access.workspace.id, c.id);
+  // an approved or submitted case shows its frozen or submitted figures, which already hold these
+  const ownFigures = c.status === 'approved' || c.status === 'submitted' ? [] : await listOwnTruckFigures(db(), access.workspace.id, c.truckFigures);
   return (
     <>
       <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Results" />
@@ -39,6 +44,7 @@ export default async function CasePage({ params, searchParams }: Props) {
       {previous ? <p className="mb-3 text-sm"><Link className="text-accent underline" href={`/${workspace}/cases/compare?a=${previous.id}&b=${c.id}`}>What changed since the previous revision ({previous.name}, #{previous.id})</Link></p> : null}
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}
       <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
+      <OwnTruckFigures rows={ownFigures} />
       <CaseResults slug={workspace} caseId={c.id} />
       <div className="mt-4 max-w-2xl"><CaseApprovalPanel workspace={workspace} caseId={c.id} /></div>
       <SafetyCaution />
