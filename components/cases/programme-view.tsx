@@ -65,15 +65,15 @@ function TruckTable({ p, slug, caseId, neg }: { p: ProgrammeDto; slug: string; c
             return (
               <Fragment key={t.truckId}>
                 <tr data-truck={t.truckId} data-forced={t.forcedDelay ? 'yes' : 'no'} className={t.forcedDelay ? 'bg-caution-ground' : ''}>
-                  <td><Link className="font-mono text-xs text-accent hover:underline" href={`/${slug}/cases/${caseId}/trucks/${encodeURIComponent(t.truckId)}`}>{t.truckId}</Link></td>
+                  <td className="whitespace-nowrap"><Link className="font-mono text-xs text-accent hover:underline" href={`/${slug}/cases/${caseId}/trucks/${encodeURIComponent(t.truckId)}`}>{t.truckId}</Link></td>
                   <td data-cell="chosen">{t.chosen.label}</td>
-                  <td className="font-mono text-xs" data-cell="month">{t.chosen.monthLabel ?? 'no swap'}</td>
+                  <td className="whitespace-nowrap font-mono text-xs" data-cell="month">{t.chosen.monthLabel ?? 'no swap'}</td>
                   <td className="n" data-cell="capital">{k(t.chosen.plannedCapital)}</td>
                   <td className="n" data-cell="npv">{k(t.chosen.npv)}</td>
                   <td className={`n ${t.cost > 0 ? 'text-loss' : ''}`} data-cell="cost">{t.cost > 0 ? moneyK(t.cost, neg) : '0'}</td>
-                  <td className="text-xs" data-cell="note" data-testid={t.forcedDelay ? `moved-${t.truckId}` : undefined}>{note ?? (t.chosen.delayMonths > 0 ? `${t.chosen.delayMonths} month(s) past its due month: running the old engine on pays` : 'its best timing')}</td>
+                  <td className="min-w-64 text-xs" data-cell="note" data-testid={t.forcedDelay ? `moved-${t.truckId}` : undefined}>{note ?? (t.chosen.delayMonths > 0 ? `${t.chosen.delayMonths} month${t.chosen.delayMonths === 1 ? '' : 's'} past its due month: running the old engine on pays` : 'its best timing')}</td>
                   <td>
-                    <button type="button" className="btn py-0.5 text-xs" aria-expanded={shown} aria-controls={listId} onClick={() => toggle(t.truckId)}>
+                    <button type="button" className="btn whitespace-nowrap py-0.5 text-xs" aria-expanded={shown} aria-controls={listId} onClick={() => toggle(t.truckId)}>
                       {shown ? 'Hide' : 'Show'} {t.alternatives.length} alternative{t.alternatives.length === 1 ? '' : 's'}<span className="sr-only"> of {t.truckId}</span>
                     </button>
                   </td>

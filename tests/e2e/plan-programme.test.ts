@@ -104,6 +104,8 @@ describe('the fleet programme on the plan page', () => {
     await chart.locator('svg').first().waitFor();
     expect(await chart.locator('svg text').allTextContents()).toContain('Fiscal year of spend');
     expect(await chart.locator('svg rect').count()).toBeGreaterThanOrEqual(api.periods.filter((p) => p.plannedCapital > 0).length);
+    await chart.scrollIntoViewIfNeeded();
+    await screenshot(page, 'plan-programme-chart');
     const periods = page.getByTestId('programme-periods').locator('tbody tr');
     expect(await periods.count()).toBe(api.periods.length);
     for (const p of api.periods) {
@@ -119,6 +121,7 @@ describe('the fleet programme on the plan page', () => {
     const programmeBox = (await page.getByTestId('programme').boundingBox())!;
     const rankingBox = (await page.getByTestId('ranking-table').boundingBox())!;
     expect(rankingBox.y).toBeGreaterThan(programmeBox.y + programmeBox.height - 1);
+    await page.getByTestId('programme-binding').scrollIntoViewIfNeeded();
     await screenshot(page, 'plan-programme');
   });
 });
