@@ -101,11 +101,15 @@ describe('the fleet programme on the plan page', () => {
 
     // the fleet chart and its table: planned capital and expected cash flow by fiscal year, the API's figures
     const chart = page.getByTestId('programme-chart');
-    await chart.locator('svg').first().waitFor();
-    expect(await chart.locator('svg text').allTextContents()).toContain('Fiscal year of spend');
-    expect(await chart.locator('svg rect').count()).toBeGreaterThanOrEqual(api.periods.filter((p) => p.plannedCapital > 0).length);
     await chart.scrollIntoViewIfNeeded();
-    await screenshot(page, 'plan-programme-chart');
+    // drawn once the chart has measured its width: one bar per period, heights in proportion to planned capital
+    await chart.locator('rect.visx-bar').first().waitFor();
+    expect(await chart.locator('svg text').allTextContents()).toContain('Fiscal year of spend');
+    const heights = await chart.locator('rect.visx-bar').evaluateAll((rects) => rects.map((r) => Number(r.getAttribute('height'))));
+    expect(heights).toHaveLength(api.periods.length);
+    const most = Math.max(...api.periods.map((p) => p.plannedCapital));
+    const tallest = Math.max(...heights);
+    api.periods.forEach((p, i) => expect(Math.abs(heights[i] / tallest - p.plannedCapital / most)).toBeLessThan(0.01));
     const periods = page.getByTestId('programme-periods').locator('tbody tr');
     expect(await periods.count()).toBe(api.periods.length);
     for (const p of api.periods) {
