@@ -99,7 +99,7 @@ function Alternatives({ t, id, currency, neg }: { t: ProgrammeTruckDto; id: stri
   return (
     <table className="data-table my-1" id={id} data-testid={id}>
       <caption className="text-left text-xs text-muted">{t.truckId}: the other timings, best first, against the chosen ({optionWords(t.chosen)}, {k(t.chosen.npv)} {currency} k)</caption>
-      <thead><tr><th>Timing</th><th>Planned swap</th><th className="n">Planned capital ({currency} k)</th><th className="n">Expected NPV ({currency} k)</th><th className="n">Against the chosen ({currency} k)</th></tr></thead>
+      <thead><tr><th>Timing</th><th>Planned swap</th><th className="n">Planned capital ({currency} k)</th><th className="n">Expected NPV ({currency} k)</th><th className="n">Δ NPV against the chosen ({currency} k)</th></tr></thead>
       <tbody>
         {t.alternatives.map((a) => (
           <tr key={a.key} data-option={a.key}>
