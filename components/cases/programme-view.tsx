@@ -28,6 +28,7 @@ export function ProgrammeView({ programme: p, slug, caseId, headline }: { progra
         <>
           <TruckTable p={p} slug={slug} caseId={caseId} neg={neg} />
           <Binding p={p} neg={neg} />
+          <ShopMonths p={p} />
           <ProgrammeChart periods={p.periods} currency={p.currency} negative={neg} />
         </>
       ) : null}
@@ -130,6 +131,35 @@ function Binding({ p, neg }: { p: ProgrammeDto; neg: NegativeStyle }) {
             ))}
           </ul>
         </>
+      )}
+    </div>
+  );
+}
+
+/** The shop's months the plan uses or the settings change (a month with no swap at the usual capacity is left out). */
+function ShopMonths({ p }: { p: ProgrammeDto }) {
+  const usual = p.settings.swapsPerMonth;
+  const shown = p.months.filter((m) => m.used > 0 || m.capacity !== usual);
+  return (
+    <div className="overflow-x-auto">
+      <h3 className="text-sm font-semibold">The shop by month</h3>
+      <p className="text-xs text-muted">Planned swaps against the shop&rsquo;s capacity ({usual} a month unless set otherwise), in the months with a swap planned or a capacity of their own; a failure before the planned month brings a swap forward.</p>
+      {shown.length === 0 ? (
+        <p className="text-sm text-muted">No swap is planned and every month has the usual capacity.</p>
+      ) : (
+        <table className="data-table mt-1" data-testid="programme-months">
+          <thead><tr><th>Month</th><th className="n">Swaps planned</th><th className="n">Capacity (swaps)</th><th>Note</th></tr></thead>
+          <tbody>
+            {shown.map((m) => (
+              <tr key={m.month} data-month={m.label} className={m.shutdown ? 'bg-caution-ground' : ''}>
+                <td className="font-mono text-xs">{m.label}</td>
+                <td className="n" data-cell="used">{m.used}</td>
+                <td className="n" data-cell="capacity">{m.capacity}</td>
+                <td className="text-xs" data-cell="note">{m.shutdown ? 'shut' : m.used >= m.capacity ? 'full' : `room for ${m.capacity - m.used} more`}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
       )}
     </div>
   );

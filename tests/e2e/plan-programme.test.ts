@@ -99,6 +99,16 @@ describe('the fleet programme on the plan page', () => {
     expect(sentence).toMatch(paying.kind === 'capacity' ? new RegExp(`^One more swap in ${paying.label} adds [\\d.,]+ ${api.currency} k to the fleet's expected NPV`) : new RegExp(`^Another 1,000 ${api.currency} k in ${paying.label.replace(/[()]/g, '\\$&')} adds`));
     expect(Math.abs(figureAfter(sentence, 'adds')! - paying.gain / 1000)).toBeLessThanOrEqual(paying.gain < 10_000 ? 0.05 : 0.5);
 
+    // the shop by month: the months with a swap planned (or a capacity of their own), full ones said so
+    const shopMonths = api.months.filter((m) => m.used > 0 || m.capacity !== api.settings.swapsPerMonth);
+    expect(await page.getByTestId('programme-months').locator('tbody tr').count()).toBe(shopMonths.length);
+    const fullMonth = api.binding.find((b) => b.kind === 'capacity')!;
+    expect(fullMonth).toBeDefined();
+    const full = page.getByTestId('programme-months').locator(`tr[data-month="${fullMonth.label}"]`);
+    expect(num(await full.locator('[data-cell="used"]').textContent())).toBe(fullMonth.used);
+    expect(num(await full.locator('[data-cell="capacity"]').textContent())).toBe(fullMonth.limit);
+    expect(await full.locator('[data-cell="note"]').textContent()).toBe('full');
+
     // the fleet chart and its table: planned capital and expected cash flow by fiscal year, the API's figures
     const chart = page.getByTestId('programme-chart');
     await chart.scrollIntoViewIfNeeded();
