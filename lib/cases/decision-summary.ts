@@ -36,7 +36,7 @@ import type { CaseResult, PolicyResult } from '@/lib/engine/types';
 import type { TimingSpec } from '@/lib/engine/timing';
 import type { CaseFileInput } from '@/lib/validation/case';
 import { fiscalLabelOfPeriod, type CapitalPlan } from '@/lib/plan';
-import { chosenTrucks, proposalGainVsRebuild, proposalPolicies, proposalPolicyResult, type ProposalPolicies } from './proposal';
+import { chosenTrucks, proposalGainVsRebuild, proposalPolicyResult, type ProposalPolicies } from './proposal';
 
 /** The pinned Monte Carlo run the summary quotes (its figures are the run's measure, in the case's currency). */
 export interface DecisionRisk {
@@ -126,10 +126,10 @@ export interface DecisionSummaryInput {
   /** the evaluated case file (its assumptions give the discount factors) */
   file: CaseFileInput;
   result: CaseResult;
-  /** the proposal: the capital plan of the saved budgets */
+  /** the proposal's capital plan (the fleet programme's, `proposalFromProgramme`) */
   plan: CapitalPlan;
-  /** the proposal's policy per truck (default: the plan's chosen trucks repowered, the rest the better of keep and rebuild) */
-  policies?: ProposalPolicies;
+  /** the proposal's policy per truck (`Proposal.policies`) */
+  policies: ProposalPolicies;
   /** each repowered truck's chosen timing (lib/cases/proposal.ts `Proposal.timings`); absent: the engine's repower */
   timings?: Record<string, PolicyResult>;
   /** the same trucks' timings as specs (kept in the summary: a risk analysis holds them fixed) */
@@ -159,7 +159,7 @@ export function proposalIncrementalFlows(result: CaseResult, policies: ProposalP
 
 export function buildDecisionSummary(input: DecisionSummaryInput): DecisionSummary {
   const { result, plan, file } = input;
-  const policies = input.policies ?? proposalPolicies(result, plan);
+  const policies = input.policies;
   const timings = input.timings ?? {};
   const chosen = chosenTrucks(plan);
   const gain = proposalGainVsRebuild(result, policies, timings);

@@ -17,7 +17,8 @@ import { programmeOf } from './programme';
 import { proposalFromProgramme } from './proposal';
 import { summariseFleet, timelines } from './summary';
 import { deltaNpvWithoutGain } from './without-gain';
-import type { CaseResultDto, CaseSummaryDto, TruckMeta, TruckResultDto } from './types';
+import { cachedEvaluation } from './result-cache';
+import type { CaseSummaryDto, EvaluatedCase, TruckMeta, TruckResultDto } from './types';
 
 export function toSummaryDto(c: CaseRow): CaseSummaryDto {
   return {
@@ -33,9 +34,26 @@ export function toSummaryDto(c: CaseRow): CaseSummaryDto {
   };
 }
 
-type Loaded = { row: CaseRow; file: CaseFile; truckRows: Map<string, { id: number; payloadClass: string }> };
+type BuiltCaseFile = Awaited<ReturnType<typeof buildCaseFile>>;
+type TruckRows = Map<string, { id: number; payloadClass: string }>;
+type Loaded = { row: CaseRow; file: CaseFile; truckRows: TruckRows };
 
-export async function loadValidCase(access: Access, id: number): Promise<Loaded> {
+/**
+ * What a stored case evaluates from, read from the database and not yet
+ * validated: the frozen or submitted snapshot (already valid when stored), or
+ * the live case file built from the register. `problems` are the ones found
+ * before the file could be built (a deleted assumption set or truck).
+ */
+export type CaseInputs = {
+  row: CaseRow;
+  /** the stored snapshot (valid when stored) or the live file as built, not yet validated; null when `problems` stopped the build */
+  file: CaseFile | BuiltCaseFile | null;
+  truckRows: TruckRows;
+  source: 'frozen' | 'submitted' | 'live';
+  problems: Problem[];
+};
+
+export async function loadCaseInputs(access: Access, id: number): Promise<CaseInputs> {
   const wsId = access.workspace.id;
   const row = await fetchCase(wsId, id);
   if (!row) throw notFound('No such business case in this workspace.');
@@ -46,7 +64,8 @@ export async function loadValidCase(access: Access, id: number): Promise<Loaded>
     const file = JSON.parse(stored) as CaseFile;
     const units = file.trucks.map((t) => t.id);
     const rows = await db()('trucks').where({ workspaceId: wsId }).whereIn('unitNumber', units).select('id', 'unitNumber', 'payloadClass');
-    return { row, file, truckRows: new Map(rows.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }])) };
+    const source = row.frozenCase ? 'frozen' : 'submitted';
+    return { row, file, source, problems: [], truckRows: new Map(rows.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }])) };
   }
   const problems: Problem[] = [];
   if (row.assumptionSetId === null) problems.push({ path: 'assumptionSetId', message: 'the assumption set was deleted; choose another' });
@@ -56,9 +75,19 @@ export async function loadValidCase(access: Access, id: number): Promise<Loaded>
   row.selection.forEach((s, i) => {
     if (!present.has(s.truckId)) problems.push({ path: `selection[${i}]`, message: 'this truck has been removed from the fleet register' });
   });
-  if (problems.length) throw invalid(problems, 'This case cannot be evaluated.');
+  const truckRows: TruckRows = new Map(found.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }]));
+  if (problems.length) return { row, file: null, source: 'live', problems, truckRows };
   const offerOverrides = Object.fromEntries(row.selection.map((s) => [s.truckId, s.repowerOfferId]));
   const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides });
+  return { row, file: built, source: 'live', problems, truckRows };
+}
+
+/** The loaded inputs as a valid case file, or 422 with every problem (each truck named beside its index). */
+export function validateInputs(inputs: CaseInputs): Loaded {
+  const { row, truckRows } = inputs;
+  if (inputs.problems.length || !inputs.file) throw invalid(inputs.problems, 'This case cannot be evaluated.');
+  if (inputs.source !== 'live') return { row, file: inputs.file as CaseFile, truckRows };
+  const built = inputs.file;
   const v = validateCase(built);
   if (!v.ok) {
     // name the truck beside its index so a planner can find it in the register
@@ -70,7 +99,11 @@ export async function loadValidCase(access: Access, id: number): Promise<Loaded>
     });
     throw invalid(named, 'This case cannot be evaluated.');
   }
-  return { row, file: v.value, truckRows: new Map(found.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }])) };
+  return { row, file: v.value, truckRows };
+}
+
+export async function loadValidCase(access: Access, id: number): Promise<Loaded> {
+  return validateInputs(await loadCaseInputs(access, id));
 }
 
 function metaFor(file: CaseFile, truckRows: Loaded['truckRows'], truckId: string, events: TruckMeta['events']): TruckMeta {
@@ -79,9 +112,19 @@ function metaFor(file: CaseFile, truckRows: Loaded['truckRows'], truckId: string
   return { rowId: r?.id ?? 0, payloadClass: r?.payloadClass ?? '', engineId: t.engineId, repowerOfferId: t.repowerOfferId, engineHours: t.engineHours, annualHours: t.annualHours, events };
 }
 
-export async function evaluateStoredCase(access: Access, id: number): Promise<CaseResultDto> {
+/**
+ * The stored case evaluated in full. Evaluations are cached by everything they
+ * read (lib/cases/result-cache.ts), so a second read of an unchanged case
+ * costs the database reads alone; callers must not modify the answer.
+ */
+export async function evaluateStoredCase(access: Access, id: number): Promise<EvaluatedCase> {
+  return (await cachedEvaluation(access, id)).evaluated;
+}
+
+/** The evaluation behind a cache miss: validate the loaded inputs, evaluate, plan and summarise. */
+export async function evaluateInputs(access: Access, inputs: CaseInputs): Promise<EvaluatedCase> {
   const started = performance.now();
-  const { row, file, truckRows } = await loadValidCase(access, id);
+  const { row, file, truckRows } = validateInputs(inputs);
   const { result, details } = evaluateCaseDetailed(file, { trusted: true });
   const trucks: Record<string, TruckMeta> = {};
   for (const d of details) {
@@ -92,7 +135,7 @@ export async function evaluateStoredCase(access: Access, id: number): Promise<Ca
   const built = proposalFromProgramme(result, await programmeOf(file, row.plan), row.plan);
   const { ranking, plan, schedule } = built;
   const fiscalYearStartMonth = access.workspace.settings.fiscalYearStartMonth;
-  const source = row.frozenCase ? 'frozen' : row.status === 'submitted' && row.submittedCase ? 'submitted' : 'live';
+  const source = inputs.source;
   const proposal = buildDecisionSummary({
     caseId: row.id,
     caseName: row.name,

@@ -25,11 +25,6 @@ export function chosenTrucks(plan: CapitalPlan): string[] {
   return plan.years.flatMap((y) => y.chosen.map((c) => c.truckId));
 }
 
-export function proposalPolicies(result: CaseResult, plan: CapitalPlan): ProposalPolicies {
-  const chosen = new Set(chosenTrucks(plan));
-  return Object.fromEntries(result.trucks.map((t) => [t.id, chosen.has(t.id) ? 'repower' : bestOtherPolicy(t)]));
-}
-
 /** Σ over trucks of npv(proposal's policy, with its chosen timing when repowered) − npv(rebuild), currency. */
 export function proposalGainVsRebuild(result: CaseResult, policies: ProposalPolicies, timings: Record<string, PolicyResult> = {}): number {
   let sum = 0;
@@ -156,7 +151,6 @@ export function proposalFromProgramme(result: CaseResult, programme: CaseProgram
           leftOut: y.leftOut.sort((a, c) => c.gain - a.gain),
           spent: chosen.reduce((s, c) => s + c.capital, 0),
           gain: chosen.reduce((s, c) => s + c.gain, 0),
-          unit: 1,
         };
       }),
     notWorthIt,

@@ -1,5 +1,5 @@
 /** Shapes the case API answers with; shared by route handlers and the client screens. */
-import type { CaseResult, EventKind, PolicyKey, TruckDetail, TruckResult } from '@/lib/engine/types';
+import type { CaseResult, EventKind, PolicyKey, PolicyResult, TruckDetail, TruckResult } from '@/lib/engine/types';
 import type { CapitalPlan, PlacedSwap, RankedTruck } from '@/lib/plan';
 import type { PlanSettings } from '@/lib/validation/business-case';
 import type { FleetYear } from './fleet-years';
@@ -51,7 +51,11 @@ export type WithoutGainDto = {
   anyGain: boolean;
 };
 
-export type CaseResultDto = {
+/**
+ * A case evaluated on the server, in full: what exports, the decision pack and
+ * the risk routes read (`evaluateStoredCase`).
+ */
+export type EvaluatedCase = {
   case: CaseSummaryDto;
   valuation: Valuation;
   withoutGain: WithoutGainDto;
@@ -74,6 +78,18 @@ export type CaseResultDto = {
   /** server time to build and evaluate the case, ms */
   evaluatedMs: number;
 };
+
+/** A policy's figures without the by-year cost breakdown (the case pages never read it). */
+export type SlimPolicyResult = Omit<PolicyResult, 'breakdown'>;
+export type SlimTruckResult = Omit<TruckResult, 'options'> & { options: Record<PolicyKey, SlimPolicyResult> };
+export type SlimCaseResult = Omit<CaseResult, 'trucks'> & { trucks: SlimTruckResult[] };
+
+/**
+ * What the case result route answers (lib/cases/result-cache.ts): the
+ * evaluated case with each policy's by-year breakdown left out, which the
+ * results pages do not read (the truck route has the per-period detail).
+ */
+export type CaseResultDto = Omit<EvaluatedCase, 'result'> & { result: SlimCaseResult };
 
 export type TruckResultDto = {
   case: CaseSummaryDto;

@@ -9,7 +9,7 @@ import type { Access } from '@/lib/auth/access';
 import { evaluateStoredCase, loadValidCase } from '@/lib/cases/evaluate';
 import { db } from '@/lib/db';
 import { evaluateCaseDetailed } from '@/lib/engine';
-import type { CaseResultDto } from '@/lib/cases/types';
+import type { EvaluatedCase } from '@/lib/cases/types';
 import { summaryCsv } from './csv';
 import { FMT } from './cells';
 import type { ApprovalStamp, PlanTable, WorkbookMeta } from './types';
@@ -25,7 +25,7 @@ async function approvalStamp(workspaceId: number, caseId: number): Promise<Appro
   return { approvedBy: stamp.approvedBy.map((a) => (a.name ? `${a.name} <${a.email}>` : a.email)).join(', '), approvedAt: stamp.approvedAt, hash: stamp.hash };
 }
 
-function planTables(dto: CaseResultDto): PlanTable[] {
+function planTables(dto: EvaluatedCase): PlanTable[] {
   const cur = dto.currency;
   const money = { format: FMT.money, width: 16 };
   return [

@@ -26,12 +26,15 @@ export interface RankedTruck {
 
 const TIE = 1e-6;
 
-export function bestOtherPolicy(t: TruckResult): 'keep' | 'rebuild' {
+/** The parts of a truck's result the policy comparisons read (a slim result without breakdowns will do). */
+type Comparable = Pick<TruckResult, 'repowerVsKeep' | 'repowerVsRebuild'> & { options: Record<'keep' | 'rebuild', { npv: number }> };
+
+export function bestOtherPolicy(t: Comparable): 'keep' | 'rebuild' {
   return t.options.keep.npv > t.options.rebuild.npv + TIE ? 'keep' : 'rebuild';
 }
 
 /** The engine's comparison of repower against the truck's better other policy. */
-export function repowerComparison(t: TruckResult): Comparison {
+export function repowerComparison(t: Comparable): Comparison {
   return bestOtherPolicy(t) === 'keep' ? t.repowerVsKeep : t.repowerVsRebuild;
 }
 

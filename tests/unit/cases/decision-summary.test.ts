@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { CaseResult, TruckResult } from '@/lib/engine/types';
 import type { CaseFileInput } from '@/lib/validation/case';
-import { planCapital } from '@/lib/plan';
+import type { CapitalPlan } from '@/lib/plan';
 import { buildDecisionSummary, proposalIncrementalFlows } from '@/lib/cases/decision-summary';
 
 // Hand-made trucks over two years at r = 10 %, end-of-year discounting (DF 1, 1/1.1, 1/1.21).
@@ -38,14 +38,14 @@ const result = {
   },
 } as unknown as CaseResult;
 const file = { assumptions: { discountRate: 0.1, timing: 'end-of-year', depreciation: { method: 'straight-line', years: 5 } } } as unknown as CaseFileInput;
-const plan = planCapital(
-  [
-    { truckId: 'A', gain: npv(A, 'repower') - npv(A, 'rebuild'), profitabilityIndex: null, capital: 100, capitalYear: 0 },
-    { truckId: 'C', gain: 2, profitabilityIndex: null, capital: 50, capitalYear: 0 },
-  ],
-  { 0: 100 },
-  1,
-);
+// the proposal's plan (as the fleet programme would give it): A chosen within period 0's budget of 100, C left out
+const gainA = npv(A, 'repower') - npv(A, 'rebuild');
+const plan: CapitalPlan = {
+  years: [{ year: 0, budget: 100, chosen: [{ truckId: 'A', gain: gainA, profitabilityIndex: null, capital: 100, capitalYear: 0 }], leftOut: [{ truckId: 'C', gain: 2, capital: 50, extraBudget: 50 }], spent: 100, gain: gainA }],
+  notWorthIt: [],
+  totalGain: gainA,
+  totalSpent: 100,
+};
 
 const summary = buildDecisionSummary({
   caseId: 7,
@@ -58,6 +58,7 @@ const summary = buildDecisionSummary({
   file,
   result,
   plan,
+  policies: { A: 'repower', B: 'keep', C: 'rebuild' },
   drivers: [],
   risk: null,
 });
