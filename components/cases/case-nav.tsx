@@ -11,7 +11,7 @@ export function CaseNav({ slug, caseId, current, truckId }: { slug: string; case
       <Link href={`/${slug}/cases`} className="text-sm text-muted hover:underline">← All cases</Link>
       <span className="text-rule">|</span>
       {tab(base, 'Results', current === 'results')}
-      {tab(`${base}/plan`, 'Ranking, capital plan and schedule', current === 'plan')}
+      {tab(`${base}/plan`, 'Fleet programme and ranking', current === 'plan')}
       {/* from a truck page, the risk page opens on that truck */}
       {tab(`${base}/risk${truckId ? `?truck=${encodeURIComponent(truckId)}` : ''}`, truckId ? `Sensitivity and risk of ${truckId}` : 'Sensitivity and risk', current === 'risk')}
       {current === 'actuals' ? tab(`${base}/actuals`, 'Plan against actual', true) : null}

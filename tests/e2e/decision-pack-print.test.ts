@@ -135,7 +135,7 @@ describe('decision pack and print', () => {
   it('prints the plan, truck and risk pages with the header line and without navigation or controls', async () => {
     const { page, baseURL } = b;
     const pages: Array<[string, string, string]> = [
-      [`/${WS}/cases/${caseId}/plan`, 'Ranking, capital plan and schedule', 'plan'],
+      [`/${WS}/cases/${caseId}/plan`, 'Fleet programme and ranking', 'plan'],
       [`/${WS}/cases/${caseId}/trucks/S-001`, 'Truck S-001', 'truck'],
       [`/${WS}/cases/${caseId}/risk`, 'Sensitivity and risk', 'risk'],
     ];

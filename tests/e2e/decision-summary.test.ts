@@ -64,7 +64,7 @@ describe('the decision summary and the frozen record', () => {
     figures.plan = { capital: await text(page, 'plan-proposal-capital'), gain: await text(page, 'plan-proposal-gain') };
     expect(figures.plan).toEqual(figures.summary);
     expect(await page.getByTestId('ranking-table').locator('tr[data-in-proposal="yes"]').count()).toBe(Number(chosen));
-    expect(await page.getByTestId('capital-plan').textContent()).toContain('FY2027 (now)');
+    expect(await page.getByTestId('programme-periods').textContent()).toContain('FY2027 (now)');
     await screenshot(page, 'decision-summary-plan-page');
 
     // a Monte Carlo run on the proposal, pinned before submission (the risk page's own flow is tested in risk.test.ts)
@@ -182,7 +182,7 @@ describe('the decision summary and the frozen record', () => {
       const copy = await context.request.post(`${baseURL}/api/workspaces/${WS}/cases/${demo.id}/copy`, { headers: apiHeaders(baseURL), data: { name: 'July fiscal year' } });
       const id = (await copy.json()).case.id;
       await page.goto(`${baseURL}/${WS}/cases/${id}/plan`);
-      await page.getByTestId('capital-plan').waitFor();
+      await page.getByTestId('programme-periods').waitFor();
       expect(await page.getByLabel('FY2028 budget (USD k)', { exact: true }).inputValue()).toBe('10,000');
       await screenshot(page, 'plan-july-fiscal-year');
     } finally {

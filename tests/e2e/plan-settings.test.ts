@@ -53,7 +53,7 @@ describe('plan settings in the browser', () => {
 
   it('shows the stored budgets in USD k with grouping; "3,000" is saved as 3,000,000 and reads "3,000" after a reload', async () => {
     await page.goto(planUrl);
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     expect(await budget1().inputValue()).toBe('12,000');
     expect(await page.getByLabel('FY2027 (now) budget (USD k)', { exact: true }).inputValue()).toBe('3,000');
     expect(await page.getByLabel('FY2028 budget (USD k)', { exact: true }).inputValue()).toBe('10,000');
@@ -63,11 +63,11 @@ describe('plan settings in the browser', () => {
     await page.getByTestId('plan-settings-status').getByText('Plan saved.').waitFor();
     expect(await budget1().inputValue()).toBe('3,000');
     expect((await stored()).plan.budgets).toEqual({ '0': 3_000_000, '1': 3_000_000, '2': 10_000_000 });
-    // the table beside it, in USD k, says the same
-    expect(await page.getByTestId('capital-plan').locator('tbody tr[data-year="1"] td').nth(1).textContent()).toBe('3,000');
+    // the programme's table of fiscal years, in USD k, says the same
+    await page.getByTestId('programme-periods').locator('tbody tr[data-period="1"] [data-cell="budget"]', { hasText: '3,000' }).waitFor();
 
     await page.reload();
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     expect(await budget1().inputValue()).toBe('3,000');
 
     // typed without grouping, shown grouped once saved
@@ -81,7 +81,7 @@ describe('plan settings in the browser', () => {
 
   it('warns under a budget below the cheapest repower due in its year, before and after saving', async () => {
     await page.goto(planUrl);
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     // the cheapest swap due in period 1: every truck's on-time repower (now or at a planned overhaul) the page was sent
     const result = await (await context.request.get(`${baseURL}/api/workspaces/${WS}/cases/${caseId}/result`)).json();
     const due = (result.dueSwaps as Array<{ truckId: string; capital: number; period: number }>).filter((r) => r.period === 1 && r.capital > 0);
@@ -103,7 +103,7 @@ describe('plan settings in the browser', () => {
     await page.getByTestId('plan-settings-status').getByText('Plan saved.').waitFor();
     expect((await stored()).plan.budgets['1']).toBe(10_000);
     await page.reload();
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     expect(await budget1().inputValue()).toBe('10');
     await warning.waitFor();
     // and indeed no repower is planned in that year at 10 k
@@ -117,7 +117,7 @@ describe('plan settings in the browser', () => {
 
   it('sets a month to 0 for a shutdown: marked at once, saved as the only override, still there after a reload', async () => {
     await page.goto(planUrl);
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     const march = page.getByLabel('Capacity 2027-03', { exact: true });
     const cell = page.getByTestId('capacity-cell-2027-03');
     expect(await cell.getAttribute('data-state')).toBe('default');
@@ -135,19 +135,21 @@ describe('plan settings in the browser', () => {
     expect(plan.swapsPerMonth).toBe(2);
 
     await page.reload();
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     expect(await march.inputValue()).toBe('0');
     expect(await cell.getAttribute('data-state')).toBe('shutdown');
     expect(await page.getByLabel('Capacity 2027-04', { exact: true }).inputValue()).toBe('');
     expect(await page.getByTestId('max-delay-months').inputValue()).toBe('3');
     // the programme plans no swap in the shutdown month
-    expect(await page.getByTestId('schedule-table').locator('tbody tr td:first-child').allTextContents()).not.toContain('2027-03');
+    const months = await page.getByTestId('programme-trucks').locator('tbody tr[data-truck] [data-cell="month"]').allTextContents();
+    expect(months.filter((m) => m !== 'no swap').length).toBeGreaterThan(0);
+    expect(months).not.toContain('2027-03');
     await screenshot(page, 'plan-settings-shutdown');
   });
 
   it('refuses "abc" with a message naming the field and saves nothing', async () => {
     await page.goto(planUrl);
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     const before = await stored();
     await budget1().fill('abc');
     await page.getByLabel('Capacity 2027-05', { exact: true }).fill('0'); // would be saved with a good budget
@@ -161,7 +163,7 @@ describe('plan settings in the browser', () => {
 
   it('shows a problem the server answers (422) under the field it names, with nothing saved', async () => {
     await page.goto(planUrl);
-    await page.getByTestId('capital-plan').waitFor();
+    await page.getByTestId('programme-periods').waitFor();
     const before = await stored();
     // the server's own answer for a budget it refuses (the form checks the same rules first, so the answer is stood in for)
     await page.route(`**/api/workspaces/${WS}/cases/${caseId}`, (route) =>

@@ -10,7 +10,7 @@ import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
 import { fetchCase } from '@/lib/db/queries/cases';
 
-export const metadata: Metadata = { title: 'Capital plan' };
+export const metadata: Metadata = { title: 'Fleet programme' };
 
 export default async function PlanPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
   const { workspace, id } = await params;
@@ -19,8 +19,8 @@ export default async function PlanPage({ params }: { params: Promise<{ workspace
   if (!c) notFound();
   return (
     <>
-      <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Ranking, capital plan and schedule" />
-      <PageHeader title={`${c.name}: ranking and plan`} subtitle="The proposal: which trucks to repower within each fiscal year's capital budget, and when the shop swaps them." />
+      <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what="Fleet programme and ranking" />
+      <PageHeader title={`${c.name}: fleet programme and ranking`} subtitle="When to repower each truck — now, at an overhaul, or some months late — so the fleet's expected NPV is highest within each fiscal year's budget and the shop's swaps a month." />
       <CaseNav slug={workspace} caseId={c.id} current="plan" />
       <PlanView slug={workspace} caseId={c.id} canEdit={hasRole(access, CAN.edit)} numberFormat={access.workspace.settings.numberFormat} />
       <SafetyCaution />
