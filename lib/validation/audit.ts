@@ -8,7 +8,7 @@ const blankToUndefined = (v: unknown) => (v === '' || v === null ? undefined : v
 export const auditFilterSchema = z
   .object({
     // a user id by the rule of every id in a URL (lib/validation/id.ts): "1e3" or an 11-digit id is not one
-    user: z.preprocess(blankToUndefined, z.string().regex(ID_PATTERN, 'Choose a person from the list.').transform(Number).optional()),
+    user: z.preprocess(blankToUndefined, z.string().regex(ID_PATTERN, { message: 'Choose a person from the list.', abort: true }).transform(Number).optional()),
     kind: z.preprocess(blankToUndefined, z.string().regex(/^[a-z_-]+(:[a-z_-]+)?$/, 'Choose a kind from the list.').optional()),
     from: z.preprocess(blankToUndefined, day.optional()),
     to: z.preprocess(blankToUndefined, day.optional()),
