@@ -1,7 +1,8 @@
 import { NextResponse } from 'next/server';
-import { z } from 'zod';
+import { z } from '@/lib/validation/zod';
 import { EventLimitError } from '@/lib/engine/limits';
 import { CaseValidationError } from '@/lib/validation/case';
+import { ID_PATTERN } from '@/lib/validation/id';
 import { BODY_LIMITS, BodyTooLargeError, limitBody, type BodyLimit } from '@/lib/http/body';
 import { appOrigins, checkContentType, checkSameOrigin, HSTS, isHttps, RequestRefused, SAFE_METHODS, type BodyKind } from '@/lib/http/origin';
 import { withRequestOrigin } from '@/lib/mail/base-url';
@@ -40,6 +41,41 @@ export function zodProblems(error: z.ZodError): Problem[] {
 export function parseOr422<T extends z.ZodType>(schema: T, data: unknown): z.infer<T> {
   const r = schema.safeParse(data);
   if (!r.success) throw invalid(zodProblems(r.error));
+  return r.data;
+}
+
+/**
+ * A numeric id from the URL (`[id]`, `[docId]`, `[userId]`, …): the text of a
+ * whole number from 1 to 999,999,999 (lib/validation/id.ts), as a number.
+ * "0x10", "1e1", "01", " 7" and an 11-digit id are not ids.
+ */
+export const idParam = z.string().regex(ID_PATTERN, 'must be an id (a whole number from 1 to 999,999,999)').transform(Number);
+
+/** The params of a route or page with one `[id]` segment; `.extend({ docId: idParam })` for more. */
+export const idParams = z.object({ id: idParam });
+
+/**
+ * A route handler's dynamic segments read with a schema (`idParams` and the
+ * like): anything that does not match cannot name a row, so it is a 404
+ * `{ error: 'Not found.' }`, on every route alike. Pages use `readPageParams`
+ * (lib/http/page-params.ts), which shows the not-found page instead.
+ */
+export function readParams<T extends z.ZodType>(schema: T, params: unknown): z.output<T> {
+  const r = schema.safeParse(params);
+  if (!r.success) throw notFound();
+  return r.data;
+}
+
+/**
+ * An id from the query string (`?assumptionSetId=N`) by the same rule as
+ * `idParam`: null when absent or blank; a malformed one is the caller's input,
+ * so 422 naming the parameter (never a lookup with a value no column holds).
+ */
+export function readQueryId(query: URLSearchParams, key: string, message = 'must be an id (a whole number from 1 to 999,999,999)'): number | null {
+  const raw = query.get(key);
+  if (raw === null || raw === '') return null;
+  const r = idParam.safeParse(raw);
+  if (!r.success) throw invalid([{ path: key, message }]);
   return r.data;
 }
 

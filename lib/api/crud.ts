@@ -6,7 +6,7 @@ import { requireMember, type Access } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { writeAudit } from '@/lib/audit';
 import { db } from '@/lib/db';
-import { conflict, invalid, notFound, parseOr422, readJson, route } from '@/lib/http';
+import { conflict, idParams, invalid, notFound, parseOr422, readJson, readParams, route } from '@/lib/http';
 import { getStorage } from '@/lib/storage';
 import { nowIso } from '@/lib/time';
 
@@ -35,12 +35,6 @@ export type EntityConfig = {
 
 type Params = { workspace: string };
 type ItemParams = { workspace: string; id: string };
-
-/** A route id is a positive integer; anything else cannot name a row, so it is a 404. */
-export function parseId(id: string): number {
-  if (!/^\d{1,12}$/.test(id)) throw notFound();
-  return Number(id);
-}
 
 /**
  * The `?version=N` a DELETE must carry: the version the caller loaded, so a
@@ -111,7 +105,7 @@ export function itemHandlers(cfg: EntityConfig) {
   const GET = route<ItemParams>(async (_req, { params }) => {
     const p = await params;
     const access = await requireMember(p.workspace, CAN.read);
-    const row = await cfg.read(db(), access.workspace.id, parseId(p.id));
+    const row = await cfg.read(db(), access.workspace.id, readParams(idParams, p).id);
     if (!row) throw notFound(`No such ${cfg.label} in this workspace.`);
     return NextResponse.json(row);
   });
@@ -119,7 +113,7 @@ export function itemHandlers(cfg: EntityConfig) {
   const PUT = route<ItemParams>(async (req, { params }) => {
     const p = await params;
     const access = await requireMember(p.workspace, CAN.edit);
-    const id = parseId(p.id);
+    const { id } = readParams(idParams, p);
     const wsId = access.workspace.id;
     const { version, ...input } = parseOr422(cfg.updateSchema, await readJson(req)) as Row & { version: number };
     await db().transaction(async (trx) => {
@@ -139,7 +133,7 @@ export function itemHandlers(cfg: EntityConfig) {
   const DELETE = route<ItemParams>(async (req, { params }) => {
     const p = await params;
     const access = await requireMember(p.workspace, CAN.edit);
-    const id = parseId(p.id);
+    const { id } = readParams(idParams, p);
     const wsId = access.workspace.id;
     const version = versionFromQuery(req);
     const files = await db().transaction(async (trx) => {

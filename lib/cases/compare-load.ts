@@ -7,7 +7,7 @@ import 'server-only';
  */
 import type { Access } from '@/lib/auth/access';
 import { db } from '@/lib/db';
-import { HttpError, invalid, type Problem } from '@/lib/http';
+import { HttpError, idParam, invalid, type Problem } from '@/lib/http';
 import { compareCases, type CaseComparison, type CompareSide } from './compare';
 import { evaluateStoredCase, loadValidCase } from './evaluate';
 
@@ -16,9 +16,14 @@ export function parseCompareIds(params: URLSearchParams): { a: number; b: number
   const problems: Problem[] = [];
   const read = (key: 'a' | 'b'): number => {
     const raw = params.get(key);
-    if (raw === null || raw === '') problems.push({ path: key, message: `choose case ${key.toUpperCase()}` });
-    else if (!/^\d{1,9}$/.test(raw) || Number(raw) < 1) problems.push({ path: key, message: 'must be a case id (a positive whole number)' });
-    return Number(raw);
+    if (raw === null || raw === '') {
+      problems.push({ path: key, message: `choose case ${key.toUpperCase()}` });
+      return 0;
+    }
+    // the digit rule of every id in a URL (lib/http.ts idParam)
+    const id = idParam.safeParse(raw);
+    if (!id.success) problems.push({ path: key, message: 'must be a case id (a positive whole number)' });
+    return id.success ? id.data : 0;
   };
   const a = read('a');
   const b = read('b');

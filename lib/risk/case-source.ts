@@ -25,13 +25,6 @@ export interface RiskCase {
   caseFile: CaseFile;
 }
 
-/** Route param → case id, or 404 for anything that is not a positive whole number. */
-export function parseCaseId(raw: string): number {
-  const id = Number(raw);
-  if (!Number.isInteger(id) || id <= 0) throw notFound('No such business case.');
-  return id;
-}
-
 export async function loadRiskCase(access: Access, caseId: number): Promise<RiskCase> {
   const row = await db()('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('id', 'name', 'status', 'frozenCase');
   if (!row) throw notFound('No such business case.');

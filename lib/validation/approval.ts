@@ -16,9 +16,6 @@ export const decisionSchema = z.strictObject({
   version,
 });
 
-/** Route param: a positive integer id. */
-export const idParam = z.coerce.number().int().positive();
-
 /** Body of POST …/invitations. */
 export const invitationSchema = z.strictObject({
   email: z.string().trim().toLowerCase().email('Enter a valid email address.').max(320),

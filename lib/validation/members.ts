@@ -6,6 +6,3 @@ export const memberRoleChangeSchema = z.strictObject({
   role: z.enum(ROLES, { message: 'Choose admin, analyst, approver or viewer.' }),
   version: z.number('must be the version you loaded').int().min(1),
 });
-
-/** Route param of …/members/[userId]: a positive whole number. */
-export const memberIdParam = z.coerce.number().int().positive();

@@ -87,6 +87,13 @@ export type MetricInput = z.infer<typeof metricSchema>;
 export type MonteCarloRequest = z.infer<typeof monteCarloRequestSchema>;
 export type DistributionInput = z.infer<typeof distributionSchema>;
 
+/**
+ * A Monte Carlo run's id in the URL (`…/monte-carlo/[job]`): the UUID the run
+ * was stored under (lib/risk/runs.ts, `randomUUID`, lower-case hex). Anything
+ * else names no run (`readParams`: 404).
+ */
+export const runIdParam = z.string().regex(/^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/, 'must be a run id');
+
 /** PUT …/pinned-run: the run to pin and the case version the caller loaded. */
 export const pinRunSchema = z.strictObject({
   runId: z.string('must be a run id').min(1, 'choose a run').max(36, 'must be a run id'),

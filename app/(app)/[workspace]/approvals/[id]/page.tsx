@@ -11,16 +11,19 @@ import { readFrozenResult } from '@/lib/approvals/freeze';
 import { fetchCaseSummary } from '@/lib/approvals/summary';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { formatMoney } from '@/lib/format';
+import { idParams } from '@/lib/http';
+import { readPageParams } from '@/lib/http/page-params';
 
 export const metadata: Metadata = { title: 'Review a case' };
 
 const POLICIES = ['keep', 'rebuild', 'repower', 'best'] as const;
 
 export default async function ReviewCasePage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
-  const { workspace, id } = await params;
+  const p = await params;
+  const { workspace } = p;
   const access = await getPageAccess(workspace);
-  const caseId = Number(id);
-  const summary = Number.isInteger(caseId) && caseId > 0 ? await fetchCaseSummary(access.workspace.id, caseId) : null;
+  const { id: caseId } = readPageParams(idParams, p);
+  const summary = await fetchCaseSummary(access.workspace.id, caseId);
   if (!summary) notFound();
   const frozen = readFrozenResult(summary.row);
   const neg = access.workspace.settings.negativeStyle;

@@ -18,16 +18,19 @@ import { fetchPreviousRevision } from '@/lib/cases/compare-load';
 import { fetchCase } from '@/lib/db/queries/cases';
 import { listOwnTruckFigures } from '@/lib/db/queries/reforecast';
 import { db } from '@/lib/db';
+import { idParams } from '@/lib/http';
+import { readPageParams } from '@/lib/http/page-params';
 
 export const metadata: Metadata = { title: 'Case results' };
 
 type Props = { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ edit?: string }> };
 
 export default async function CasePage({ params, searchParams }: Props) {
-  const { workspace, id } = await params;
+  const p = await params;
+  const { workspace } = p;
   const { edit } = await searchParams;
   const access = await getPageAccess(workspace);
-  const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
+  const c = await fetchCase(access.workspace.id, readPageParams(idParams, p).id);
   if (!c) notFound();
   const previous = await fetchPreviousRevision(access.workspace.id, c.id);
   // an approved or submitted case shows its frozen or submitted figures, which already hold these

@@ -2,13 +2,18 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { PageHeader } from '@/components/ui/page-header';
 import { getPageAccess } from '@/lib/auth/page-access';
+import { idParam } from '@/lib/http';
 import { CaseCompare } from './case-compare';
 
 export const metadata: Metadata = { title: 'Compare cases' };
 
 type Props = { params: Promise<{ workspace: string }>; searchParams: Promise<{ a?: string; b?: string }> };
 
-const idOrNull = (raw: string | undefined) => (raw && /^\d{1,9}$/.test(raw) && Number(raw) > 0 ? Number(raw) : null);
+/** A case id from the query by the rule of every id in a URL; anything else leaves that side unchosen. */
+const idOrNull = (raw: string | undefined) => {
+  const r = idParam.safeParse(raw);
+  return r.success ? r.data : null;
+};
 
 export default async function CompareCasesPage({ params, searchParams }: Props) {
   const { workspace } = await params;

@@ -4,7 +4,7 @@ import { CAN } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { buildCaseFile } from '@/lib/db/queries/case-file';
 import { importCaseFile } from '@/lib/db/queries/case-file-import';
-import { BODY_LIMITS, invalid, notFound, readJson, route } from '@/lib/http';
+import { BODY_LIMITS, invalid, notFound, readJson, readQueryId, route } from '@/lib/http';
 import { validateCase } from '@/lib/validation/case';
 import { caseFileTextProblems } from '@/lib/validation/fleet';
 
@@ -17,9 +17,9 @@ type P = { workspace: string };
  */
 export const GET = route<P>(async (req, { params }) => {
   const access = await requireMember((await params).workspace, CAN.read);
-  const raw = new URL(req.url).searchParams.get('assumptionSetId');
-  if (!raw || !/^\d{1,12}$/.test(raw)) throw invalid([{ path: 'assumptionSetId', message: 'Choose an assumption set (query parameter assumptionSetId).' }]);
-  const set = await db()('assumption_sets').where({ id: Number(raw), workspaceId: access.workspace.id }).first('id', 'name');
+  const setId = readQueryId(new URL(req.url).searchParams, 'assumptionSetId', 'must be an assumption set id (a whole number from 1 to 999,999,999)');
+  if (setId === null) throw invalid([{ path: 'assumptionSetId', message: 'Choose an assumption set (query parameter assumptionSetId).' }]);
+  const set = await db()('assumption_sets').where({ id: setId, workspaceId: access.workspace.id }).first('id', 'name');
   if (!set) throw notFound('No such assumption set in this workspace.');
   const file = await buildCaseFile(access.workspace.id, { name: set.name, assumptionSetId: set.id, includeAll: true });
   const safe = `${access.workspace.slug}-${String(set.name).toLowerCase().replace(/[^a-z0-9]+/g, '-')}`.replace(/-+$/, '');

@@ -9,15 +9,18 @@ import { PrintHeader } from '@/components/ui/print-header';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
 import { fetchCase } from '@/lib/db/queries/cases';
+import { idParams } from '@/lib/http';
+import { readPageParams } from '@/lib/http/page-params';
 import { HttpError } from '@/lib/http';
 import { loadPlanVsActual, type PlanVsActualView } from '@/lib/readings/plan-vs-actual-load';
 
 export const metadata: Metadata = { title: 'Plan against actual' };
 
 export default async function ActualsPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
-  const { workspace, id } = await params;
+  const p = await params;
+  const { workspace } = p;
   const access = await getPageAccess(workspace);
-  const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
+  const c = await fetchCase(access.workspace.id, readPageParams(idParams, p).id);
   if (!c) notFound();
   let view: PlanVsActualView | null = null;
   let why = '';

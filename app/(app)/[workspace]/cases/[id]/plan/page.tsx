@@ -9,13 +9,16 @@ import { hasRole } from '@/lib/auth/access';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { CAN } from '@/lib/auth/roles';
 import { fetchCase } from '@/lib/db/queries/cases';
+import { idParams } from '@/lib/http';
+import { readPageParams } from '@/lib/http/page-params';
 
 export const metadata: Metadata = { title: 'Fleet programme' };
 
 export default async function PlanPage({ params }: { params: Promise<{ workspace: string; id: string }> }) {
-  const { workspace, id } = await params;
+  const p = await params;
+  const { workspace } = p;
   const access = await getPageAccess(workspace);
-  const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
+  const c = await fetchCase(access.workspace.id, readPageParams(idParams, p).id);
   if (!c) notFound();
   return (
     <>

@@ -8,6 +8,8 @@ import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
 import { db } from '@/lib/db';
 import { formatMoney, formatPercent, type NegativeStyle } from '@/lib/format';
+import { idParams } from '@/lib/http';
+import { readPageParams } from '@/lib/http/page-params';
 import { CAN_RUN_RISK } from '@/lib/risk/route-context';
 import { fetchPinnedRun, type PinnedRun } from '@/lib/risk/runs';
 
@@ -36,11 +38,11 @@ function PinnedLine({ run, currency, negative, status }: { run: PinnedRun | null
 
 /** Sensitivity and risk of one business case; `?truck=ID` opens it on one truck (links from truck pages); `?ranges=uniform` the tornado and spider on ±20 %. */
 export default async function Page({ params, searchParams }: { params: Promise<{ workspace: string; id: string }>; searchParams: Promise<{ truck?: string; ranges?: string }> }) {
-  const { workspace, id } = await params;
+  const p = await params;
+  const { workspace } = p;
   const { truck, ranges } = await searchParams;
   const access = await getPageAccess(workspace);
-  const caseId = Number(id);
-  if (!Number.isInteger(caseId) || caseId <= 0) notFound();
+  const { id: caseId } = readPageParams(idParams, p);
   const row = await db()('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('id', 'name', 'status');
   if (!row) notFound();
   const pinned = await fetchPinnedRun(caseId);

@@ -1,10 +1,10 @@
 import { NextResponse } from 'next/server';
-import { parseId, versionFromQuery } from '@/lib/api/crud';
+import { versionFromQuery } from '@/lib/api/crud';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { db } from '@/lib/db';
 import { deleteReading, readReading, updateReading } from '@/lib/db/queries/readings';
-import { notFound, parseOr422, readJson, route } from '@/lib/http';
+import { idParams, notFound, parseOr422, readJson, readParams, route } from '@/lib/http';
 import { readingUpdateSchema } from '@/lib/validation/readings';
 
 type P = { workspace: string; id: string };
@@ -13,7 +13,7 @@ type P = { workspace: string; id: string };
 export const GET = route<P>(async (_req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.read);
-  const row = await readReading(db(), access.workspace.id, parseId(p.id));
+  const row = await readReading(db(), access.workspace.id, readParams(idParams, p).id);
   if (!row) throw notFound('No such reading in this workspace.');
   return NextResponse.json(row);
 });
@@ -21,7 +21,7 @@ export const GET = route<P>(async (_req, { params }) => {
 export const PUT = route<P>(async (req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.edit);
-  const id = parseId(p.id);
+  const { id } = readParams(idParams, p);
   const { version, ...input } = parseOr422(readingUpdateSchema, await readJson(req));
   await db().transaction((trx) => updateReading(trx, access, id, version, input));
   return NextResponse.json(await readReading(db(), access.workspace.id, id));
@@ -30,7 +30,7 @@ export const PUT = route<P>(async (req, { params }) => {
 export const DELETE = route<P>(async (req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.edit);
-  const id = parseId(p.id);
+  const { id } = readParams(idParams, p);
   const version = versionFromQuery(req);
   await db().transaction((trx) => deleteReading(trx, access, id, version));
   return NextResponse.json({ ok: true });

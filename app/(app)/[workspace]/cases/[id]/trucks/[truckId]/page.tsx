@@ -6,18 +6,20 @@ import { PageHeader } from '@/components/ui/page-header';
 import { PrintHeader } from '@/components/ui/print-header';
 import { SafetyCaution } from '@/components/ui/safety-caution';
 import { getPageAccess } from '@/lib/auth/page-access';
-import { truckIdFromPageSegment } from '@/lib/cases/params';
+import { caseTruckPageParams } from '@/lib/cases/params';
 import { fetchCase } from '@/lib/db/queries/cases';
+import { readPageParams } from '@/lib/http/page-params';
 
 export const metadata: Metadata = { title: 'Truck in case' };
 
 export default async function TruckPage({ params }: { params: Promise<{ workspace: string; id: string; truckId: string }> }) {
-  const { workspace, id, truckId } = await params;
+  const p = await params;
+  const { workspace } = p;
   const access = await getPageAccess(workspace);
-  const c = /^\d{1,9}$/.test(id) ? await fetchCase(access.workspace.id, Number(id)) : null;
-  // the segment as the link encoded it, decoded once here (a malformed one is a 404)
-  const unit = truckIdFromPageSegment(truckId);
-  if (!c || unit === null) notFound();
+  // the unit segment as the link encoded it, decoded once here (a malformed one is not found)
+  const { id, truckId: unit } = readPageParams(caseTruckPageParams, p);
+  const c = await fetchCase(access.workspace.id, id);
+  if (!c) notFound();
   return (
     <>
       <PrintHeader caseName={c.name} workspaceName={access.workspace.name} what={`Truck ${unit}`} />

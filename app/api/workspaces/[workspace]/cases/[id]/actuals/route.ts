@@ -1,7 +1,7 @@
 import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
-import { notFound, route } from '@/lib/http';
+import { idParams, readParams, route } from '@/lib/http';
 import { loadPlanVsActual } from '@/lib/readings/plan-vs-actual-load';
 
 /**
@@ -13,6 +13,5 @@ import { loadPlanVsActual } from '@/lib/readings/plan-vs-actual-load';
 export const GET = route<{ workspace: string; id: string }>(async (_req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.read);
-  if (!/^\d{1,9}$/.test(p.id)) throw notFound('No such business case in this workspace.');
-  return NextResponse.json(await loadPlanVsActual(access, Number(p.id)));
+  return NextResponse.json(await loadPlanVsActual(access, readParams(idParams, p).id));
 });

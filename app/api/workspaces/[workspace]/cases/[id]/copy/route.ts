@@ -2,16 +2,15 @@ import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { toSummaryDto } from '@/lib/cases/evaluate';
-import { parseCaseId } from '@/lib/cases/params';
 import { copyCase } from '@/lib/db/queries/cases';
-import { parseOr422, route } from '@/lib/http';
+import { idParams, parseOr422, readParams, route } from '@/lib/http';
 import { copyCaseSchema } from '@/lib/validation/business-case';
 
 /** POST: a new draft with the same assumptions, selection and plan (any status may be copied). */
 export const POST = route<{ workspace: string; id: string }>(async (req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.edit);
-  const caseId = parseCaseId(id);
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.edit);
+  const { id: caseId } = readParams(idParams, p);
   const text = await req.text();
   let body: unknown = {};
   if (text.trim()) {

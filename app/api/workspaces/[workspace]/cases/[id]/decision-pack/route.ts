@@ -1,10 +1,9 @@
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
-import { parseCaseId } from '@/lib/cases/params';
 import { buildDecisionPackData, loadPackFonts } from '@/lib/decision-pack/build';
 import { packDisposition } from '@/lib/decision-pack/layout';
 import { renderDecisionPack } from '@/lib/decision-pack/render';
-import { route } from '@/lib/http';
+import { idParams, readParams, route } from '@/lib/http';
 
 /**
  * GET: the decision pack, a PDF of the case's proposal (summary, fleet chart,
@@ -14,9 +13,9 @@ import { route } from '@/lib/http';
  * MAX_TABLE_ROWS rows each.
  */
 export const GET = route<{ workspace: string; id: string }>(async (_req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.read);
-  const data = await buildDecisionPackData(access, parseCaseId(id));
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
+  const data = await buildDecisionPackData(access, readParams(idParams, p).id);
   const pdf = await renderDecisionPack(data, await loadPackFonts());
   return new Response(new Uint8Array(pdf), {
     headers: {

@@ -2,8 +2,7 @@ import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { fetchDecisionSummary } from '@/lib/cases/decision';
-import { parseCaseId } from '@/lib/cases/params';
-import { route } from '@/lib/http';
+import { idParams, readParams, route } from '@/lib/http';
 
 /**
  * GET: the decision summary (lib/cases/decision-summary.ts): from the frozen
@@ -12,7 +11,7 @@ import { route } from '@/lib/http';
  * what stops a draft from being evaluated.
  */
 export const GET = route<{ workspace: string; id: string }>(async (_req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.read);
-  return NextResponse.json(await fetchDecisionSummary(access, parseCaseId(id)));
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
+  return NextResponse.json(await fetchDecisionSummary(access, readParams(idParams, p).id));
 });

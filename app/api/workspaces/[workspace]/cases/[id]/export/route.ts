@@ -1,8 +1,7 @@
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
-import { parseCaseId } from '@/lib/cases/params';
 import { exportStoredCase } from '@/lib/export/case-export';
-import { invalid, route } from '@/lib/http';
+import { idParams, invalid, readParams, route } from '@/lib/http';
 
 const TYPES = {
   xlsx: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
@@ -14,11 +13,11 @@ const TYPES = {
  * Summary table as CSV. Any member of the workspace may export (viewers too).
  */
 export const GET = route<{ workspace: string; id: string }>(async (req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.read);
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
   const format = new URL(req.url).searchParams.get('format') ?? 'xlsx';
   if (format !== 'xlsx' && format !== 'csv') throw invalid([{ path: 'format', message: 'must be xlsx or csv' }]);
-  const { body, fileName } = await exportStoredCase(access, parseCaseId(id), format);
+  const { body, fileName } = await exportStoredCase(access, readParams(idParams, p).id, format);
   return new Response(typeof body === 'string' ? body : new Uint8Array(body), {
     headers: {
       'content-type': TYPES[format],

@@ -1,9 +1,8 @@
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
 import { hashedBytes } from '@/lib/approvals/canonical';
-import { parseCaseId } from '@/lib/cases/params';
 import { db } from '@/lib/db';
-import { notFound, route } from '@/lib/http';
+import { idParams, notFound, readParams, route } from '@/lib/http';
 
 /**
  * GET: the exact bytes the approval's SHA-256 covers, as a download, so anyone
@@ -13,9 +12,9 @@ import { notFound, route } from '@/lib/http';
  * 404 until the case is approved. Any member may download it.
  */
 export const GET = route<{ workspace: string; id: string }>(async (_req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.read);
-  const caseId = parseCaseId(id);
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
+  const { id: caseId } = readParams(idParams, p);
   const row = await db()('business_cases').where({ id: caseId, workspaceId: access.workspace.id }).first('frozenCase', 'frozenResult', 'frozenRecord', 'frozenHash');
   if (!row) throw notFound('No such business case in this workspace.');
   const text = hashedBytes(row);

@@ -1,9 +1,8 @@
 import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
-import { parseCaseId } from '@/lib/cases/params';
 import { evaluateStoredProgramme } from '@/lib/cases/programme';
-import { route } from '@/lib/http';
+import { idParams, readParams, route } from '@/lib/http';
 
 /**
  * GET: the case's fleet programme — each truck's chosen repower timing under
@@ -12,7 +11,7 @@ import { route } from '@/lib/http';
  * one more unit of each binding constraint. 422 lists what stops evaluation.
  */
 export const GET = route<{ workspace: string; id: string }>(async (_req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.read);
-  return NextResponse.json(await evaluateStoredProgramme(access, parseCaseId(id)));
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
+  return NextResponse.json(await evaluateStoredProgramme(access, readParams(idParams, p).id));
 });

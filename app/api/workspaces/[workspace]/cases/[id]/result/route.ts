@@ -1,8 +1,7 @@
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
-import { parseCaseId } from '@/lib/cases/params';
 import { cachedResultBody } from '@/lib/cases/result-cache';
-import { route } from '@/lib/http';
+import { idParams, readParams, route } from '@/lib/http';
 
 /**
  * GET: the case evaluated on the server — `result` is the engine's
@@ -16,9 +15,9 @@ import { route } from '@/lib/http';
  * `private, no-cache`: a browser keeps it and revalidates on every use.
  */
 export const GET = route<{ workspace: string; id: string }>(async (req, { params }) => {
-  const { workspace, id } = await params;
-  const access = await requireMember(workspace, CAN.read);
-  const { etag, body } = await cachedResultBody(access, parseCaseId(id), req.headers.get('if-none-match'));
+  const p = await params;
+  const access = await requireMember(p.workspace, CAN.read);
+  const { etag, body } = await cachedResultBody(access, readParams(idParams, p).id, req.headers.get('if-none-match'));
   const headers = { ETag: etag, 'Cache-Control': 'private, no-cache', Vary: 'Cookie' };
   if (body === null) return new Response(null, { status: 304, headers });
   return new Response(body, { status: 200, headers: { ...headers, 'Content-Type': 'application/json' } });

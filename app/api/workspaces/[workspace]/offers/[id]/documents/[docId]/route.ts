@@ -2,18 +2,21 @@ import { Readable } from 'node:stream';
 import { NextResponse } from 'next/server';
 import { requireMember } from '@/lib/auth/access';
 import { CAN } from '@/lib/auth/roles';
-import { parseId } from '@/lib/api/crud';
-import { notFound, route } from '@/lib/http';
+import { idParam, idParams, notFound, readParams, route } from '@/lib/http';
 import { deleteQuoteDocument, findQuoteDocument } from '@/lib/db/queries/quote-documents';
 import { getStorage } from '@/lib/storage';
 
 type P = { workspace: string; id: string; docId: string };
 
+/** The offer's id and the document's. */
+const docParams = idParams.extend({ docId: idParam });
+
 /** GET: download (members of the workspace only; the bytes are never served from a public folder). */
 export const GET = route<P>(async (_req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.read);
-  const doc = await findQuoteDocument(access.workspace.id, parseId(p.id), parseId(p.docId));
+  const { id, docId } = readParams(docParams, p);
+  const doc = await findQuoteDocument(access.workspace.id, id, docId);
   const stored = await getStorage().get(doc.storageKey);
   if (!stored) throw notFound('The stored file is missing.');
   // streamed from the disk or the bucket as it is read, never held whole
@@ -32,6 +35,7 @@ export const GET = route<P>(async (_req, { params }) => {
 export const DELETE = route<P>(async (_req, { params }) => {
   const p = await params;
   const access = await requireMember(p.workspace, CAN.edit);
-  await deleteQuoteDocument(access, parseId(p.id), parseId(p.docId));
+  const { id, docId } = readParams(docParams, p);
+  await deleteQuoteDocument(access, id, docId);
   return new NextResponse(null, { status: 204 });
 });
