@@ -13,6 +13,7 @@ import * as m0014 from './0014_pinned_run';
 import * as m0015 from './0015_frozen_proposal';
 import * as m0016 from './0016_membership_version';
 import * as m0017 from './0017_readings';
+import * as m0019 from './0019_case_engine_lives';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -34,6 +35,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0015_frozen_proposal': m0015,
   '0016_membership_version': m0016,
   '0017_readings': m0017,
+  '0019_case_engine_lives': m0019,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -8,7 +8,7 @@ import { validateCase, type CaseFile } from '@/lib/validation/case';
 import { decideFigures } from '@/lib/cases/decision';
 import { fetchPinnedRun } from '@/lib/risk/runs';
 import { nowIso } from '@/lib/time';
-import { readPlanSettings } from '@/lib/validation/business-case';
+import { readEngineLives, readPlanSettings } from '@/lib/validation/business-case';
 import { canonicalJson, sha256Hex, verifyFrozen, type FrozenColumns, type FrozenRecord } from './canonical';
 
 export type CaseRow = FrozenColumns & {
@@ -22,6 +22,8 @@ export type CaseRow = FrozenColumns & {
   submittedCase?: string | null;
   /** the plan settings JSON as stored */
   plan?: string | null;
+  /** the engine-life overrides JSON as stored (migration 0019), or null */
+  engineLives?: string | null;
   createdAt?: string;
 };
 
@@ -56,6 +58,7 @@ export async function buildCaseForRow(row: CaseRow, k: Knex = db()): Promise<Cas
       assumptionSetId: row.assumptionSetId,
       truckIds: selection.length ? selection.map((s) => s.truckId) : undefined,
       offerOverrides: Object.fromEntries(selection.map((s) => [s.truckId, s.repowerOfferId ?? null])),
+      engineLives: readEngineLives(row.engineLives),
     },
     k,
   );

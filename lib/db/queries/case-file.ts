@@ -18,6 +18,12 @@ export type CaseSelection = {
   offerOverrides?: Record<number, number | null | undefined>;
   /** Include every engine type and offer, not only those the trucks refer to (case file download). */
   includeAll?: boolean;
+  /**
+   * Per engine type row id, the planned overhaul life the case adopts in place
+   * of the library's (`business_cases.engineLives`, whole hours in the case
+   * file's range): the evaluation, the export and the snapshots all read it.
+   */
+  engineLives?: Record<string, number | undefined>;
 };
 
 const ENGINE_FIELDS = [
@@ -59,7 +65,9 @@ export async function buildCaseFile(workspaceId: number, sel: CaseSelection, k: 
     name: sel.name,
     currency: ws.currency as string,
     assumptions: assumptionsOfRow(set),
-    engines: engines.filter((e) => sel.includeAll || usedEngines.has(e.id)).map((e) => ({ id: e.key as string, ...pick(e, ENGINE_FIELDS) })),
+    engines: engines
+      .filter((e) => sel.includeAll || usedEngines.has(e.id))
+      .map((e) => ({ id: e.key as string, ...pick(e, ENGINE_FIELDS), lifeHours: sel.engineLives?.[String(e.id)] ?? e.lifeHours })),
     repowerOffers: offers
       .filter((o) => sel.includeAll || usedOffers.has(o.id))
       .map((o) => ({ id: o.key as string, engineId: engineKey.get(o.engineTypeId) as string, ...pick(o, OFFER_FIELDS), ...pickSet(o, OPTIONAL_OFFER_FIELDS) })),
