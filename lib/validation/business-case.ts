@@ -63,8 +63,13 @@ export const createCaseSchema = z.strictObject({
  */
 export const engineLifeHoursSchema = ranged(LIMITS.lifeHours.min, LIMITS.lifeHours.max, 'hours').int('must be a whole number of hours');
 export const engineLivesSchema = z
-  .record(z.string().regex(/^[1-9]\d{0,8}$/, 'must be an engine type id'), engineLifeHoursSchema)
-  .refine((m) => Object.keys(m).length <= CASE_LIST_LIMITS.engines, `must list at most ${CASE_LIST_LIMITS.engines} engine types`);
+  .record(z.string(), engineLifeHoursSchema)
+  .superRefine((m, ctx) => {
+    const keys = Object.keys(m);
+    if (keys.length > CASE_LIST_LIMITS.engines) ctx.addIssue({ code: 'custom', message: `must list at most ${CASE_LIST_LIMITS.engines} engine types` });
+    // zod's own message for a bad record key does not name the rule
+    for (const k of keys) if (!/^[1-9]\d{0,8}$/.test(k)) ctx.addIssue({ code: 'custom', path: [k], message: 'must be an engine type id' });
+  });
 export type EngineLives = z.infer<typeof engineLivesSchema>;
 
 /** Stored engineLives JSON (migration 0019), or {} when none or unreadable (the case then reads the library). */
