@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { CaseNav } from '@/components/cases/case-nav';
+import { CaseEngineLives } from '@/components/cases/case-engine-lives';
 import { CaseSettings } from '@/components/cases/case-settings';
 import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
 import { CaseResults } from '@/components/cases/case-results';
@@ -39,6 +40,7 @@ export default async function CasePage({ params, searchParams }: Props) {
       {previous ? <p className="mb-3 text-sm"><Link className="text-accent underline" href={`/${workspace}/cases/compare?a=${previous.id}&b=${c.id}`}>What changed since the previous revision ({previous.name}, #{previous.id})</Link></p> : null}
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}
       <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
+      <CaseEngineLives slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} />
       <CaseResults slug={workspace} caseId={c.id} />
       <div className="mt-4 max-w-2xl"><CaseApprovalPanel workspace={workspace} caseId={c.id} /></div>
       <SafetyCaution />
