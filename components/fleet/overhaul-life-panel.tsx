@@ -119,7 +119,9 @@ function dutyText(duty: ReturnType<typeof dutyOfEngine>, margin: { marginPerTonn
   const named = duty.trucks.length > MAX_NAMED_TRUCKS ? `${duty.trucks.slice(0, MAX_NAMED_TRUCKS).join(', ')} and ${duty.trucks.length - MAX_NAMED_TRUCKS} more` : duty.trucks.join(', ');
   const price = `${formatMoney(margin.marginPerTonne, { digits: 2 })} ${currency} a tonne × a lost-margin share of ${formatNumber(margin.lostMarginShare * 100)} %`;
   if (duty.basis === 'none') return `No truck is fitted with this engine type or offered it, so days down are not priced: only the overhaul and repair costs count.`;
-  const whose = duty.basis === 'fitted' ? `the ${duty.trucks.length} truck(s) fitted with it` : `the ${duty.trucks.length} truck(s) whose repower offer fits it (none is fitted with it yet)`;
+  const n = duty.trucks.length;
+  const trucks = n === 1 ? 'the truck' : `the ${n} trucks`;
+  const whose = duty.basis === 'fitted' ? `${trucks} fitted with it` : `${trucks} whose repower offer fits it (none is fitted with it yet)`;
   return `A day down costs ${formatMoney(dayDown)} ${currency}: the mean duty of ${whose} (${named}), ${formatNumber(duty.annualHours)} h a year at ${formatNumber(duty.tonnesPerHour)} t/h, at ${price}.`;
 }
 

@@ -65,7 +65,7 @@ describe('recommended overhaul life in the engine library, adopted in a case', (
 
     // the duty says which trucks and that it is their mean; the note says what kind of rate it is
     const dutyText = (await panel.getByTestId('overhaul-life-duty').textContent()) ?? '';
-    expect(dutyText).toContain(`the mean duty of the ${duty.trucks.length} truck(s) fitted with it (${duty.trucks.slice(0, 3).join(', ')}`);
+    expect(dutyText).toContain(`the mean duty of the ${duty.trucks.length} trucks fitted with it (${duty.trucks.slice(0, 3).join(', ')}`);
     expect(await panel.getByText(/steady-state, undiscounted rate at year-1 prices/).count()).toBe(1);
 
     // the chart: the curve, the current life and the optimum marked; and the table beside it
