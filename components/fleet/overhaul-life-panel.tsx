@@ -153,7 +153,11 @@ function AdoptInCase({ ws, engine, hours }: { ws: WorkspaceView; engine: EngineR
       <div>
         <label className="label" htmlFor="adopt-life-case">Case</label>
         <select id="adopt-life-case" className="field" value={chosen.id} onChange={(e) => { setCaseId(Number(e.target.value)); setState({ kind: 'idle' }); }}>
-          {open.map((c) => <option key={c.id} value={c.id}>{c.name} (#{c.id})</option>)}
+          {open.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name} (#{c.id}){c.engineLives[String(engine.id)] !== undefined ? `: uses ${formatNumber(c.engineLives[String(engine.id)])} h now` : ''}
+            </option>
+          ))}
         </select>
       </div>
       <button type="button" className="btn btn-primary" disabled={state.kind === 'saving'} onClick={adopt}>
