@@ -127,7 +127,7 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
         Median life η·(ln 2)^(1/β), mean life η·Γ(1 + 1/β) and the chance of failing in service before the planned life, 1 − exp(−(life/η)^β), are for a new engine,
         from its Weibull law. &ldquo;Recommended life&rdquo; gives the planned life with the lowest expected cost per operating hour.
       </p>
-      {lifeOf !== null && data.items.some((e) => e.id === lifeOf) ? <OverhaulLifePanel ws={ws} engine={data.items.find((e) => e.id === lifeOf)!} onClose={() => setLifeOf(null)} /> : null}
+      {lifeOf !== null && data.items.some((e) => e.id === lifeOf) ? <OverhaulLifePanel ws={ws} engine={data.items.find((e) => e.id === lifeOf)!} engineIds={data.items.map((e) => e.id)} onClose={() => setLifeOf(null)} /> : null}
     </section>
   );
 }

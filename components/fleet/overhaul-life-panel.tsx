@@ -18,7 +18,7 @@ const MAX_NAMED_TRUCKS = 12;
  * the optimum of the age-replacement cost rate on the duty of the trucks that
  * run it and the margin of an assumption set, the curve, and "Use in case…".
  */
-export function OverhaulLifePanel({ ws, engine, onClose }: { ws: WorkspaceView; engine: EngineRow; onClose: () => void }) {
+export function OverhaulLifePanel({ ws, engine, engineIds, onClose }: { ws: WorkspaceView; engine: EngineRow; engineIds: number[]; onClose: () => void }) {
   const trucks = useSWR<{ items: TruckRow[] }>(api(ws.slug, 'trucks'));
   const offers = useSWR<{ items: OfferRow[] }>(api(ws.slug, 'offers'));
   const sets = useSWR<{ items: AssumptionSetRow[] }>(api(ws.slug, 'assumption-sets'));
@@ -108,7 +108,7 @@ export function OverhaulLifePanel({ ws, engine, onClose }: { ws: WorkspaceView; 
             the expected length of a cycle. It is a steady-state, undiscounted rate at year-1 prices, before tax: the long-run cost per operating hour of the rebuild
             cycle, not a horizon npv. Adopt the life in a case to see its effect on the case&apos;s npv. Oil services cost the same per hour whatever the life and are left out.
           </p>
-          {ws.canEdit && rec.adoptableHours !== null ? <AdoptInCase ws={ws} engine={engine} hours={rec.adoptableHours} /> : null}
+          {ws.canEdit && rec.adoptableHours !== null ? <AdoptInCase ws={ws} engine={engine} engineIds={engineIds} hours={rec.adoptableHours} /> : null}
         </>
       ) : null}
     </section>
@@ -126,7 +126,7 @@ function dutyText(duty: ReturnType<typeof dutyOfEngine>, margin: { marginPerTonn
 }
 
 /** "Use in case…": adopt the recommended life for this engine type in a draft or returned case. */
-function AdoptInCase({ ws, engine, hours }: { ws: WorkspaceView; engine: EngineRow; hours: number }) {
+function AdoptInCase({ ws, engine, engineIds, hours }: { ws: WorkspaceView; engine: EngineRow; engineIds: number[]; hours: number }) {
   const key = api(ws.slug, 'cases');
   const { data, error } = useSWR<{ cases: CaseSummaryDto[] }>(key);
   const { mutate } = useSWRConfig();
@@ -140,7 +140,10 @@ function AdoptInCase({ ws, engine, hours }: { ws: WorkspaceView; engine: EngineR
   const adopt = async () => {
     setState({ kind: 'saving' });
     try {
-      const r = await sendJson<{ case: CaseSummaryDto }>(api(ws.slug, `cases/${chosen.id}`), 'PATCH', { version: chosen.version, engineLives: { ...chosen.engineLives, [engine.id]: hours } });
+      // an override of an engine type deleted from the library since would be refused: it goes
+      const known = new Set(engineIds.map(String));
+      const kept = Object.fromEntries(Object.entries(chosen.engineLives).filter(([id]) => known.has(id)));
+      const r = await sendJson<{ case: CaseSummaryDto }>(api(ws.slug, `cases/${chosen.id}`), 'PATCH', { version: chosen.version, engineLives: { ...kept, [engine.id]: hours } });
       await mutate((k) => typeof k === 'string' && k.startsWith(api(ws.slug, 'cases')));
       setState({ kind: 'done', c: r.case });
     } catch (e) {
