@@ -27,6 +27,7 @@ export const ACTION_LABELS: Record<string, string> = {
   delete: 'deleted',
   rename: 'renamed',
   'update-plan': 'plan changed',
+  'update-engine-lives': 'engine lives changed',
   copy: 'copied',
   'create-revision': 'new revision',
   reforecast: 're-forecast from readings',

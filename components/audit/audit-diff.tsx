@@ -11,7 +11,7 @@ const Value = ({ v }: { v: string }) => (v === '' ? <span className="italic text
 export function AuditDiff({ before, after, action }: { before: string | null; after: string | null; action?: string }) {
   const lines = diffAudit(before, after);
   if (lines.length === 0) {
-    return <span className="text-muted">{action === 'update' || action === 'rename' || action === 'update-plan' ? 'saved with no field changed' : 'no field values recorded'}</span>;
+    return <span className="text-muted">{action === 'update' || action === 'rename' || action === 'update-plan' || action === 'update-engine-lives' ? 'saved with no field changed' : 'no field values recorded'}</span>;
   }
   return (
     <table className="w-full text-xs" data-testid="audit-diff">

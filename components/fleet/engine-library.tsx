@@ -8,6 +8,7 @@ import { reliabilityFigures } from '@/lib/engine/reliability-figures';
 import { formatMoney, formatNumber, formatPercent } from '@/lib/format';
 import { engineInputSchema, type EngineInput } from '@/lib/validation/fleet';
 import { EntityForm, type FieldSpec } from './entity-form';
+import { OverhaulLifePanel } from './overhaul-life-panel';
 import { api, type EngineRow, type WorkspaceView } from './types';
 
 const n = (name: string, label: string, hint?: string, quantity?: Quantity): FieldSpec => ({ name, label, kind: 'number', hint, quantity });
@@ -31,6 +32,7 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
   const { data, error } = useSWR<{ items: EngineRow[] }>(key);
   const { mutate } = useSWRConfig();
   const [editing, setEditing] = useState<EngineRow | 'new' | null>(null);
+  const [lifeOf, setLifeOf] = useState<number | null>(null);
   const u = UNIT_LABEL[ws.units];
   const q = (qty: Quantity, v: number) => formatNumber(toDisplay(qty, v, ws.units), DISPLAY_DIGITS[ws.units][qty]);
   if (error) return <p role="alert" className="text-sm text-loss">Could not load engine types: {error.message}</p>;
@@ -93,7 +95,7 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
               <th className="n" title="η·(ln 2)^(1/β): half of new engines fail in service before this age">Median life (h)</th>
               <th className="n" title="η·Γ(1 + 1/β)">Mean life (h)</th>
               <th className="n" title="1 − exp(−(planned life/η)^β), for a new engine">Fails before planned life</th><th className="n">Overhaul ({ws.currency})</th><th className="n">Failure ({ws.currency})</th>
-              <th className="n">Oil interval (h)</th><th className="n">Sump ({u.volume})</th>{ws.canEdit ? <th><span className="sr-only">Actions</span></th> : null}
+              <th className="n">Oil interval (h)</th><th className="n">Sump ({u.volume})</th><th><span className="sr-only">Overhaul life</span></th>{ws.canEdit ? <th><span className="sr-only">Actions</span></th> : null}
             </tr>
           </thead>
           <tbody>
@@ -110,6 +112,11 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
                 </td>
                 <td className="n">{formatMoney(e.overhaulCost, { negative: ws.negativeStyle })}</td><td className="n">{formatMoney(e.failureCost, { negative: ws.negativeStyle })}</td>
                 <td className="n">{formatNumber(e.serviceIntervalHours)}</td><td className="n">{q('volume', e.sumpLitres)}</td>
+                <td className="text-right">
+                  <button type="button" className="whitespace-nowrap text-xs text-accent hover:underline" aria-label={`Recommended overhaul life of ${e.key}`} aria-expanded={lifeOf === e.id} onClick={() => setLifeOf(lifeOf === e.id ? null : e.id)}>
+                    Recommended life
+                  </button>
+                </td>
                 {ws.canEdit ? <td className="text-right"><button type="button" className="text-xs text-accent hover:underline" aria-label={`Edit ${e.key}`} onClick={() => setEditing(e)}>Edit</button></td> : null}
               </tr>
             ))}
@@ -118,8 +125,9 @@ export function EngineLibrary({ ws }: { ws: WorkspaceView }) {
       </div>
       <p className="mt-1 text-xs text-muted">
         Median life η·(ln 2)^(1/β), mean life η·Γ(1 + 1/β) and the chance of failing in service before the planned life, 1 − exp(−(life/η)^β), are for a new engine,
-        from its Weibull law.
+        from its Weibull law. &ldquo;Recommended life&rdquo; gives the planned life with the lowest expected cost per operating hour.
       </p>
+      {lifeOf !== null && data.items.some((e) => e.id === lifeOf) ? <OverhaulLifePanel ws={ws} engine={data.items.find((e) => e.id === lifeOf)!} engineIds={data.items.map((e) => e.id)} onClose={() => setLifeOf(null)} /> : null}
     </section>
   );
 }

@@ -8,7 +8,7 @@ import { validateCase, type CaseFile } from '@/lib/validation/case';
 import { decideFigures } from '@/lib/cases/decision';
 import { fetchPinnedRun } from '@/lib/risk/runs';
 import { nowIso } from '@/lib/time';
-import { readPlanSettings, readTruckFigures } from '@/lib/validation/business-case';
+import { readEngineLives, readPlanSettings, readTruckFigures } from '@/lib/validation/business-case';
 import { canonicalJson, sha256Hex, verifyFrozen, type FrozenColumns, type FrozenRecord } from './canonical';
 
 export type CaseRow = FrozenColumns & {
@@ -24,6 +24,8 @@ export type CaseRow = FrozenColumns & {
   plan?: string | null;
   /** the case's own truck figures JSON as stored (migration 0018), or null */
   truckFigures?: string | null;
+  /** the engine-life overrides JSON as stored (migration 0019), or null */
+  engineLives?: string | null;
   createdAt?: string;
 };
 
@@ -59,6 +61,7 @@ export async function buildCaseForRow(row: CaseRow, k: Knex = db()): Promise<Cas
       truckIds: selection.length ? selection.map((s) => s.truckId) : undefined,
       offerOverrides: Object.fromEntries(selection.map((s) => [s.truckId, s.repowerOfferId ?? null])),
       truckFigures: readTruckFigures(row.truckFigures),
+      engineLives: readEngineLives(row.engineLives),
     },
     k,
   );

@@ -10,7 +10,7 @@ import { freezeCase, snapshotForSubmission, type CaseRow } from './freeze';
 import { notifyDecision, notifySubmitted } from './notify';
 import { canDecide, canRevise, canSubmit, type CaseStatus, type Decision, type Outcome, type WorkflowState } from './workflow';
 
-type FullCaseRow = CaseRow & { version: number; submittedBy: number | null; plan: string; revisionOf: number | null };
+type FullCaseRow = CaseRow & { version: number; submittedBy: number | null; plan: string; engineLives?: string | null; revisionOf: number | null };
 
 /** A case of this workspace, or 404 (also for another workspace's id). */
 export async function loadCase(k: Knex, workspaceId: number, id: number): Promise<FullCaseRow> {
@@ -119,6 +119,7 @@ export async function createRevision(access: Access, id: number): Promise<{ id: 
       selection: row.selection,
       plan: row.plan,
       truckFigures: row.truckFigures ?? null,
+      engineLives: row.engineLives ?? null,
       status: 'draft',
       revisionOf: id,
       version: 1,

@@ -31,6 +31,7 @@ export function toSummaryDto(c: CaseRow): CaseSummaryDto {
     assumptionSetName: c.assumptionSetName,
     truckCount: c.selection.length,
     plan: c.plan,
+    engineLives: c.engineLives,
     updatedAt: c.updatedAt,
   };
 }
@@ -79,7 +80,7 @@ export async function loadCaseInputs(access: Access, id: number): Promise<CaseIn
   const truckRows: TruckRows = new Map(found.map((t) => [t.unitNumber as string, { id: t.id, payloadClass: t.payloadClass }]));
   if (problems.length) return { row, file: null, source: 'live', problems, truckRows };
   const offerOverrides = Object.fromEntries(row.selection.map((s) => [s.truckId, s.repowerOfferId]));
-  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides, truckFigures: row.truckFigures });
+  const built = await buildCaseFile(wsId, { name: row.name, assumptionSetId: row.assumptionSetId as number, truckIds: ids, offerOverrides, truckFigures: row.truckFigures, engineLives: row.engineLives });
   return { row, file: built, source: 'live', problems, truckRows };
 }
 

@@ -15,6 +15,8 @@ export type CaseSummaryDto = {
   assumptionSetName: string | null;
   truckCount: number;
   plan: PlanSettings;
+  /** planned overhaul life by engine type row id that the case adopts in place of the library's; {} when none */
+  engineLives: Record<string, number>;
   updatedAt: string;
 };
 

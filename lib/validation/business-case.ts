@@ -4,7 +4,7 @@
  * the capital-plan settings. One schema per shape, shared by forms and handlers.
  */
 import { z } from '@/lib/validation/zod';
-import { ranged, truckSchema } from './case';
+import { CASE_LIST_LIMITS, LIMITS, ranged, truckSchema } from './case';
 import { plainText } from './fleet';
 
 /** Largest budget for one year of the capital plan. */
@@ -55,12 +55,42 @@ export const createCaseSchema = z.strictObject({
   selection: selectionSchema,
 });
 
+/**
+ * The planned overhaul life a case adopts for an engine type in place of the
+ * engine library's (issue 15: the recommended overhaul life, or any other):
+ * whole hours within the case file's `lifeHours` range (docs/methodology.md,
+ * "Input limits"). By engine type row id (as text, the JSON key).
+ */
+export const engineLifeHoursSchema = ranged(LIMITS.lifeHours.min, LIMITS.lifeHours.max, 'hours').int('must be a whole number of hours');
+export const engineLivesSchema = z
+  .record(z.string(), engineLifeHoursSchema)
+  .superRefine((m, ctx) => {
+    const keys = Object.keys(m);
+    if (keys.length > CASE_LIST_LIMITS.engines) ctx.addIssue({ code: 'custom', message: `must list at most ${CASE_LIST_LIMITS.engines} engine types` });
+    // zod's own message for a bad record key does not name the rule
+    for (const k of keys) if (!/^[1-9]\d{0,8}$/.test(k)) ctx.addIssue({ code: 'custom', path: [k], message: 'must be an engine type id' });
+  });
+export type EngineLives = z.infer<typeof engineLivesSchema>;
+
+/** Stored engineLives JSON (migration 0019), or {} when none or unreadable (the case then reads the library). */
+export function readEngineLives(json: string | null | undefined): EngineLives {
+  if (!json) return {};
+  try {
+    const parsed = engineLivesSchema.safeParse(JSON.parse(json));
+    return parsed.success ? parsed.data : {};
+  } catch {
+    return {};
+  }
+}
+
 export const updateCaseSchema = z.strictObject({
   version: z.number().int().positive('must be the version you loaded'),
   name: caseNameSchema.optional(),
   assumptionSetId: id.optional(),
   selection: selectionSchema.optional(),
   plan: planSettingsSchema.optional(),
+  /** the whole map of the case's engine-life overrides (replaces the stored one; {} removes all) */
+  engineLives: engineLivesSchema.optional(),
 });
 
 export const copyCaseSchema = z.strictObject({ name: caseNameSchema.optional() });

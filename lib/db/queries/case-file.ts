@@ -24,6 +24,12 @@ export type CaseSelection = {
    * re-forecast case's figures from readings, `business_cases.truckFigures`).
    */
   truckFigures?: Record<string, CaseTruckFigures | undefined>;
+  /**
+   * Per engine type row id, the planned overhaul life the case adopts in place
+   * of the library's (`business_cases.engineLives`, whole hours in the case
+   * file's range): the evaluation, the export and the snapshots all read it.
+   */
+  engineLives?: Record<string, number | undefined>;
 };
 
 const ENGINE_FIELDS = [
@@ -73,7 +79,9 @@ export async function buildCaseFile(workspaceId: number, sel: CaseSelection, k: 
     name: sel.name,
     currency: ws.currency as string,
     assumptions: assumptionsOfRow(set),
-    engines: engines.filter((e) => sel.includeAll || usedEngines.has(e.id)).map((e) => ({ id: e.key as string, ...pick(e, ENGINE_FIELDS) })),
+    engines: engines
+      .filter((e) => sel.includeAll || usedEngines.has(e.id))
+      .map((e) => ({ id: e.key as string, ...pick(e, ENGINE_FIELDS), lifeHours: sel.engineLives?.[String(e.id)] ?? e.lifeHours })),
     repowerOffers: offers
       .filter((o) => sel.includeAll || usedOffers.has(o.id))
       .map((o) => ({ id: o.key as string, engineId: engineKey.get(o.engineTypeId) as string, ...pick(o, OFFER_FIELDS), ...pickSet(o, OPTIONAL_OFFER_FIELDS) })),

@@ -4,7 +4,7 @@ import { writeAudit } from '@/lib/audit';
 import type { Access } from '@/lib/auth/access';
 import { conflict, invalid, notFound, type Problem } from '@/lib/http';
 import { nowIso } from '@/lib/time';
-import { readPlanSettings, readTruckFigures, type CreateCaseInput, type PlanSettings, type Selection, type TruckFigures, type UpdateCaseInput } from '@/lib/validation/business-case';
+import { readEngineLives, readPlanSettings, readTruckFigures, type CreateCaseInput, type EngineLives, type PlanSettings, type Selection, type TruckFigures, type UpdateCaseInput } from '@/lib/validation/business-case';
 import { db } from '../index';
 
 export type CaseRow = {
@@ -16,6 +16,8 @@ export type CaseRow = {
   plan: PlanSettings;
   /** the case's own figures per truck row id in place of the register's (a re-forecast case); {} = the register's */
   truckFigures: TruckFigures;
+  /** planned overhaul life by engine type row id, in place of the library's (migration 0019); {} when none */
+  engineLives: EngineLives;
   status: string;
   version: number;
   /** canonical case/1 JSON frozen on approval, or null */
@@ -37,6 +39,7 @@ function toCase(r: Raw): CaseRow {
     selection: JSON.parse(r.selection || '[]'),
     plan: readPlanSettings(r.plan, r.createdAt),
     truckFigures: readTruckFigures(r.truckFigures),
+    engineLives: readEngineLives(r.engineLives),
     status: r.status,
     version: r.version,
     frozenCase: r.frozenCase ?? null,
@@ -91,7 +94,7 @@ export async function fetchCaseFormOptions(workspaceId: number) {
 }
 
 /** Every id a case names must belong to the workspace; each stranger is one problem with its path. */
-async function checkReferences(k: Knex, workspaceId: number, input: { assumptionSetId?: number; selection?: Selection }) {
+async function checkReferences(k: Knex, workspaceId: number, input: { assumptionSetId?: number; selection?: Selection; engineLives?: EngineLives }) {
   const problems: Problem[] = [];
   if (input.assumptionSetId !== undefined) {
     const set = await k('assumption_sets').where({ workspaceId, id: input.assumptionSetId }).first('id');
@@ -105,10 +108,18 @@ async function checkReferences(k: Knex, workspaceId: number, input: { assumption
       if (s.repowerOfferId !== null && !offerIds.has(s.repowerOfferId)) problems.push({ path: `selection[${i}].repowerOfferId`, message: 'is not a repower offer of this workspace' });
     });
   }
+  if (input.engineLives) {
+    const engineIds = new Set((await k('engine_types').where({ workspaceId }).select('id')).map((r) => String(r.id)));
+    for (const id of Object.keys(input.engineLives)) {
+      if (!engineIds.has(id)) problems.push({ path: `engineLives.${id}`, message: 'is not an engine type of this workspace' });
+    }
+  }
   if (problems.length) throw invalid(problems);
 }
 
-const snapshot = (c: CaseRow) => ({ name: c.name, assumptionSetId: c.assumptionSetId, selection: c.selection, plan: c.plan, status: c.status, version: c.version });
+const snapshot = (c: CaseRow) => ({ name: c.name, assumptionSetId: c.assumptionSetId, selection: c.selection, plan: c.plan, engineLives: c.engineLives, status: c.status, version: c.version });
+/** The stored form of a case's engine-life overrides: null when it has none. */
+const storedEngineLives = (m: EngineLives) => (Object.keys(m).length ? JSON.stringify(m) : null);
 
 export async function createCase(access: Access, input: CreateCaseInput): Promise<CaseRow> {
   const wsId = access.workspace.id;
@@ -148,11 +159,13 @@ export async function updateCase(access: Access, id: number, input: UpdateCaseIn
     if (input.assumptionSetId !== undefined) patch.assumptionSetId = input.assumptionSetId;
     if (input.selection !== undefined) patch.selection = JSON.stringify(input.selection);
     if (input.plan !== undefined) patch.plan = JSON.stringify(input.plan);
+    if (input.engineLives !== undefined) patch.engineLives = storedEngineLives(input.engineLives);
     // the version in the WHERE makes a concurrent writer lose cleanly
     const n = await trx('business_cases').where({ id, workspaceId: wsId, version: before.version }).update(patch);
     if (n !== 1) throw conflict();
     const after = (await fetchCase(wsId, id, trx)) as CaseRow;
-    const action = input.plan && Object.keys(input).length === 2 ? 'update-plan' : input.name && Object.keys(input).length === 2 ? 'rename' : 'update';
+    const only = (field: keyof UpdateCaseInput) => input[field] !== undefined && Object.keys(input).length === 2;
+    const action = only('plan') ? 'update-plan' : only('name') ? 'rename' : only('engineLives') ? 'update-engine-lives' : 'update';
     await writeAudit(trx, { workspaceId: wsId, userId: access.userId, action, entity: 'business_case', entityId: id, before: snapshot(before), after: snapshot(after) });
     return after;
   });
@@ -165,7 +178,7 @@ export async function copyCase(access: Access, id: number, name?: string): Promi
     if (!src) throw notFound('No such business case in this workspace.');
     const now = nowIso();
     const [row] = await trx('business_cases')
-      .insert({ workspaceId: wsId, name: name ?? `${src.name} (copy)`.slice(0, 200), assumptionSetId: src.assumptionSetId, selection: JSON.stringify(src.selection), plan: JSON.stringify(src.plan), truckFigures: Object.keys(src.truckFigures).length ? JSON.stringify(src.truckFigures) : null, status: 'draft', version: 1, createdBy: access.userId, updatedBy: access.userId, createdAt: now, updatedAt: now })
+      .insert({ workspaceId: wsId, name: name ?? `${src.name} (copy)`.slice(0, 200), assumptionSetId: src.assumptionSetId, selection: JSON.stringify(src.selection), plan: JSON.stringify(src.plan), truckFigures: Object.keys(src.truckFigures).length ? JSON.stringify(src.truckFigures) : null, engineLives: storedEngineLives(src.engineLives), status: 'draft', version: 1, createdBy: access.userId, updatedBy: access.userId, createdAt: now, updatedAt: now })
       .returning('id');
     const created = (await fetchCase(wsId, typeof row === 'object' ? row.id : row, trx)) as CaseRow;
     await writeAudit(trx, { workspaceId: wsId, userId: access.userId, action: 'copy', entity: 'business_case', entityId: created.id, before: { copiedFrom: id }, after: snapshot(created) });

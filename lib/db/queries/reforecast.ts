@@ -205,6 +205,8 @@ export async function createReforecast(
     selection: row.selection,
     plan: JSON.stringify(nextPlan),
     truckFigures: JSON.stringify(checked.data),
+    // the engine lives the approved case adopted stay adopted
+    engineLives: row.engineLives ?? null,
     status: 'draft',
     version: 1,
     createdBy: access.userId,

@@ -3,6 +3,7 @@ import Link from 'next/link';
 import { notFound } from 'next/navigation';
 import { CaseApprovalPanel } from '@/components/approvals/case-approval-panel';
 import { CaseNav } from '@/components/cases/case-nav';
+import { CaseEngineLives } from '@/components/cases/case-engine-lives';
 import { CaseSettings } from '@/components/cases/case-settings';
 import { DecisionSummaryPanel } from '@/components/cases/decision-summary';
 import { CaseResults } from '@/components/cases/case-results';
@@ -48,6 +49,7 @@ export default async function CasePage({ params, searchParams }: Props) {
       {/* the form shows only to editors; the PATCH handler checks the role and status again */}
       <CaseSettings slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} startOpen={edit === '1'} />
       <OwnTruckFigures rows={ownFigures} />
+      <CaseEngineLives slug={workspace} caseId={c.id} canEdit={(CAN.edit as readonly string[]).includes(access.role)} />
       <CaseResults slug={workspace} caseId={c.id} />
       <div className="mt-4 max-w-2xl"><CaseApprovalPanel workspace={workspace} caseId={c.id} /></div>
       <SafetyCaution />
