@@ -185,7 +185,7 @@ describe('business cases in the browser', () => {
     await page.getByRole('link', { name: /Methodology/ }).click();
     await page.waitForURL(/\/methodology$/);
     expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Methodology');
-    expect(await page.getByRole('heading', { name: /Ranking, capital plan and schedule/ }).count()).toBe(1);
+    expect(await page.getByRole('heading', { name: /13\. Fleet programme and ranking/ }).count()).toBe(1);
     expect(await page.getByTestId('engine-methodology').textContent()).toMatch(/Discount factor/);
     await screenshot(page, 'methodology');
     await signOut(page);
