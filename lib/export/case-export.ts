@@ -13,7 +13,7 @@ import type { CaseResultDto } from '@/lib/cases/types';
 import { summaryCsv } from './csv';
 import { FMT } from './cells';
 import type { ApprovalStamp, PlanTable, WorkbookMeta } from './types';
-import { buildWorkbook } from './workbook';
+import { writeWorkbookBuffer } from './workbook';
 
 export type ExportFormat = 'xlsx' | 'csv';
 
@@ -85,6 +85,6 @@ export async function exportStoredCase(access: Access, id: number, format: Expor
     plan: planTables(dto),
     ...(await wordsBesideFigures(access.workspace.id)),
   };
-  const wb = buildWorkbook({ caseFile: file, evaluated: evaluateCaseDetailed(file, { trusted: true }), meta });
-  return { body: Buffer.from((await wb.xlsx.writeBuffer()) as ArrayBuffer), fileName: exportFileName(row.name, 'xlsx') };
+  const body = await writeWorkbookBuffer({ caseFile: file, evaluated: evaluateCaseDetailed(file, { trusted: true }), meta });
+  return { body, fileName: exportFileName(row.name, 'xlsx') };
 }

@@ -34,6 +34,28 @@ export interface ComparisonRefs {
 
 const na = (v: number | null) => (v === null ? 'n/a' : v);
 
+/** The row of comparison k's results for horizon n when the section starts at `startRow`. */
+function resultRow(startRow: number, n: number, k: number): number {
+  return startRow + 3 + n + 2 + 1 + k;
+}
+
+/** Where the section starting at `startRow` puts each comparison's results (the Summary refers to them before the truck sheet is written). */
+export function comparisonRefs(startRow: number, n: number): Record<ComparisonKey, ComparisonRefs> {
+  const out = {} as Record<ComparisonKey, ComparisonRefs>;
+  COMPARISONS.forEach((cmp, k) => {
+    const r = resultRow(startRow, n, k);
+    out[cmp.key] = {
+      deltaNpv: addr(r, 2, true),
+      irr: addr(r, 3, true),
+      mirr: addr(r, 6, true),
+      payback: addr(r, 7, true),
+      discountedPayback: addr(r, 8, true),
+      profitabilityIndex: addr(r, 9, true),
+    };
+  });
+  return out;
+}
+
 export function writeComparisons(
   ws: ExcelJS.Worksheet,
   result: TruckResult,
@@ -56,7 +78,6 @@ export function writeComparisons(
   styleHeader(h2);
   const first = startRow + 3;
   const last = first + n;
-  const out = {} as Record<ComparisonKey, ComparisonRefs>;
 
   COMPARISONS.forEach((cmp, k) => {
     const col = (j: number) => 2 + k * WIDTH + j;
@@ -167,14 +188,8 @@ export function writeComparisons(
       cell(2 + i).numFmt = fmt;
       cell(2 + i).alignment = { horizontal: 'right' };
     });
-    out[cmp.key] = {
-      deltaNpv: addr(r, 2, true),
-      irr: addr(r, 3, true),
-      mirr: addr(r, 6, true),
-      payback: addr(r, 7, true),
-      discountedPayback: addr(r, 8, true),
-      profitabilityIndex: addr(r, 9, true),
-    };
+    if (r !== resultRow(startRow, n, k)) throw new Error('comparison layout: results row moved');
   });
-  return out;
+  ws.getRow(r0 + COMPARISONS.length).commit();
+  return comparisonRefs(startRow, n);
 }
