@@ -9,10 +9,15 @@
  */
 import type ExcelJS from 'exceljs';
 
+const letters: string[] = [];
+
 /** 1 → A, 27 → AA. */
 export function colLetter(col: number): string {
+  const known = letters[col];
+  if (known !== undefined) return known;
   let s = '';
   for (let n = col; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
+  if (col < 1024) letters[col] = s;
   return s;
 }
 

@@ -89,13 +89,16 @@ export function writeComparisons(
       const r = first + y;
       const at = (j: number) => addr(r, col(j));
       const prev = (j: number) => addr(r - 1, col(j));
+      const line = ws.getRow(r);
       const f = (j: number, formula: string, fmt: string) => {
-        setFormula(ws.getCell(r, col(j)), formula);
-        ws.getCell(r, col(j)).numFmt = fmt;
+        const cell = line.getCell(col(j));
+        setFormula(cell, formula);
+        cell.numFmt = fmt;
       };
-      if (k === 0) ws.getCell(r, 1).value = y;
-      setFormula(ws.getCell(r, col(K.d)), `${addr(a.firstRow + y, C.cashFlow)}-${addr(b.firstRow + y, C.cashFlow)}`, A[y] - B[y]);
-      ws.getCell(r, col(K.d)).numFmt = FMT.money;
+      if (k === 0) line.getCell(1).value = y;
+      const dCell = line.getCell(col(K.d));
+      setFormula(dCell, `${addr(a.firstRow + y, C.cashFlow)}-${addr(b.firstRow + y, C.cashFlow)}`, A[y] - B[y]);
+      dCell.numFmt = FMT.money;
       f(K.dd, `${at(K.d)}*${addr(a.firstRow + y, C.df)}`, FMT.money);
       f(K.sign, `IF(ABS(${at(K.d)})<${EPS},0,SIGN(${at(K.d)}))`, FMT.count);
       if (y === 0) {

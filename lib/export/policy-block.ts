@@ -120,13 +120,14 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
     const d = p.periods[y];
     const b = d.breakdown;
     const at = (col: number) => addr(r, col);
+    const line = ws.getRow(r);
     const put = (col: number, v: number, fmt: string) => {
-      const cell = ws.getCell(r, col);
+      const cell = line.getCell(col);
       cell.value = v;
       cell.numFmt = fmt;
     };
     const f = (col: number, formula: string, result: number, fmt: string = FMT.money) => {
-      const cell = ws.getCell(r, col);
+      const cell = line.getCell(col);
       setFormula(cell, formula, result);
       cell.numFmt = fmt;
     };

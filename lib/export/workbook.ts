@@ -14,6 +14,7 @@
  */
 import { PassThrough, type Writable } from 'node:stream';
 import ExcelJS from 'exceljs';
+import { xmlEncode } from 'exceljs/lib/utils/utils';
 import WorkbookXform from 'exceljs/lib/xlsx/xform/book/workbook-xform';
 import { evaluateCaseDetailed } from '@/lib/engine/evaluate';
 import type { CaseFile } from '@/lib/validation/case';
@@ -28,8 +29,44 @@ import { addTruckSheet, truckSheetName, truckSheetRefs } from './sheet-truck';
 import type { WorkbookInput, WorkbookMeta } from './types';
 
 
+/** A cell as exceljs holds it (the parts the row writer reads). */
+interface CellInternals {
+  address: string;
+  col: number;
+  style: Partial<ExcelJS.Style>;
+  _comment?: unknown;
+  _value: { model: { type: number; value?: unknown; formula?: string; sharedFormula?: string; shareType?: string; si?: number; result?: unknown } };
+}
+
+/** A row as exceljs holds it. */
+interface RowInternals {
+  number: number;
+  height?: number;
+  hidden?: boolean;
+  outlineLevel?: number;
+  style: Partial<ExcelJS.Style>;
+  _cells: (CellInternals | undefined)[];
+}
+
+/** The streamed sheet's own row writer and what it needs. */
+interface SheetInternals {
+  _writeRow(row: RowInternals): void;
+  _writeColumns(): void;
+  _writeOpenSheetData(): void;
+  startedData: boolean;
+  stream: { write(text: string): void };
+}
+
+// exceljs's value types (Enums.ValueType): the ones the row writer handles itself
+const NULL = 0;
+const NUMBER = 2;
+const STRING = 3;
+const FORMULA = 6;
+
 /** What the streaming writer keeps to itself and this file reads. */
 interface WriterInternals {
+  styles: { addStyleModel(style: Partial<ExcelJS.Style>, cellType?: number): number };
+  sharedStrings: { add(text: string): number };
   zip: {
     append(source: string, data: { name: string }): void;
     on(event: 'entry', listener: (entry: { name: string }) => void): void;
@@ -100,21 +137,104 @@ class StreamedWorkbook extends ExcelJS.stream.xlsx.WorkbookWriter {
    * are given one shared object, so that work is done once per style.
    */
   override addWorksheet(name?: string, options?: Partial<ExcelJS.AddWorksheetOptions>): ExcelJS.Worksheet {
-    const ws = super.addWorksheet(name, options) as ExcelJS.Worksheet & { _writeRow(row: ExcelJS.Row): void };
-    const writeRow = ws._writeRow.bind(ws);
-    ws._writeRow = (row) => {
-      row.eachCell((cell) => {
-        const key = JSON.stringify(cell.style);
-        const known = this.interned.get(key);
-        if (known) cell.style = known;
-        else this.interned.set(key, cell.style);
-      });
-      writeRow(row);
+    const ws = super.addWorksheet(name, options);
+    const sheet = ws as unknown as SheetInternals;
+    const writeRow = sheet._writeRow.bind(ws);
+    sheet._writeRow = (row) => {
+      row.style = this.intern(row.style);
+      for (const cell of row._cells) if (cell) cell.style = this.intern(cell.style);
+      const xml = this.rowXml(row);
+      if (xml === null) return writeRow(row);
+      if (!sheet.startedData) {
+        sheet._writeColumns();
+        sheet._writeOpenSheetData();
+        sheet.startedData = true;
+      }
+      if (xml) sheet.stream.write(xml);
     };
     return ws;
   }
 
+  /**
+   * A row's XML as exceljs's RowXform and CellXform write it (same
+   * attributes in the same order, the same style and shared-string numbers
+   * asked in the same order), for rows of plain cells: empty, number, text
+   * and formula cells with a number or text result — every row of this
+   * workbook but the Cover's merged ones. `null`: let exceljs write the row;
+   * '': nothing to write (exceljs writes a row only when it has a value or a
+   * height).
+   */
+  private rowXml(row: RowInternals): string | null {
+    if (row.hidden || row.outlineLevel) return null;
+    const { styles, sharedStrings } = this.internals;
+    for (const cell of row._cells) {
+      if (!cell) continue;
+      const m = cell._value.model;
+      if (cell._comment || (m.type !== NULL && m.type !== NUMBER && m.type !== STRING && m.type !== FORMULA)) return null;
+      if (m.type === FORMULA && (m.sharedFormula || m.shareType || m.si !== undefined || !m.formula)) return null;
+      if (m.type === FORMULA && m.result != null && typeof m.result !== 'number' && typeof m.result !== 'string') return null;
+    }
+    let min = 0;
+    let max = 0;
+    let hasValues = false;
+    for (const cell of row._cells) {
+      if (!cell) continue;
+      if (!min || min > cell.col) min = cell.col;
+      if (max < cell.col) max = cell.col;
+      if (cell._value.model.type !== NULL) hasValues = true;
+    }
+    if (!hasValues && !row.height) return '';
+    const rowStyle = styles.addStyleModel(row.style);
+    let cells = '';
+    for (const cell of row._cells) {
+      if (!cell) continue;
+      const m = cell._value.model;
+      let type = m.type;
+      let t = '';
+      let body = '';
+      if (type === NUMBER) body = `<v>${xmlEncode(String(m.value))}</v>`;
+      else if (type === FORMULA) {
+        const f = `<f>${xmlEncode(m.formula as string)}</f>`;
+        if (m.result == null) {
+          type = NULL;
+          body = f;
+        } else if (typeof m.result === 'number') {
+          type = NUMBER;
+          body = `${f}<v>${xmlEncode(String(m.result))}</v>`;
+        } else {
+          type = STRING;
+          t = 'str'; // formula results never use shared strings
+          body = `${f}<v>${xmlEncode(m.result as string)}</v>`;
+        }
+      }
+      const s = styles.addStyleModel(cell.style || {}, type);
+      if (m.type === STRING) {
+        t = 's';
+        body = `<v>${sharedStrings.add(m.value as string)}</v>`;
+      }
+      if (m.type === NULL && !s) continue;
+      cells += `<c r="${xmlEncode(cell.address)}"${s ? ` s="${s}"` : ''}${t ? ` t="${t}"` : ''}${body ? `>${body}</c>` : '/>'}`;
+    }
+    const attrs =
+      `<row r="${row.number}"` +
+      (row.height ? ` ht="${xmlEncode(String(row.height))}" customHeight="1"` : '') +
+      (min > 0 && max > 0 && min <= max ? ` spans="${min}:${max}"` : '') +
+      (rowStyle ? ` s="${rowStyle}" customFormat="1"` : '') +
+      ' x14ac:dyDescent="0.25"';
+    return cells ? `${attrs}>${cells}</row>` : `${attrs}/>`;
+  }
+
   private readonly interned = new Map<string, Partial<ExcelJS.Style>>();
+
+  /** One object per distinct style (a style of a number format alone, the most common, is keyed without JSON). */
+  private intern(style: Partial<ExcelJS.Style>): Partial<ExcelJS.Style> {
+    const plain = !style.font && !style.border && !style.fill && !style.alignment && !style.protection;
+    const key = plain ? `#${style.numFmt ?? ''}` : JSON.stringify(style);
+    const known = this.interned.get(key);
+    if (known) return known;
+    this.interned.set(key, style);
+    return style;
+  }
 
   override async addWorkbook(): Promise<void> {
     const w = this.internals;
