@@ -68,7 +68,7 @@ interface WriterInternals {
   styles: { addStyleModel(style: Partial<ExcelJS.Style>, cellType?: number): number };
   sharedStrings: { add(text: string): number };
   zip: {
-    append(source: string, data: { name: string }): void;
+    append(source: string | Buffer, data: { name: string }): void;
     on(event: 'entry', listener: (entry: { name: string }) => void): void;
     on(event: 'error', listener: (err: Error) => void): void;
   };
@@ -234,6 +234,23 @@ class StreamedWorkbook extends ExcelJS.stream.xlsx.WorkbookWriter {
     if (known) return known;
     this.interned.set(key, style);
     return style;
+  }
+
+  /**
+   * The first thing the writer adds to the zip (from its constructor): the
+   * moment to make every text entry a Buffer before archiver sees it.
+   * archiver turns text with the deprecated `new Buffer(text)`, and Node
+   * warns about that once per thread when the call is not under
+   * node_modules — as in the worker bundle, which would log it at every export.
+   */
+  override addThemes(): Promise<void> {
+    const zip = this.internals.zip as WriterInternals['zip'] & { buffered?: boolean };
+    if (!zip.buffered) {
+      zip.buffered = true;
+      const append = zip.append.bind(zip);
+      zip.append = (source, data) => append(typeof source === 'string' ? Buffer.from(source) : source, data);
+    }
+    return super.addThemes();
   }
 
   override async addWorkbook(): Promise<void> {
