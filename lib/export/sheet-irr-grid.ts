@@ -67,14 +67,27 @@ function binomial(n: number, k: number): number {
 }
 
 const matrices = new Map<string, number[][]>();
+/** Numbers held in `matrices`, and the most it holds (16 MB of numbers: some 60 horizons of 30 years, 6 of 100). */
+let held = 0;
+const HOLD = 2_000_000;
 
-/** M[j][y] of piece p for horizon n (see the module comment); computed once per (n, p). */
+/**
+ * M[j][y] of piece p for horizon n (see the module comment); computed once
+ * per (n, p) while the cache holds it. A workbook asks for each truck's
+ * horizon in turn (the truck sheets' cached piece counts), so the cache
+ * keeps every horizon of a fleet as long as they fit.
+ */
 export function vincentMatrix(n: number, p: number): number[][] {
   const key = `${n}:${p}`;
   let m = matrices.get(key);
   if (!m) {
-    if (matrices.size >= 8 * IRR_PIECES) matrices.clear(); // a few horizons' worth (at N = 100, 2.6 MB each)
+    const size = (n + 1) * (n + 1);
+    if (held + size > HOLD) {
+      matrices.clear();
+      held = 0;
+    }
     matrices.set(key, (m = computeMatrix(n, p)));
+    held += size;
   }
   return m;
 }
