@@ -1,12 +1,13 @@
 /**
  * Workbook export of synthetic 100-, 500- and 2,000-truck cases, the way the
- * route runs it (a worker thread evaluates the case and streams the XLSX
- * into a file): time (median of a few runs), the file size and the peak
- * resident memory of the process, with the CPU time beside the wall time
- * (the machine is shared) and the load average before → after. Each size
- * runs in a fresh Node process (support/workbook-main.ts, bundled with
- * esbuild, plain node), so the peak is that export's alone. Targets (issue 18): 100 trucks ≤ 1 s,
- * 2,000 trucks ≤ 20 s and ≤ 500 MB peak.
+ * route runs it (the workbook worker thread, kept between exports, evaluates
+ * the case and streams the XLSX into a file): time (median of a few runs;
+ * the first starts the worker), the file size and the peak resident memory
+ * of the process, with the CPU time beside the wall time (the machine is
+ * shared) and the load average before → after. Each size runs in a fresh
+ * Node process (support/workbook-main.ts, bundled with esbuild, plain
+ * node), so the peak is that export's alone. Targets (issue 18): 100 trucks
+ * ≤ 1 s, 2,000 trucks ≤ 20 s and ≤ 500 MB peak.
  *
  * Alone: `npx tsx --conditions=react-server bench/workbook.ts`.
  */
@@ -17,7 +18,7 @@ import { buildWorkbookWorker } from '@/lib/export/build-workbook-worker';
 import { bundleForNode } from '@/lib/risk/build-worker';
 
 const SIZES = [
-  [100, 3],
+  [100, 5],
   [500, 2],
   [2000, 1],
 ] as const;
@@ -36,13 +37,14 @@ export async function run(): Promise<void> {
     const times = [...out.times].sort((a, b) => a - b);
     const median = times[Math.floor(times.length / 2)] / 1000;
     const cpu = [...out.cpu].sort((a, b) => a - b)[Math.floor(out.cpu.length / 2)] / 1000;
+    const cold = runs > 1 ? `, first run (worker started) ${(out.times[0] / 1000).toFixed(2)} s` : '';
     const mb = out.maxRss / 1e6;
     const target = TARGETS[size];
     const verdict = target
       ? `   target ≤ ${target.seconds} s${target.mb ? ` and ≤ ${target.mb} MB` : ''} → ${median <= target.seconds && (!target.mb || mb <= target.mb) ? 'met' : 'NOT met'}`
       : '';
     console.log(
-      `workbook, ${String(size).padStart(4)} trucks   median ${median.toFixed(2).padStart(6)} s (cpu ${cpu.toFixed(2).padStart(6)} s)   ${(out.bytes / 1024 / 1024).toFixed(2).padStart(6)} MiB   peak RSS ${mb.toFixed(0).padStart(5)} MB   (${runs} run${runs > 1 ? 's' : ''}, load ${load.toFixed(2)} → ${loadavg()[0].toFixed(2)})${verdict}`,
+      `workbook, ${String(size).padStart(4)} trucks   median ${median.toFixed(2).padStart(6)} s (cpu ${cpu.toFixed(2).padStart(6)} s)   ${(out.bytes / 1024 / 1024).toFixed(2).padStart(6)} MiB   peak RSS ${mb.toFixed(0).padStart(5)} MB   (${runs} run${runs > 1 ? 's' : ''}${cold}, load ${load.toFixed(2)} → ${loadavg()[0].toFixed(2)})${verdict}`,
     );
   }
 }

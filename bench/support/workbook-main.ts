@@ -5,9 +5,10 @@
  * peak resident memory (`maxRSS`, the worker thread's included) is the
  * export's own.
  *
- * Each run is what the route does after reading the case: one worker thread
- * (the bundle .haulcase/workbook-worker.cjs) evaluates the case and streams
- * the workbook into a temporary file. Arguments: project folder, fleet size,
+ * Each run is what the route does after reading the case: the workbook
+ * worker thread (the bundle .haulcase/workbook-worker.cjs, kept between
+ * exports as the server keeps it: the first run starts it) evaluates the
+ * case and streams the workbook into a temporary file. Arguments: project folder, fleet size,
  * runs, worker bundle. Prints one JSON line: the wall and CPU times of the
  * runs (ms; CPU of every thread of the process), the file size (bytes) and
  * the peak RSS (bytes).
@@ -15,22 +16,15 @@
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { Worker } from 'node:worker_threads';
-import type { WorkbookJob, WorkbookReply } from '@/lib/export/workbook-job';
+import type { WorkbookJob } from '@/lib/export/workbook-job';
+import { runWorkbookJob } from '@/lib/export/workbook-pool';
 import { validateCase, type CaseFileInput } from '@/lib/validation/case';
 import { syntheticFleet } from './synthetic-fleet';
 
-function exportInWorker(bundle: string, job: WorkbookJob): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const worker = new Worker(bundle);
-    worker.once('message', (r: WorkbookReply) => {
-      void worker.terminate();
-      if (r.ok) resolve(r.bytes);
-      else reject(new Error(r.message));
-    });
-    worker.once('error', reject);
-    worker.postMessage(job);
-  });
+async function exportInWorker(bundle: string, job: Omit<WorkbookJob, 'id'>): Promise<number> {
+  const reply = await runWorkbookJob({ bundle, timeLimitMs: 600_000, idleMs: 60_000 }, job);
+  if (!reply.ok) throw new Error(reply.message);
+  return reply.bytes;
 }
 
 async function main(root: string, size: number, runs: number, bundle: string): Promise<void> {

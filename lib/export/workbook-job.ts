@@ -3,6 +3,8 @@ import type { WorkbookMeta } from './types';
 
 /** What the workbook worker is sent (structured clone: plain data only): the case, the words and tables beside it, and the file to write. */
 export interface WorkbookJob {
+  /** the export's number: the worker answers each job with it */
+  id: number;
   caseFile: CaseFile;
   meta: WorkbookMeta;
   /** absolute path of the .xlsx to write */

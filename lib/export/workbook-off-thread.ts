@@ -1,11 +1,13 @@
 /**
  * The workbook export off the request thread (issue 18): a 2,000-truck
  * workbook is tens of seconds of work that would hold every other request of
- * the server. Each export starts one worker thread (the bundle
- * .haulcase/workbook-worker.cjs, built by `npm run build:workers`; another
- * path in HAULCASE_EXPORT_WORKER), which evaluates the case and streams the
- * workbook into a file in a fresh temporary folder (`writeWorkbookFile`, the
- * same code as on the thread); the answer is a stream of that file, which
+ * the server. Exports run in one worker thread kept between them
+ * (workbook-pool.ts; it ends after HAULCASE_EXPORT_IDLE_MS without work,
+ * default 60,000) started from the bundle .haulcase/workbook-worker.cjs,
+ * built by `npm run build:workers` (another path in HAULCASE_EXPORT_WORKER),
+ * which evaluates the case and streams the workbook into a file in a fresh
+ * temporary folder (`writeWorkbookFile`, the same code as on the thread);
+ * the answer is a stream of that file, which
  * removes the folder once it has been read or cancelled, so neither thread
  * holds the whole workbook. An export that runs past
  * HAULCASE_EXPORT_TIME_LIMIT_MS (default 300,000) is stopped and answers 503.
@@ -19,12 +21,12 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import os from 'node:os';
 import path from 'node:path';
 import { Readable } from 'node:stream';
-import { Worker } from 'node:worker_threads';
 import { env } from '@/lib/env';
 import { HttpError } from '@/lib/http';
 import type { CaseFile } from '@/lib/validation/case';
 import type { WorkbookMeta } from './types';
 import type { WorkbookJob, WorkbookReply } from './workbook-job';
+import { runWorkbookJob, WorkbookTimeoutError } from './workbook-pool';
 import { writeWorkbookFile } from './write-workbook-file';
 
 export function workbookWorkerPath(): string {
@@ -39,32 +41,18 @@ export interface WorkbookFile {
 
 let warned = false;
 
-function writeInWorker(bundle: string, job: WorkbookJob): Promise<number> {
+async function writeInWorker(bundle: string, job: Omit<WorkbookJob, 'id'>): Promise<number> {
   const limit = env().HAULCASE_EXPORT_TIME_LIMIT_MS;
-  return new Promise<number>((resolve, reject) => {
-    const worker = new Worker(/* turbopackIgnore: true */ bundle);
-    const timer = setTimeout(() => {
-      void worker.terminate();
-      reject(new HttpError(503, `The workbook export took longer than ${Math.round(limit / 1000)} s and was stopped.`));
-    }, limit);
-    const finish = () => clearTimeout(timer);
-    worker.once('message', (r: WorkbookReply) => {
-      finish();
-      void worker.terminate();
-      if (r.ok) resolve(r.bytes);
-      else if (r.kind === 'http') reject(new HttpError(r.status, r.message, r.problems));
-      else reject(new Error(`workbook worker: ${r.message}`));
-    });
-    worker.once('error', (err) => {
-      finish();
-      reject(err);
-    });
-    worker.once('exit', (code) => {
-      finish();
-      if (code !== 0) reject(new Error(`workbook worker exited with code ${code}`));
-    });
-    worker.postMessage(job);
-  });
+  let reply: WorkbookReply;
+  try {
+    reply = await runWorkbookJob({ bundle, timeLimitMs: limit, idleMs: env().HAULCASE_EXPORT_IDLE_MS }, job);
+  } catch (err) {
+    if (err instanceof WorkbookTimeoutError) throw new HttpError(503, `The workbook export took longer than ${Math.round(limit / 1000)} s and was stopped.`);
+    throw err;
+  }
+  if (reply.ok) return reply.bytes;
+  if (reply.kind === 'http') throw new HttpError(reply.status, reply.message, reply.problems);
+  throw new Error(`workbook worker: ${reply.message}`);
 }
 
 /** Evaluates the case and writes its workbook, in a worker thread where the bundle is built. */

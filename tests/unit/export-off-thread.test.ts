@@ -13,6 +13,7 @@ import { evaluateCaseDetailed } from '@/lib/engine/evaluate';
 import { validateCase, type CaseFile } from '@/lib/validation/case';
 import { bundleForNode } from '@/lib/risk/build-worker';
 import { exportWorkbookOffThread } from '@/lib/export/workbook-off-thread';
+import { workbookWorkerStarts } from '@/lib/export/workbook-pool';
 import { writeWorkbookBuffer } from '@/lib/export/workbook';
 import type { WorkbookMeta } from '@/lib/export/types';
 
@@ -65,6 +66,17 @@ describe('workbook export off the request thread', () => {
     expect(off.length).toBeGreaterThan(50_000);
     expect(off).toEqual(on);
     await vi.waitFor(() => expect(existsSync(path.join(os.tmpdir(), made[0]))).toBe(false));
+  }, 120_000);
+
+  it('keeps its worker thread for the next export', async () => {
+    process.env.HAULCASE_EXPORT_WORKER = bundle;
+    const started = workbookWorkerStarts();
+    const [a, b] = await Promise.all([exportWorkbookOffThread(demo, meta), exportWorkbookOffThread(demo, { ...meta, workspaceName: 'South pit' })]);
+    const [bytesA, bytesB] = await Promise.all([read(a.stream), read(b.stream)]);
+    const cover = async (bytes: Buffer) => (await cellsOf(bytes)).filter((c) => c.startsWith('Cover!B4 '));
+    expect(await cover(bytesA)).toEqual(['Cover!B4 "North pit" @']);
+    expect(await cover(bytesB)).toEqual(['Cover!B4 "South pit" @']);
+    expect(workbookWorkerStarts()).toBe(started); // the thread of the export before
   }, 120_000);
 
   it('without the bundle writes on the request thread and says so once', async () => {
