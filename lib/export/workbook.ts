@@ -88,7 +88,10 @@ class StreamedWorkbook extends ExcelJS.stream.xlsx.WorkbookWriter {
   private waiters: { limit: number; resolve: () => void; reject: (err: Error) => void }[] = [];
   private failed: Error | null = null;
 
-  constructor(out: Writable) {
+  constructor(
+    out: Writable,
+    private readonly exceljsRows = false,
+  ) {
     super({ stream: out, useStyles: true, useSharedStrings: true });
     const zip = this.internals.zip;
     zip.on('entry', (entry) => {
@@ -143,7 +146,7 @@ class StreamedWorkbook extends ExcelJS.stream.xlsx.WorkbookWriter {
     sheet._writeRow = (row) => {
       row.style = this.intern(row.style);
       for (const cell of row._cells) if (cell) cell.style = this.intern(cell.style);
-      const xml = this.rowXml(row);
+      const xml = this.exceljsRows ? null : this.rowXml(row);
       if (xml === null) return writeRow(row);
       if (!sheet.startedData) {
         sheet._writeColumns();
@@ -271,9 +274,13 @@ class StreamedWorkbook extends ExcelJS.stream.xlsx.WorkbookWriter {
 /** Sheet names other than the trucks', lower case (a truck sheet takes none of them). */
 const FIXED_SHEETS = [COVER_SHEET, SUMMARY_SHEET, ASSUMPTIONS_SHEET, DEPRECIATION_SHEET, ENGINES_SHEET, OFFERS_SHEET, TRUCKS_SHEET, PLAN_SHEET, IRR_GRID_SHEET];
 
-/** Writes the workbook of an evaluated case to `out` (ended when the workbook is complete). */
-export async function writeWorkbook({ caseFile: c, evaluated, meta }: WorkbookInput, out: Writable): Promise<void> {
-  const wb = new StreamedWorkbook(out);
+/**
+ * Writes the workbook of an evaluated case to `out` (ended when the
+ * workbook is complete). `exceljsRows`: every row through exceljs's own
+ * serialisers (the test that proves the row writer writes what they write).
+ */
+export async function writeWorkbook({ caseFile: c, evaluated, meta }: WorkbookInput, out: Writable, options: { exceljsRows?: boolean } = {}): Promise<void> {
+  const wb = new StreamedWorkbook(out, options.exceljsRows);
   wb.creator = 'Haulcase';
   wb.lastModifiedBy = 'Unknown';
   wb.created = meta.generatedAt ?? new Date();
@@ -307,7 +314,7 @@ export async function writeWorkbook({ caseFile: c, evaluated, meta }: WorkbookIn
 }
 
 /** The workbook of an evaluated case in memory (tests, the CLI); the server streams it (`writeWorkbook`). */
-export async function writeWorkbookBuffer(input: WorkbookInput): Promise<Buffer> {
+export async function writeWorkbookBuffer(input: WorkbookInput, options: { exceljsRows?: boolean } = {}): Promise<Buffer> {
   const out = new PassThrough();
   const chunks: Buffer[] = [];
   out.on('data', (chunk: Buffer) => chunks.push(chunk));
@@ -315,7 +322,7 @@ export async function writeWorkbookBuffer(input: WorkbookInput): Promise<Buffer>
     out.on('end', resolve);
     out.on('error', reject);
   });
-  await writeWorkbook(input, out);
+  await writeWorkbook(input, out, options);
   await ended;
   return Buffer.concat(chunks);
 }
