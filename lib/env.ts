@@ -81,6 +81,9 @@ export const envSchema = z
     HAULCASE_MC_RECYCLE_MS: whole(0, 86_400_000, 'milliseconds (0 = never)', 60_000),
     HAULCASE_BREAK_EVEN_TIME_LIMIT_MS: whole(100, 3_600_000, 'milliseconds', 120_000),
     HAULCASE_BREAK_EVEN_WORKER: text,
+    HAULCASE_EXPORT_TIME_LIMIT_MS: whole(100, 3_600_000, 'milliseconds', 300_000),
+    HAULCASE_EXPORT_WORKER: text,
+    HAULCASE_EXPORT_IDLE_MS: whole(0, 86_400_000, 'milliseconds', 60_000),
     // mail
     SMTP_HOST: text,
     SMTP_PORT: opt(z.string().trim().regex(/^\d+$/, 'must be a port number from 1 to 65535').transform(Number).refine((n) => n >= 1 && n <= 65535, 'must be a port number from 1 to 65535')),

@@ -2,7 +2,8 @@ import 'server-only';
 /**
  * Export of a stored business case: the workbook (with the words people typed
  * beside the figures, the ranking and capital plan, the approval stamp) or
- * the Summary CSV.
+ * the Summary CSV. The workbook is evaluated and written in a worker thread
+ * and streamed back from a temporary file (workbook-off-thread.ts).
  */
 import { fetchApprovalStamp } from '@/lib/approvals/freeze';
 import type { Access } from '@/lib/auth/access';
@@ -13,7 +14,7 @@ import type { EvaluatedCase } from '@/lib/cases/types';
 import { summaryCsv } from './csv';
 import { FMT } from './cells';
 import type { ApprovalStamp, PlanTable, WorkbookMeta } from './types';
-import { buildWorkbook } from './workbook';
+import { exportWorkbookOffThread } from './workbook-off-thread';
 
 export type ExportFormat = 'xlsx' | 'csv';
 
@@ -70,7 +71,10 @@ export function exportFileName(name: string, ext: ExportFormat): string {
   return `${base}.${ext}`;
 }
 
-export async function exportStoredCase(access: Access, id: number, format: ExportFormat): Promise<{ body: Buffer | string; fileName: string }> {
+/** The CSV as text; the workbook as a stream of the file written off the request thread, with its size. */
+export type CaseExport = { fileName: string } & ({ body: string } | { body: ReadableStream<Uint8Array>; bytes: number });
+
+export async function exportStoredCase(access: Access, id: number, format: ExportFormat): Promise<CaseExport> {
   const { row, file } = await loadValidCase(access, id);
   if (format === 'csv') {
     const { result } = evaluateCaseDetailed(file, { trusted: true });
@@ -85,6 +89,6 @@ export async function exportStoredCase(access: Access, id: number, format: Expor
     plan: planTables(dto),
     ...(await wordsBesideFigures(access.workspace.id)),
   };
-  const wb = buildWorkbook({ caseFile: file, evaluated: evaluateCaseDetailed(file, { trusted: true }), meta });
-  return { body: Buffer.from((await wb.xlsx.writeBuffer()) as ArrayBuffer), fileName: exportFileName(row.name, 'xlsx') };
+  const { stream, bytes } = await exportWorkbookOffThread(file, meta);
+  return { body: stream, bytes, fileName: exportFileName(row.name, 'xlsx') };
 }

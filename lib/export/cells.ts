@@ -1,13 +1,23 @@
 /**
  * Small helpers shared by the workbook sheets: A1 addresses, sheet-name
  * quoting, formula cells, inert text cells and the house number formats.
+ *
+ * The workbook is written by exceljs's streaming writer (workbook.ts): a
+ * sheet's views and page set-up go with `addWorksheet`, its column widths
+ * before its first row is committed, and a committed row cannot be touched
+ * again, so each sheet writes its rows top to bottom.
  */
 import type ExcelJS from 'exceljs';
 
+const letters: string[] = [];
+
 /** 1 → A, 27 → AA. */
 export function colLetter(col: number): string {
+  const known = letters[col];
+  if (known !== undefined) return known;
   let s = '';
   for (let n = col; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
+  if (col < 1024) letters[col] = s;
   return s;
 }
 
@@ -72,21 +82,30 @@ export function styleTitle(cell: ExcelJS.Cell, size = 14): void {
   cell.font = { bold: true, size, color: { argb: 'FF15181C' } };
 }
 
-/** Landscape, fit to one page wide, repeating the given header rows. */
-export function setPrint(ws: ExcelJS.Worksheet, repeatRows?: string): void {
-  ws.pageSetup = {
-    ...ws.pageSetup,
-    orientation: 'landscape',
-    fitToPage: true,
-    fitToWidth: 1,
-    fitToHeight: 0,
-    paperSize: 9,
-    margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 },
-    printTitlesRow: repeatRows,
+/**
+ * Landscape, fit to one page wide, repeating the given header rows: options
+ * for `addWorksheet`, because a streamed sheet writes its page set-up flag
+ * (fit to page) the moment it is added.
+ */
+export function printSetup(repeatRows?: string): Pick<Partial<ExcelJS.AddWorksheetOptions>, 'pageSetup' | 'headerFooter'> {
+  return {
+    pageSetup: {
+      orientation: 'landscape',
+      fitToPage: true,
+      fitToWidth: 1,
+      fitToHeight: 0,
+      paperSize: 9,
+      margins: { left: 0.4, right: 0.4, top: 0.5, bottom: 0.5, header: 0.3, footer: 0.3 },
+      printTitlesRow: repeatRows,
+    },
+    headerFooter: { oddFooter: '&L&A&RPage &P of &N' },
   };
-  ws.headerFooter = { oddFooter: '&L&A&RPage &P of &N' };
 }
 
+/**
+ * Column widths: before the sheet's first row is committed (a streamed
+ * sheet writes its columns ahead of the rows).
+ */
 export function setWidths(ws: ExcelJS.Worksheet, widths: number[]): void {
   widths.forEach((w, i) => (ws.getColumn(i + 1).width = w));
 }

@@ -34,6 +34,28 @@ export interface ComparisonRefs {
 
 const na = (v: number | null) => (v === null ? 'n/a' : v);
 
+/** The row of comparison k's results for horizon n when the section starts at `startRow`. */
+function resultRow(startRow: number, n: number, k: number): number {
+  return startRow + 3 + n + 2 + 1 + k;
+}
+
+/** Where the section starting at `startRow` puts each comparison's results (the Summary refers to them before the truck sheet is written). */
+export function comparisonRefs(startRow: number, n: number): Record<ComparisonKey, ComparisonRefs> {
+  const out = {} as Record<ComparisonKey, ComparisonRefs>;
+  COMPARISONS.forEach((cmp, k) => {
+    const r = resultRow(startRow, n, k);
+    out[cmp.key] = {
+      deltaNpv: addr(r, 2, true),
+      irr: addr(r, 3, true),
+      mirr: addr(r, 6, true),
+      payback: addr(r, 7, true),
+      discountedPayback: addr(r, 8, true),
+      profitabilityIndex: addr(r, 9, true),
+    };
+  });
+  return out;
+}
+
 export function writeComparisons(
   ws: ExcelJS.Worksheet,
   result: TruckResult,
@@ -56,7 +78,6 @@ export function writeComparisons(
   styleHeader(h2);
   const first = startRow + 3;
   const last = first + n;
-  const out = {} as Record<ComparisonKey, ComparisonRefs>;
 
   COMPARISONS.forEach((cmp, k) => {
     const col = (j: number) => 2 + k * WIDTH + j;
@@ -68,13 +89,16 @@ export function writeComparisons(
       const r = first + y;
       const at = (j: number) => addr(r, col(j));
       const prev = (j: number) => addr(r - 1, col(j));
+      const line = ws.getRow(r);
       const f = (j: number, formula: string, fmt: string) => {
-        setFormula(ws.getCell(r, col(j)), formula);
-        ws.getCell(r, col(j)).numFmt = fmt;
+        const cell = line.getCell(col(j));
+        setFormula(cell, formula);
+        cell.numFmt = fmt;
       };
-      if (k === 0) ws.getCell(r, 1).value = y;
-      setFormula(ws.getCell(r, col(K.d)), `${addr(a.firstRow + y, C.cashFlow)}-${addr(b.firstRow + y, C.cashFlow)}`, A[y] - B[y]);
-      ws.getCell(r, col(K.d)).numFmt = FMT.money;
+      if (k === 0) line.getCell(1).value = y;
+      const dCell = line.getCell(col(K.d));
+      setFormula(dCell, `${addr(a.firstRow + y, C.cashFlow)}-${addr(b.firstRow + y, C.cashFlow)}`, A[y] - B[y]);
+      dCell.numFmt = FMT.money;
       f(K.dd, `${at(K.d)}*${addr(a.firstRow + y, C.df)}`, FMT.money);
       f(K.sign, `IF(ABS(${at(K.d)})<${EPS},0,SIGN(${at(K.d)}))`, FMT.count);
       if (y === 0) {
@@ -167,14 +191,8 @@ export function writeComparisons(
       cell(2 + i).numFmt = fmt;
       cell(2 + i).alignment = { horizontal: 'right' };
     });
-    out[cmp.key] = {
-      deltaNpv: addr(r, 2, true),
-      irr: addr(r, 3, true),
-      mirr: addr(r, 6, true),
-      payback: addr(r, 7, true),
-      discountedPayback: addr(r, 8, true),
-      profitabilityIndex: addr(r, 9, true),
-    };
+    if (r !== resultRow(startRow, n, k)) throw new Error('comparison layout: results row moved');
   });
-  return out;
+  ws.getRow(r0 + COMPARISONS.length).commit();
+  return comparisonRefs(startRow, n);
 }

@@ -66,6 +66,23 @@ export interface BlockContext {
   dep: DepreciationRefs;
 }
 
+/** Where a block of horizon n starting at `startRow` puts its figures (so the Summary can refer to them before the truck sheet is written). */
+export function blockRefs(startRow: number, n: number): BlockRefs {
+  const first = startRow + 1;
+  const last = first + n;
+  const res0 = last + 1;
+  return {
+    firstRow: first,
+    lastRow: last,
+    npv: addr(res0, 2, true),
+    eac: addr(res0 + 1, 2, true),
+    costPerHour: addr(res0 + 2, 2, true),
+    costPerTonne: addr(res0 + 3, 2, true),
+    capital: addr(res0 + 6, 2, true),
+    nextRow: res0 + 9,
+  };
+}
+
 /** The engine whose overhauls and repairs a policy books: the repower engine under repower, else the one fitted now. */
 function eventEngine(p: PolicyDetail, truck: TruckDetail): string {
   const id = p.policy === 'repower' ? truck.repowerEngineId : truck.startEngineId;
@@ -103,13 +120,14 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
     const d = p.periods[y];
     const b = d.breakdown;
     const at = (col: number) => addr(r, col);
+    const line = ws.getRow(r);
     const put = (col: number, v: number, fmt: string) => {
-      const cell = ws.getCell(r, col);
+      const cell = line.getCell(col);
       cell.value = v;
       cell.numFmt = fmt;
     };
     const f = (col: number, formula: string, result: number, fmt: string = FMT.money) => {
-      const cell = ws.getCell(r, col);
+      const cell = line.getCell(col);
       setFormula(cell, formula, result);
       cell.numFmt = fmt;
     };
@@ -207,14 +225,6 @@ export function writePolicyBlock(ctx: BlockContext, p: PolicyDetail, res: Policy
   ws.getCell(ageRow, 2).value = p.residual.engineAge;
   ws.getCell(ageRow, 2).numFmt = FMT.hours;
   if (ageRow !== last + 8) throw new Error('block layout: residual age row moved');
-  return {
-    firstRow: first,
-    lastRow: last,
-    npv: addr(res0, 2, true),
-    eac: addr(res0 + 1, 2, true),
-    costPerHour: addr(res0 + 2, 2, true),
-    costPerTonne: addr(res0 + 3, 2, true),
-    capital: addr(res0 + 6, 2, true),
-    nextRow: ageRow + 2,
-  };
+  ws.getRow(ageRow).commit();
+  return blockRefs(startRow, n);
 }

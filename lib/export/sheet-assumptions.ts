@@ -5,7 +5,7 @@
  */
 import type ExcelJS from 'exceljs';
 import type { CaseFile } from '@/lib/validation/case';
-import { FMT, setFormula, setPrint, setText, setWidths, styleHeader, styleTitle } from './cells';
+import { FMT, printSetup, setFormula, setText, setWidths, styleHeader, styleTitle } from './cells';
 
 export const ASSUMPTIONS_SHEET = 'Assumptions';
 
@@ -58,7 +58,8 @@ function physicalRows(c: CaseFile): Row[] {
 
 /** Writes the sheet and its defined names; returns nothing because formulas use the names. */
 export function addAssumptionsSheet(wb: ExcelJS.Workbook, c: CaseFile): void {
-  const ws = wb.addWorksheet(ASSUMPTIONS_SHEET, { views: [{ state: 'frozen', ySplit: 4 }] });
+  const ws = wb.addWorksheet(ASSUMPTIONS_SHEET, { views: [{ state: 'frozen', ySplit: 4 }], ...printSetup('4:4') });
+  setWidths(ws, [58, 16, 40, 22, 44]);
   styleTitle(ws.getCell('A1'));
   ws.getCell('A1').value = 'Economic assumptions';
   ws.getCell('A2').value =
@@ -110,6 +111,5 @@ export function addAssumptionsSheet(wb: ExcelJS.Workbook, c: CaseFile): void {
   ws.getCell(r, 1).value = 'Currency';
   setText(ws.getCell(r, 2), c.currency);
 
-  setWidths(ws, [58, 16, 40, 22, 44]);
-  setPrint(ws, '4:4');
+  ws.commit();
 }

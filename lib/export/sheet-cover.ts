@@ -4,7 +4,7 @@
  */
 import type ExcelJS from 'exceljs';
 import type { CaseFile } from '@/lib/validation/case';
-import { setPrint, setText, setWidths, styleTitle } from './cells';
+import { printSetup, setText, setWidths, styleTitle } from './cells';
 import type { WorkbookMeta } from './types';
 
 export const COVER_SHEET = 'Cover';
@@ -21,7 +21,8 @@ const CAUTION =
   'These figures inform a capital decision; they do not certify an engine installation. Mechanical and electrical work on haul trucks follows the manufacturer’s procedures, site safety rules and local codes, and is done by licensed people.';
 
 export function addCoverSheet(wb: ExcelJS.Workbook, c: CaseFile, meta: WorkbookMeta): void {
-  const ws = wb.addWorksheet(COVER_SHEET);
+  const ws = wb.addWorksheet(COVER_SHEET, printSetup());
+  setWidths(ws, [26, 110]);
   ws.getCell('A1').value = 'Haulcase business case';
   styleTitle(ws.getCell('A1'), 18);
   const generated = meta.generatedAt ?? new Date();
@@ -67,6 +68,5 @@ export function addCoverSheet(wb: ExcelJS.Workbook, c: CaseFile, meta: WorkbookM
   ws.getCell(r, 1).value = 'Sheets';
   ws.getCell(r, 1).font = { bold: true };
   ws.getCell(r, 2).value = 'Summary · Assumptions · Depreciation · Engines · Offers · Trucks · one sheet per truck (T1 …) · Plan (when the case has one) · IRR grid';
-  setWidths(ws, [26, 110]);
-  setPrint(ws);
+  ws.commit();
 }

@@ -8,7 +8,7 @@
  */
 import type ExcelJS from 'exceljs';
 import { MACRS_HALF_YEAR_PERCENT } from '@/lib/engine/depreciation';
-import { FMT, addr, setFormula, setPrint, setWidths, styleHeader, styleTitle, xref } from './cells';
+import { FMT, addr, printSetup, setFormula, setWidths, styleHeader, styleTitle, xref } from './cells';
 
 export const DEPRECIATION_SHEET = 'Depreciation';
 const FIRST_ROW = 5;
@@ -24,7 +24,8 @@ export interface DepreciationRefs {
 
 /** `rows`: how many schedule years to lay out (the longest horizon at least). */
 export function addDepreciationSheet(wb: ExcelJS.Workbook, rows: number): DepreciationRefs {
-  const ws = wb.addWorksheet(DEPRECIATION_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }] });
+  const ws = wb.addWorksheet(DEPRECIATION_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }], ...printSetup('4:4') });
+  setWidths(ws, [10, 11, 11, 11, 11, 11, 11, 13, 16, 14, 13, 13, 16]);
   const n = Math.max(rows, 21);
   styleTitle(ws.getCell('A1'));
   ws.getCell('A1').value = 'Depreciation shares by year of schedule';
@@ -61,8 +62,7 @@ export function addDepreciationSheet(wb: ExcelJS.Workbook, rows: number): Deprec
     setFormula(ws.getCell(r, COL.left), `IF(DepMethod="none",0,1-${addr(r, COL.cum)})`);
     for (const c of [COL.sl, COL.dbBasis, COL.db, COL.share, COL.cum, COL.left]) ws.getCell(r, c).numFmt = FMT.factor;
   }
-  setWidths(ws, [10, 11, 11, 11, 11, 11, 11, 13, 16, 14, 13, 13, 16]);
-  setPrint(ws, '4:4');
+  ws.commit();
   return {
     share: (j) => xref(DEPRECIATION_SHEET, FIRST_ROW + j - 1, COL.share),
     left: (j) => xref(DEPRECIATION_SHEET, FIRST_ROW + j - 1, COL.left),

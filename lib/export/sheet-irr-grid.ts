@@ -67,14 +67,27 @@ function binomial(n: number, k: number): number {
 }
 
 const matrices = new Map<string, number[][]>();
+/** Numbers held in `matrices`, and the most it holds (16 MB of numbers: some 60 horizons of 30 years, 6 of 100). */
+let held = 0;
+const HOLD = 2_000_000;
 
-/** M[j][y] of piece p for horizon n (see the module comment); computed once per (n, p). */
+/**
+ * M[j][y] of piece p for horizon n (see the module comment); computed once
+ * per (n, p) while the cache holds it. A workbook asks for each truck's
+ * horizon in turn (the truck sheets' cached piece counts), so the cache
+ * keeps every horizon of a fleet as long as they fit.
+ */
 export function vincentMatrix(n: number, p: number): number[][] {
   const key = `${n}:${p}`;
   let m = matrices.get(key);
   if (!m) {
-    if (matrices.size >= 8 * IRR_PIECES) matrices.clear(); // a few horizons' worth (at N = 100, 2.6 MB each)
+    const size = (n + 1) * (n + 1);
+    if (held + size > HOLD) {
+      matrices.clear();
+      held = 0;
+    }
     matrices.set(key, (m = computeMatrix(n, p)));
+    held += size;
   }
   return m;
 }
@@ -180,42 +193,68 @@ export function irrGridRefs(maxYears: number, horizons: readonly number[]): IrrG
   };
 }
 
+/**
+ * Written row by row (a streamed sheet cannot go back to a committed row):
+ * the rates in column A, the notes, the piece table and the Vincent blocks
+ * side by side, each row committed once its cells are set.
+ */
 export function addIrrGridSheet(wb: ExcelJS.Workbook, maxYears: number, horizons: readonly number[]): void {
   const ws = wb.addWorksheet(IRR_GRID_SHEET);
-  ws.getCell('A1').value = 'Rate';
-  ws.getCell('B1').value = 'Years →';
-  for (let y = 0; y <= maxYears; y++) ws.getCell(1, 3 + y).value = y;
-  for (let k = 0; k < STEPS; k++) {
-    const c = ws.getCell(k + 2, 1);
-    c.value = rateOf(k);
-    c.numFmt = '0.0%';
-  }
-  ws.getCell('B3').value = 'IRR roots are counted where Σ ΔCF/(1+i)^y changes sign between neighbouring rates of this grid, or is exactly 0 at one.';
-  ws.getCell('B4').value =
-    'First on 32 pieces of the grid: the signs of Σ M[j][y]·ΔCF_y (the blocks on the right, one per horizon N) bound the roots inside each piece (Descartes, Vincent); ' +
-    'where a piece may hold two or more, the whole grid is scanned.';
-
   const { piecesCol, blocks } = layout(maxYears, horizons);
-  ['Piece', 'First pair (row of the grid)', 'Last pair', 'Edge rate'].forEach((h, i) => (ws.getCell(1, piecesCol + i).value = h));
-  for (let p = 0; p <= IRR_PIECES; p++) {
-    if (p < IRR_PIECES) {
-      ws.getCell(p + 2, piecesCol).value = p + 1;
-      // pairs (k, k+1) for k = edgeStep(p)..edgeStep(p+1) − 1: positions k+1 in the ranges `lo` and `hi`
-      ws.getCell(p + 2, piecesCol + 1).value = edgeStep(p) + 1;
-      ws.getCell(p + 2, piecesCol + 2).value = edgeStep(p + 1);
-    }
-    ws.getCell(p + 2, piecesCol + 3).value = rateOf(edgeStep(p));
+  const notes: Record<number, string> = {
+    3: 'IRR roots are counted where Σ ΔCF/(1+i)^y changes sign between neighbouring rates of this grid, or is exactly 0 at one.',
+    4:
+      'First on 32 pieces of the grid: the signs of Σ M[j][y]·ΔCF_y (the blocks on the right, one per horizon N) bound the roots inside each piece (Descartes, Vincent); ' +
+      'where a piece may hold two or more, the whole grid is scanned.',
+  };
+
+  const head = ws.getRow(1);
+  head.getCell(1).value = 'Rate';
+  head.getCell(2).value = 'Years →';
+  for (let y = 0; y <= maxYears; y++) head.getCell(3 + y).value = y;
+  ['Piece', 'First pair (row of the grid)', 'Last pair', 'Edge rate'].forEach((h, i) => (head.getCell(piecesCol + i).value = h));
+  // one matrix per horizon at a time: the piece changes every n + 1 rows
+  const vincent = [...blocks].map(([n, c]) => ({ n, c, rows: IRR_PIECES * (n + 1), piece: -1, m: [] as number[][] }));
+  for (const b of vincent) {
+    head.getCell(b.c).value = `M, N = ${b.n}`;
+    head.getCell(b.c + b.n + 1).value = 'Piece of the pair';
   }
-  for (const [n, c] of blocks) {
-    ws.getCell(1, c).value = `M, N = ${n}`;
-    ws.getCell(1, c + n + 1).value = 'Piece of the pair';
-    for (let p = 0; p < IRR_PIECES; p++) {
-      const m = vincentMatrix(n, p);
-      for (let j = 0; j <= n; j++) {
-        const r = 2 + p * (n + 1) + j;
-        for (let y = 0; y <= n; y++) ws.getCell(r, c + y).value = m[j][y];
-        if (p < IRR_PIECES - 1 || j < n) ws.getCell(r, c + n + 1).value = j < n ? p + 1 : 0;
+  head.commit();
+
+  const lastRow = Math.max(STEPS + 1, ...vincent.map((b) => b.rows + 1));
+  for (let r = 2; r <= lastRow; r++) {
+    const row = ws.getRow(r);
+    const k = r - 2;
+    if (k < STEPS) {
+      const c = row.getCell(1);
+      c.value = rateOf(k);
+      c.numFmt = '0.0%';
+    }
+    if (notes[r]) row.getCell(2).value = notes[r];
+    const p = r - 2;
+    if (p <= IRR_PIECES) {
+      if (p < IRR_PIECES) {
+        row.getCell(piecesCol).value = p + 1;
+        // pairs (k, k+1) for k = edgeStep(p)..edgeStep(p+1) − 1: positions k+1 in the ranges `lo` and `hi`
+        row.getCell(piecesCol + 1).value = edgeStep(p) + 1;
+        row.getCell(piecesCol + 2).value = edgeStep(p + 1);
       }
+      row.getCell(piecesCol + 3).value = rateOf(edgeStep(p));
     }
+    for (const b of vincent) {
+      const at = r - 2;
+      if (at >= b.rows) continue;
+      const { n, c } = b;
+      const piece = Math.floor(at / (n + 1));
+      const j = at % (n + 1);
+      if (piece !== b.piece) {
+        b.piece = piece;
+        b.m = vincentMatrix(n, piece);
+      }
+      for (let y = 0; y <= n; y++) row.getCell(c + y).value = b.m[j][y];
+      if (piece < IRR_PIECES - 1 || j < n) row.getCell(c + n + 1).value = j < n ? piece + 1 : 0;
+    }
+    row.commit();
   }
+  ws.commit();
 }

@@ -6,7 +6,7 @@
 import type ExcelJS from 'exceljs';
 import type { CaseFile, Engine, RepowerOffer } from '@/lib/validation/case';
 import type { TruckDetail } from '@/lib/engine/types';
-import { FMT, setFormula, setPrint, setText, setWidths, styleHeader, styleTitle, xref } from './cells';
+import { FMT, printSetup, setFormula, setText, setWidths, styleHeader, styleTitle, xref } from './cells';
 import type { WorkbookMeta } from './types';
 
 export const ENGINES_SHEET = 'Engines';
@@ -50,7 +50,8 @@ function title(ws: ExcelJS.Worksheet, text: string, note: string, headers: strin
 export function addLibrarySheets(wb: ExcelJS.Workbook, c: CaseFile, details: TruckDetail[], meta: WorkbookMeta): LibraryRefs {
   const cur = c.currency;
   // engines
-  const ew = wb.addWorksheet(ENGINES_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }] });
+  const ew = wb.addWorksheet(ENGINES_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }], ...printSetup('4:4') });
+  setWidths(ew, [20, 22, ...ENGINE_COLS.map(() => 13), 40]);
   title(ew, 'Engine types', `Money in ${cur} at year-1 prices.`, [
     'Engine', 'Name', ...ENGINE_COLS.map(([, h]) => h.replace(/^(Overhaul cost|Failure repair cost|Service kit)$/, `$1 (${cur})`)), 'Notes',
   ]);
@@ -67,11 +68,11 @@ export function addLibrarySheets(wb: ExcelJS.Workbook, c: CaseFile, details: Tru
     });
     setText(ew.getCell(r, 3 + ENGINE_COLS.length), meta.engines?.[e.id]?.notes ?? '');
   });
-  setWidths(ew, [20, 22, ...ENGINE_COLS.map(() => 13), 40]);
-  setPrint(ew, '4:4');
+  ew.commit();
 
   // offers
-  const ow = wb.addWorksheet(OFFERS_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }] });
+  const ow = wb.addWorksheet(OFFERS_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }], ...printSetup('4:4') });
+  setWidths(ow, [20, 24, 20, 15, 15, 15, 15, 15, 15, 10, 12, 12, 40]);
   const offerCols: [OfferField, string, string][] = [
     ['modulePrice', `Module price (${cur})`, FMT.money],
     ['installCost', `Install cost (${cur})`, FMT.money],
@@ -104,11 +105,11 @@ export function addLibrarySheets(wb: ExcelJS.Workbook, c: CaseFile, details: Tru
     ow.getCell(r, 4 + offerCols.length).value = o.timing;
     setText(ow.getCell(r, 5 + offerCols.length), meta.offers?.[o.id]?.notes ?? '');
   });
-  setWidths(ow, [20, 24, 20, 15, 15, 15, 15, 15, 15, 10, 12, 12, 40]);
-  setPrint(ow, '4:4');
+  ow.commit();
 
   // trucks
-  const tw = wb.addWorksheet(TRUCKS_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }] });
+  const tw = wb.addWorksheet(TRUCKS_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }], ...printSetup('4:4') });
+  setWidths(tw, [14, 12, 18, 18, 12, 12, 12, 10, 12, 12, 10, 12, 12, 12, 12, 40]);
   title(tw, 'Trucks', 'Fleet register as used by this case; burn is calibrated to the measured figure where there is one.', [
     'Unit', 'Payload class', 'Engine', 'Repower offer', 'Engine hours (h)', 'Remaining life (h)', 'Annual hours (h)',
     'Load factor', 'Tonnes per hour (t/h)', 'Measured burn (L/h)', 'Horizon (years)', 'Power demand (kW)',
@@ -132,9 +133,9 @@ export function addLibrarySheets(wb: ExcelJS.Workbook, c: CaseFile, details: Tru
       cell.numFmt = fmt;
     });
     setText(tw.getCell(r, 16), meta.trucks?.[t.id]?.notes ?? '');
+    tw.getRow(r).commit();
   });
-  setWidths(tw, [14, 12, 18, 18, 12, 12, 12, 10, 12, 12, 10, 12, 12, 12, 12, 40]);
-  setPrint(tw, '4:4');
+  tw.commit();
 
   const engineCol = (f: EngineField) => 3 + ENGINE_COLS.findIndex(([k]) => k === f);
   const offerCol = (f: OfferField) => 4 + offerCols.findIndex(([k]) => k === f);

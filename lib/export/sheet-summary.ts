@@ -4,7 +4,7 @@
  */
 import type ExcelJS from 'exceljs';
 import type { CaseResult } from '@/lib/engine/types';
-import { FMT, addr, setFormula, setPrint, setText, setWidths, sheetRef, styleHeader, styleTitle } from './cells';
+import { FMT, addr, printSetup, setFormula, setText, setWidths, sheetRef, styleHeader, styleTitle } from './cells';
 import type { TruckSheetRefs } from './sheet-truck';
 
 export const SUMMARY_SHEET = 'Summary';
@@ -20,9 +20,10 @@ export function summaryHeaders(currency: string): string[] {
 
 const FORMATS = [FMT.count, FMT.money, FMT.money, FMT.money, undefined, FMT.money, FMT.money, FMT.money, FMT.rate, FMT.rate, FMT.years, FMT.years, FMT.money];
 
-/** Fills the sheet added (second, for reading order) before the truck sheets it refers to. */
-export function fillSummarySheet(ws: ExcelJS.Worksheet, result: CaseResult, refs: TruckSheetRefs[], currency: string): void {
-  ws.views = [{ state: 'frozen', ySplit: 4, xSplit: 1 }];
+/** Second, for reading order, before the truck sheets it refers to (`refs`: where those sheets will put each figure). */
+export function addSummarySheet(wb: ExcelJS.Workbook, result: CaseResult, refs: TruckSheetRefs[], currency: string): void {
+  const ws = wb.addWorksheet(SUMMARY_SHEET, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }], ...printSetup('4:4') });
+  setWidths(ws, [14, 10, 15, 15, 15, 11, 15, 15, 15, 11, 11, 12, 12, 15, 22]);
   styleTitle(ws.getCell('A1'));
   ws.getCell('A1').value = 'Summary by truck';
   ws.getCell('A2').value = 'NPV is negative for a cost. Each figure is a formula on the truck sheet named beside it; "n/a" where the figure does not exist (see Cover).';
@@ -61,6 +62,7 @@ export function fillSummarySheet(ws: ExcelJS.Worksheet, result: CaseResult, refs
       cell.alignment = { horizontal: 'right' };
     });
     ws.getCell(r, 15).value = ref.sheet;
+    ws.getRow(r).commit();
   });
   const last = first + result.trucks.length - 1;
   const total = last + 1;
@@ -78,6 +80,5 @@ export function fillSummarySheet(ws: ExcelJS.Worksheet, result: CaseResult, refs
   }
   ws.getRow(total).font = { bold: true };
   ws.getRow(total).eachCell((c) => (c.border = { top: { style: 'thin' } }));
-  setWidths(ws, [14, 10, 15, 15, 15, 11, 15, 15, 15, 11, 11, 12, 12, 15, 22]);
-  setPrint(ws, '4:4');
+  ws.commit();
 }

@@ -5,9 +5,9 @@
 import type ExcelJS from 'exceljs';
 import type { TruckDetail, TruckResult } from '@/lib/engine/types';
 import type { CaseFile, Truck } from '@/lib/validation/case';
-import { FMT, setPrint, setText, styleHeader } from './cells';
-import { writeComparisons, type ComparisonKey, type ComparisonRefs } from './compare-block';
-import { blockHeaders, writePolicyBlock, type BlockRefs } from './policy-block';
+import { FMT, printSetup, setText, styleHeader } from './cells';
+import { comparisonRefs, writeComparisons, type ComparisonKey, type ComparisonRefs } from './compare-block';
+import { blockHeaders, blockRefs, writePolicyBlock, type BlockRefs } from './policy-block';
 import type { DepreciationRefs } from './sheet-depreciation';
 import type { IrrGridRefs } from './sheet-irr-grid';
 import type { LibraryRefs } from './sheet-library';
@@ -31,6 +31,24 @@ export function truckSheetName(index: number, id: string, taken: Set<string>): s
   return name;
 }
 
+const POLICIES = ['keep', 'rebuild', 'repower'] as const;
+const FIRST_BLOCK_ROW = 5;
+
+/**
+ * Where the sheet of a truck with horizon n puts its figures, without
+ * writing it: the Summary (second in the workbook) refers to them, and a
+ * streamed workbook writes its sheets in order.
+ */
+export function truckSheetRefs(sheet: string, n: number): TruckSheetRefs {
+  let row = FIRST_BLOCK_ROW;
+  const blocks = {} as TruckSheetRefs['blocks'];
+  for (const policy of POLICIES) {
+    blocks[policy] = blockRefs(row, n);
+    row = blocks[policy].nextRow;
+  }
+  return { sheet, blocks, comparisons: comparisonRefs(row, n) };
+}
+
 export function addTruckSheet(
   wb: ExcelJS.Workbook,
   name: string,
@@ -42,7 +60,9 @@ export function addTruckSheet(
   dep: DepreciationRefs,
   grid: IrrGridRefs,
 ): TruckSheetRefs {
-  const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }] });
+  const ws = wb.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 4, xSplit: 1 }], ...printSetup('4:4') });
+  ws.getColumn(1).width = 44; // labels of the result rows sit in column A
+  for (let col = 2; col <= 34; col++) ws.getColumn(col).width = 13;
   ws.getCell('A1').value = 'Truck';
   ws.getCell('A1').font = { bold: true, size: 14 };
   setText(ws.getCell('B1'), truck.id);
@@ -66,16 +86,13 @@ export function addTruckSheet(
   styleHeader(header);
 
   const ctx = { ws, caseFile: c, truck: detail, annualHours: truck.annualHours, horizonCell: '$E$3', lib, dep };
-  let row = 5;
+  let row = FIRST_BLOCK_ROW;
   const blocks = {} as TruckSheetRefs['blocks'];
-  for (const policy of ['keep', 'rebuild', 'repower'] as const) {
+  for (const policy of POLICIES) {
     blocks[policy] = writePolicyBlock(ctx, detail.policies[policy], result.options[policy], row);
     row = blocks[policy].nextRow;
   }
   const comparisons = writeComparisons(ws, result, blocks, grid, row);
-  ws.getColumn(1).width = 12;
-  for (let col = 2; col <= 34; col++) ws.getColumn(col).width = 13;
-  ws.getColumn(1).width = 44; // labels of the result rows sit in column A
-  setPrint(ws, '4:4');
+  ws.commit();
   return { sheet: name, blocks, comparisons };
 }

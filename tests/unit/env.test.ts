@@ -44,6 +44,8 @@ describe('the environment schema', () => {
     ['HAULCASE_MC_TIME_LIMIT_MS', '99', /from 100 to 3,600,000 milliseconds/],
     ['HAULCASE_MC_RECYCLE_MS', '-5', /whole number of milliseconds \(0 = never\)/],
     ['HAULCASE_BREAK_EVEN_TIME_LIMIT_MS', '50', /from 100 to 3,600,000 milliseconds/],
+    ['HAULCASE_EXPORT_TIME_LIMIT_MS', '99', /from 100 to 3,600,000 milliseconds/],
+    ['HAULCASE_EXPORT_IDLE_MS', '-1', /whole number of milliseconds/],
     ['HAULCASE_MC_PREWARM', 'no', /must be 0 or 1/],
     ['HAULCASE_TRUSTED_PROXY', 'true', /must be 0 or 1/],
     ['DATABASE_URL', 'mysql://db/haulcase', /must be a PostgreSQL URL/],
