@@ -14,6 +14,7 @@ import * as m0015 from './0015_frozen_proposal';
 import * as m0016 from './0016_membership_version';
 import * as m0017 from './0017_readings';
 import * as m0018 from './0018_case_truck_figures';
+import * as m0019 from './0019_run_claims';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -36,6 +37,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0016_membership_version': m0016,
   '0017_readings': m0017,
   '0018_case_truck_figures': m0018,
+  '0019_run_claims': m0019,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
