@@ -6,10 +6,17 @@ import 'server-only';
  * - **in-process** (SQLite, the single-machine demo): the run lives in this
  *   server's worker threads (lib/risk/jobs.ts); progress and cancel reach it in
  *   memory, the row keeps what it was asked and found.
+ * - **queue** (PostgreSQL, `DATABASE_URL` set): the route enqueues the run on
+ *   pg-boss and answers at once; any server's worker takes it and runs it in its
+ *   worker threads with the same engine code; progress, the cancel flag and the
+ *   result are written to the database, so a poll or a cancel reaching any
+ *   server works (lib/risk/backends/queue.ts).
  */
+import { env } from '@/lib/env';
 import type { MonteCarloResult } from '@/lib/engine/monte-carlo';
 import type { RunView, StartRunInput } from './run-rows';
 import { inProcessBackend } from './backends/in-process';
+import { queueBackendFromEnv } from './backends/queue';
 
 export interface JobBackend {
   readonly kind: 'in-process' | 'queue';
@@ -32,7 +39,8 @@ export function useRunBackendForTests(backend: JobBackend | null): void {
   forTests = backend;
 }
 
-/** The backend of this server: the in-process pool. */
+/** The backend of this server: the queue with PostgreSQL (`DATABASE_URL`), else the in-process pool. */
 export function runBackend(): JobBackend {
-  return forTests ?? inProcessBackend;
+  if (forTests) return forTests;
+  return env().DATABASE_URL ? queueBackendFromEnv() : inProcessBackend;
 }
