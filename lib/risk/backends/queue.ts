@@ -152,6 +152,8 @@ export function createQueueBackend(o: QueueBackendOptions): QueueBackend {
   ready().catch(() => (started = null)); // connect now; a failure is retried by the next call
 
   let working: Promise<void> | null = null;
+  /** this server's pg-boss workers on the run queue: a start wakes them, so an idle one here takes the run without waiting for its next poll */
+  const workerIds: string[] = [];
 
   /** Writes of one attempt: only while the run is unfinished and the attempt is still this one. */
   const writeAttempt = (runId: string, attempt: number, cols: Record<string, unknown>): Promise<number> => {
@@ -252,7 +254,7 @@ export function createQueueBackend(o: QueueBackendOptions): QueueBackend {
         const poll = { pollingIntervalSeconds: o.pollSeconds ?? 1 };
         // one job per worker: at most HAULCASE_MC_MAX_RUNNING runs at once on this server
         for (let i = 0; i < settings().maxRunning; i++) {
-          await boss.work<JobData>(QUEUE, { ...poll, batchSize: 1 }, async ([job]) => take(job));
+          workerIds.push(await boss.work<JobData>(QUEUE, { ...poll, batchSize: 1 }, async ([job]) => take(job)));
         }
         await boss.work<JobData>(LOST_QUEUE, { ...poll, batchSize: 10 }, markLost);
       })();
@@ -296,6 +298,7 @@ export function createQueueBackend(o: QueueBackendOptions): QueueBackend {
         const data: JobData = { runId: id, caseFile: input.caseFile as CaseFileInput };
         const sent = await boss.send(QUEUE, data, { id, retryLimit: s.retries, retryDelay: 0, expireInSeconds: s.expire, deadLetter: LOST_QUEUE });
         if (!sent) throw new Error('the queue refused the job');
+        for (const w of workerIds) boss.notifyWorker(w);
       } catch (err) {
         await k()('monte_carlo_runs').where({ id }).whereNull('finishedAt').update({ status: 'failed', error: 'The run could not be queued.', finishedAt: nowIso() });
         throw err;
