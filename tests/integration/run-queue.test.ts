@@ -13,7 +13,7 @@ import type { Knex } from 'knex';
 import { useDbForTests } from '@/lib/db';
 import { buildMonteCarloWorker } from '@/lib/risk/build-worker';
 import { useRunBackendForTests } from '@/lib/risk/backend';
-import { createQueueBackend, RUN_LOST, CANCELLED_QUEUED, type QueueBackend } from '@/lib/risk/backends/queue';
+import { createQueueBackend, RUN_LOST, CANCELLED_QUEUED, NEVER_QUEUED, type QueueBackend } from '@/lib/risk/backends/queue';
 import { whenFinished } from '@/lib/risk/jobs';
 import { POST as startRoute } from '@/app/api/workspaces/[workspace]/cases/[id]/monte-carlo/route';
 import { DELETE as cancelRoute, GET as getRoute } from '@/app/api/workspaces/[workspace]/cases/[id]/monte-carlo/[job]/route';
@@ -201,6 +201,21 @@ describe('Monte Carlo runs on the job queue, two servers', () => {
     // A's workers stopped with the crash and wrote nothing over B's end
     await new Promise((r) => setTimeout(r, 500));
     expect(await row(runId)).toMatchObject({ status: 'timed-out', done: ended.done, finishedAt: ended.finishedAt });
+  });
+
+  it('marks failed, once the expiry has passed, a run whose server stopped between writing its row and queueing it', async () => {
+    const b = server('B');
+    await b.startWorkers();
+    const wsId = (await k('workspaces').where({ slug: WS }).first('id')).id;
+    const id = '00000000-0000-4000-8000-00000000a001';
+    const at = (msAgo: number) => new Date(Date.now() - msAgo).toISOString();
+    await k('monte_carlo_runs').insert({ id, workspaceId: wsId, caseId: Number(params.id), spec: JSON.stringify(body(1000, 1)), status: 'running', iterations: 1000, done: 0, createdBy: ids['analyst@aldervane.test'], createdAt: at(1000) });
+    await k('monte_carlo_run_claims').insert({ runId: id });
+    // within the expiry it may still be on its way: left running
+    expect((await on(b, () => call(getRoute, { ...params, job: id }))).body.run).toMatchObject({ status: 'running', finishedAt: null });
+    await k('monte_carlo_runs').where({ id }).update({ createdAt: at((EXPIRE_S + 1) * 1000) });
+    expect((await on(b, () => call(getRoute, { ...params, job: id }))).body.run).toMatchObject({ status: 'failed', error: NEVER_QUEUED });
+    expect((await row(id)).finishedAt).toBeTruthy();
   });
 
   it('marks failed, after the expiry, a run whose server died when no retry is left', async () => {

@@ -48,6 +48,8 @@ export const LOST_QUEUE = 'haulcase-monte-carlo-lost';
 
 /** What a run whose server stopped (and whose retries, if any, did too) records. */
 export const RUN_LOST = 'The run stopped before it finished: the server running it stopped or lost the database, and the job queue ended it at its expiry. Start the run again.';
+/** What a run whose job never reached the queue records (its server stopped between the row and the send). */
+export const NEVER_QUEUED = 'The run never reached the job queue (its server stopped as it started the run). Start the run again.';
 /** What a run cancelled before any server took it records. */
 export const CANCELLED_QUEUED = 'Cancelled before a server took it from the queue.';
 /** The advisory lock servers take in turn to set the queue up. */
@@ -241,7 +243,20 @@ export function createQueueBackend(o: QueueBackendOptions): QueueBackend {
   async function progress(workspaceId: number, caseId: number, runId: string): Promise<RunView> {
     const run = await fetchRunRow(k(), workspaceId, caseId, runId);
     if (!run) throw notFound('No such Monte Carlo run.');
+    if (!run.finishedAt && Date.parse(run.createdAt) < Date.now() - settings().expire * 1000 && (await neverQueued(runId))) {
+      // its server stopped between writing the row and sending the job: no queue will ever end it
+      await k()('monte_carlo_runs').where({ id: runId }).whereNull('finishedAt').update({ status: 'failed', error: NEVER_QUEUED, finishedAt: nowIso() });
+      return (await fetchRunRow(k(), workspaceId, caseId, runId)) ?? run;
+    }
     return run;
+  }
+
+  /** No server ever took the run and the queue has no job for it. */
+  async function neverQueued(runId: string): Promise<boolean> {
+    const c = await k()('monte_carlo_run_claims').where({ runId }).first('attempt');
+    if (!c || Number(c.attempt) !== 0) return false;
+    await ready();
+    return (await boss.getJobById(QUEUE, runId, { includeArchive: true })) === null;
   }
 
   return {
