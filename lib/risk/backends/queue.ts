@@ -5,7 +5,7 @@ import 'server-only';
  * (schema `pgboss`, which pg-boss creates and migrates itself).
  *
  * - **Start** (any server): the run's row, its claim row
- *   (`monte_carlo_run_claims`, migration 0018) and the audit entry in one
+ *   (`monte_carlo_run_claims`, migration 0019) and the audit entry in one
  *   transaction, then the job is sent (job id = run id) and the route answers
  *   at once, the run `running` with nothing done yet.
  * - **Work** (every server): `HAULCASE_MC_MAX_RUNNING` pg-boss workers of one
