@@ -3,7 +3,7 @@
  * (development, demo, tests), so mail has somewhere real to go on a fresh clone;
  * starts the mail outbox sender (lib/mail/queue.ts: what is due now, then on an
  * unreferenced timer); marks Monte Carlo runs that the previous process left
- * running as failed; and warms the Monte Carlo worker threads in the background.
+ * running as failed (SQLite) or starts taking runs from the job queue (PostgreSQL); and warms the Monte Carlo worker threads in the background.
  */
 export async function register() {
   if (process.env.NEXT_RUNTIME !== 'nodejs') return;
@@ -14,8 +14,9 @@ export async function register() {
   // the caller's socket address for the sign-in and reset throttles (Next gives route handlers no socket)
   const { installPeerAddressStamp } = await import('./lib/auth/peer-address');
   installPeerAddressStamp();
-  const { markInterruptedRuns } = await import('./lib/risk/startup');
+  const { markInterruptedRuns, startRunWorkers } = await import('./lib/risk/startup');
   void markInterruptedRuns();
+  void startRunWorkers();
   const { warmMonteCarloWorkers } = await import('./lib/risk/warm');
   void warmMonteCarloWorkers();
   const { readMailConfig } = await import('./lib/mail/config');

@@ -28,7 +28,7 @@ const nextConfig = {
   distDir: process.env.NEXT_DIST_DIR || '.next',
   poweredByHeader: false,
   // pdfkit reads its font data files and highs its build/highs.wasm beside their own scripts: bundled, they would not be found
-  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'exceljs', 'smtp-server', 'nodemailer', 'pdfkit', 'fontkit', 'highs'],
+  serverExternalPackages: ['knex', 'better-sqlite3', 'pg', 'pg-boss', 'exceljs', 'smtp-server', 'nodemailer', 'pdfkit', 'fontkit', 'highs'],
   async headers() {
     return [
       { source: '/:path*', headers: securityHeaders },

@@ -79,6 +79,9 @@ export const envSchema = z
     HAULCASE_MC_WORKER: text,
     HAULCASE_MC_PREWARM: flag,
     HAULCASE_MC_RECYCLE_MS: whole(0, 86_400_000, 'milliseconds (0 = never)', 60_000),
+    // Monte Carlo runs on the PostgreSQL queue (pg-boss): a run whose server stopped is retried or failed after this
+    HAULCASE_MC_QUEUE_EXPIRE_S: whole(2, 3_600, 'seconds', 150),
+    HAULCASE_MC_QUEUE_RETRIES: whole(0, 5, 'retries', 1),
     HAULCASE_BREAK_EVEN_TIME_LIMIT_MS: whole(100, 3_600_000, 'milliseconds', 120_000),
     HAULCASE_BREAK_EVEN_WORKER: text,
     HAULCASE_EXPORT_TIME_LIMIT_MS: whole(100, 3_600_000, 'milliseconds', 300_000),
@@ -105,6 +108,12 @@ export const envSchema = z
     const problem = (variable: string, message: string) => ctx.addIssue({ code: 'custom', path: [variable], message });
     if (e.DATABASE_URL && !e.NEXTAUTH_SECRET) {
       problem('NEXTAUTH_SECRET', 'is required with PostgreSQL (DATABASE_URL is set): every server must sign sessions with the same secret; set the same random value of at least 16 characters on each server');
+    }
+    if (e.DATABASE_URL && e.HAULCASE_MC_QUEUE_EXPIRE_S * 1000 <= e.HAULCASE_MC_TIME_LIMIT_MS) {
+      problem(
+        'HAULCASE_MC_QUEUE_EXPIRE_S',
+        `must be longer than a run may take (HAULCASE_MC_TIME_LIMIT_MS is ${e.HAULCASE_MC_TIME_LIMIT_MS.toLocaleString('en')} ms), or the queue takes running runs away from live servers`,
+      );
     }
     if (e.HAULCASE_MAIL_SINK !== undefined) {
       problem('HAULCASE_MAIL_SINK', 'is no longer read: the local mail sink starts only when SMTP_HOST is not set; unset it');

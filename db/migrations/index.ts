@@ -15,6 +15,7 @@ import * as m0016 from './0016_membership_version';
 import * as m0017 from './0017_readings';
 import * as m0018 from './0018_case_truck_figures';
 import * as m0019 from './0019_case_engine_lives';
+import * as m0020 from './0020_run_claims';
 
 /**
  * Migrations are listed here in order, so they load the same way under Next,
@@ -38,6 +39,7 @@ const migrations: Record<string, { up: (k: Knex) => Promise<void>; down: (k: Kne
   '0017_readings': m0017,
   '0018_case_truck_figures': m0018,
   '0019_case_engine_lives': m0019,
+  '0020_run_claims': m0020,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

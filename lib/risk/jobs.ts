@@ -48,6 +48,8 @@ export interface StartOptions {
   timeLimitMs?: number;
   /** default HAULCASE_MC_WORKERS or 2 */
   workers?: number;
+  /** the number of iterations done so far, as the workers report it */
+  onProgress?: (done: number) => void;
   onFinish?: (job: JobView) => Promise<void> | void;
 }
 
@@ -58,6 +60,16 @@ const KEEP_FINISHED_MS = 30 * 60_000;
 
 const holder = globalThis as unknown as { __haulcaseMcJobs?: Map<string, Job> };
 const jobs = (holder.__haulcaseMcJobs ??= new Map<string, Job>());
+
+/**
+ * The jobs one holder runs. The in-process backend uses the server's own (on
+ * globalThis); a queue backend keeps its own, so two of them in one test
+ * process stand for two servers, each with its own limit.
+ */
+export type JobRegistry = Map<string, Job>;
+export function newJobRegistry(): JobRegistry {
+  return new Map<string, Job>();
+}
 
 export class TooManyRunsError extends Error {}
 
@@ -71,20 +83,20 @@ export function view(job: Job | JobView): JobView {
   return { id, workspaceId, caseId, status, iterations, done, startedAt, finishedAt, error, result };
 }
 
-export function getJob(id: string): JobView | null {
-  const j = jobs.get(id);
+export function getJob(id: string, registry: JobRegistry = jobs): JobView | null {
+  const j = registry.get(id);
   return j ? view(j) : null;
 }
 
-export function runningCount(): number {
+export function runningCount(registry: JobRegistry = jobs): number {
   let n = 0;
-  for (const j of jobs.values()) if (j.status === 'running') n++;
+  for (const j of registry.values()) if (j.status === 'running') n++;
   return n;
 }
 
 /** Ask a running job to stop; the iterations done so far are summarised. */
-export function cancelJob(id: string): boolean {
-  const j = jobs.get(id);
+export function cancelJob(id: string, registry: JobRegistry = jobs): boolean {
+  const j = registry.get(id);
   if (!j || j.status !== 'running') return false;
   j.status = 'cancelled';
   Atomics.store(j.stop, 0, 1);
@@ -92,12 +104,12 @@ export function cancelJob(id: string): boolean {
 }
 
 /** Resolves when the job has finished (done, cancelled, timed out or failed). */
-export function whenFinished(id: string): Promise<JobView> | null {
-  return jobs.get(id)?.finished ?? null;
+export function whenFinished(id: string, registry: JobRegistry = jobs): Promise<JobView> | null {
+  return registry.get(id)?.finished ?? null;
 }
 
-export function startJob(o: StartOptions): JobView {
-  if (runningCount() >= MAX_RUNNING) throw new TooManyRunsError('Too many Monte Carlo runs in progress on this server; try again when one finishes.');
+export function startJob(o: StartOptions, registry: JobRegistry = jobs, maxRunning = MAX_RUNNING): JobView {
+  if (runningCount(registry) >= maxRunning) throw new TooManyRunsError('Too many Monte Carlo runs in progress on this server; try again when one finishes.');
   const bundle = workerBundlePath();
   const total = o.spec.iterations;
   const count = o.workers ?? env().HAULCASE_MC_WORKERS;
@@ -111,7 +123,10 @@ export function startJob(o: StartOptions): JobView {
     workers: count,
     stop: stopBuffer,
     keepNpvs: false, // the job keeps only the summaries
-    onProgress: (done) => (job.done = done),
+    onProgress: (done) => {
+      job.done = done;
+      o.onProgress?.(done);
+    },
   });
   job.workers = pool.workers;
   job.timer = setTimeout(() => {
@@ -140,9 +155,9 @@ export function startJob(o: StartOptions): JobView {
       } catch (err) {
         console.error('[haulcase] saving a Monte Carlo run failed:', err);
       }
-      setTimeout(() => jobs.delete(job.id), KEEP_FINISHED_MS).unref();
+      setTimeout(() => registry.delete(job.id), KEEP_FINISHED_MS).unref();
       return view(job);
     });
-  jobs.set(job.id, job);
+  registry.set(job.id, job);
   return view(job);
 }

@@ -1,125 +1,53 @@
 import 'server-only';
 /**
- * Monte Carlo runs: start one for a business case (row + audit in one
- * transaction, then the workers), read one (live progress from this server's
- * job manager, else the stored row), cancel one.
+ * Monte Carlo runs: start one for a business case, read one, cancel one (through
+ * this server's job backend, lib/risk/backend.ts: in-process with SQLite, the
+ * pg-boss queue with PostgreSQL); the pinned run of a case.
  */
-import { randomUUID } from 'node:crypto';
 import { writeAudit } from '@/lib/audit';
 import { db } from '@/lib/db';
 import { HttpError, invalid, notFound } from '@/lib/http';
 import { nowIso } from '@/lib/time';
-import type { MonteCarloResult } from '@/lib/engine/monte-carlo';
-import type { PolicyKey } from '@/lib/engine/types';
-import type { CaseFile } from '@/lib/validation/case';
 import type { MonteCarloRequest } from '@/lib/validation/risk';
 import type { Knex } from 'knex';
 import { MEASURE_LABELS, measureLabel, measureSummary, runMeasure, type RunMeasure } from './measures';
-import { cancelJob, getJob, MAX_RUNNING, runningCount, startJob, TooManyRunsError, type JobView } from './jobs';
+import { getJob } from './jobs';
+import { runBackend } from './backend';
+import { fromRow, type RunView, type StartRunInput, type StoredRunSpec } from './run-rows';
+
+export type { RunView, StoredRunSpec, StartRunInput } from './run-rows';
+export { CANCELLED_NOT_RUNNING } from './backends/in-process';
 
 /** Why a run left `running` by an earlier server process is failed when a server starts. */
 export const INTERRUPTED_BY_RESTART = 'Interrupted by a server restart; start the run again.';
-/** What a cancel of a run that no server holds any more records. */
-export const CANCELLED_NOT_RUNNING = 'Cancelled: the run was no longer in progress on this server (interrupted by a restart).';
 
-/** What a run was asked, as stored: the request, and the proposal's policies it summed (runs before the proposal have none). */
-export type StoredRunSpec = MonteCarloRequest & { proposal?: Readonly<Record<string, PolicyKey>> | null };
-
-export interface RunView {
-  id: string;
-  caseId: number;
-  status: JobView['status'];
-  iterations: number;
-  done: number;
-  spec: StoredRunSpec;
-  createdAt: string;
-  finishedAt: string | null;
-  error: string | null;
-  result: MonteCarloResult | null;
-  /** who started it (null: the account has since been removed) */
-  author: { name: string; email: string } | null;
+/** Start a run: the row and its audit entry, then this server's backend runs or enqueues it (answers at once). */
+export function startRun(o: StartRunInput): Promise<RunView> {
+  return runBackend().start(o);
 }
 
-type Row = Record<string, any>; // eslint-disable-line @typescript-eslint/no-explicit-any -- a knex row
-
-function fromRow(row: Row): RunView {
-  return {
-    id: row.id,
-    caseId: row.caseId,
-    status: row.status,
-    iterations: row.iterations,
-    done: row.done,
-    spec: JSON.parse(row.spec),
-    createdAt: row.createdAt,
-    finishedAt: row.finishedAt,
-    error: row.error,
-    result: row.result ? JSON.parse(row.result) : null,
-    author: row.authorEmail == null ? null : { name: row.authorName ?? '', email: row.authorEmail },
-  };
-}
-
-/** Runs with their author's name and e-mail (`authorName`, `authorEmail`). */
-function runsWithAuthor(k: Knex) {
-  return k('monte_carlo_runs as r').leftJoin('users as u', 'u.id', 'r.createdBy').select('r.*', 'u.name as authorName', 'u.email as authorEmail');
-}
-
-export async function startRun(o: { workspaceId: number; caseId: number; userId: number; caseFile: CaseFile; spec: StoredRunSpec }): Promise<RunView> {
-  if (runningCount() >= MAX_RUNNING) throw new HttpError(429, 'Too many Monte Carlo runs in progress on this server; try again when one finishes.');
-  const id = randomUUID();
-  const createdAt = nowIso();
-  // the row and its audit first, in one transaction, so the job's finish always has a row to update
-  await db().transaction(async (trx) => {
-    await trx('monte_carlo_runs').insert({
-      id, workspaceId: o.workspaceId, caseId: o.caseId, spec: JSON.stringify(o.spec), status: 'running',
-      iterations: o.spec.iterations, done: 0, createdBy: o.userId, createdAt,
-    });
-    await writeAudit(trx, {
-      workspaceId: o.workspaceId, userId: o.userId, action: 'run', entity: 'monte_carlo_run', entityId: id,
-      after: { caseId: o.caseId, ...o.spec },
-    });
-  });
-  const finish = async (j: Pick<JobView, 'status' | 'done' | 'result' | 'error' | 'finishedAt'>): Promise<void> => {
-    // the first recorded end wins (a run marked cancelled or interrupted keeps that)
-    await db()('monte_carlo_runs')
-      .where({ id })
-      .whereNull('finishedAt')
-      .update({ status: j.status, done: j.done, result: j.result ? JSON.stringify(j.result) : null, error: j.error, finishedAt: j.finishedAt });
-  };
-  try {
-    startJob({ id, workspaceId: o.workspaceId, caseId: o.caseId, validCase: o.caseFile, spec: o.spec, onFinish: finish });
-  } catch (err) {
-    await finish({ status: 'failed', done: 0, result: null, error: 'The run could not start.', finishedAt: nowIso() });
-    if (err instanceof TooManyRunsError) throw new HttpError(429, err.message);
-    throw err;
-  }
-  return readRun(o.workspaceId, o.caseId, id);
-}
-
-/** A run of this workspace's case, with live progress when it runs on this server; 404 otherwise. */
-export async function readRun(workspaceId: number, caseId: number, runId: string): Promise<RunView> {
-  const row = await runsWithAuthor(db()).where({ 'r.id': runId, 'r.workspaceId': workspaceId, 'r.caseId': caseId }).first();
-  if (!row) throw notFound('No such Monte Carlo run.');
-  const stored = fromRow(row);
-  const live = getJob(runId);
-  if (!live || stored.finishedAt) return stored;
-  return { ...stored, status: live.status, done: live.done, result: live.result, error: live.error, finishedAt: live.finishedAt };
+/** A run of this workspace's case, with its progress, and its result once finished; 404 otherwise. */
+export function readRun(workspaceId: number, caseId: number, runId: string): Promise<RunView> {
+  return runBackend().progress(workspaceId, caseId, runId);
 }
 
 /** The case's latest runs, newest first, without their results. */
-export async function listRuns(workspaceId: number, caseId: number, limit = 10): Promise<Omit<RunView, 'result'>[]> {
-  const rows = await runsWithAuthor(db()).where({ 'r.workspaceId': workspaceId, 'r.caseId': caseId }).orderBy('r.createdAt', 'desc').limit(limit);
-  return rows.map((r: Row) => {
-    const { result: _omit, ...rest } = fromRow({ ...r, result: null }); // eslint-disable-line @typescript-eslint/no-unused-vars
-    const live = getJob(r.id);
-    return live && !r.finishedAt ? { ...rest, status: live.status, done: live.done } : rest;
-  });
+export function listRuns(workspaceId: number, caseId: number, limit = 10): Promise<Omit<RunView, 'result'>[]> {
+  return runBackend().list(workspaceId, caseId, limit);
+}
+
+/** Cancel a running run (409 once it has finished), on whichever server runs it. */
+export function cancelRun(o: { workspaceId: number; caseId: number; runId: string; userId: number }): Promise<RunView> {
+  return runBackend().cancel(o);
 }
 
 /**
- * A run lives in the worker threads of the server process that started it, so
- * a row still `running` when a server starts was interrupted by a restart: it
- * is marked failed (instrumentation.ts → lib/risk/startup.ts) rather than shown
- * running, and uncancellable, for ever. Runs this process holds are left alone.
+ * With the in-process backend a run lives in the worker threads of the server
+ * process that started it, so a row still `running` when a server starts was
+ * interrupted by a restart: it is marked failed (instrumentation.ts →
+ * lib/risk/startup.ts) rather than shown running, and uncancellable, for ever.
+ * Runs this process holds are left alone. (With the queue backend the queue's
+ * expiry does this, since other servers' runs are in the same table.)
  * Returns how many rows were marked.
  */
 export async function failInterruptedRuns(k: Knex = db(), at = nowIso()): Promise<number> {
@@ -127,29 +55,6 @@ export async function failInterruptedRuns(k: Knex = db(), at = nowIso()): Promis
   const ids = rows.map((r) => r.id).filter((id) => getJob(id) === null);
   if (ids.length === 0) return 0;
   return k('monte_carlo_runs').whereIn('id', ids).where({ status: 'running' }).whereNull('finishedAt').update({ status: 'failed', error: INTERRUPTED_BY_RESTART, finishedAt: at });
-}
-
-/**
- * Cancel: the workers of a run this server holds stop at their next progress
- * tick. A run stored as running that no worker here holds (its server was
- * restarted) is marked cancelled at once, with the reason, instead of answering
- * 409 for ever.
- */
-export async function cancelRun(o: { workspaceId: number; caseId: number; runId: string; userId: number }): Promise<RunView> {
-  const run = await readRun(o.workspaceId, o.caseId, o.runId);
-  if (run.status !== 'running') throw new HttpError(409, `The run has already finished (${run.status}).`);
-  if (cancelJob(o.runId)) {
-    await writeAudit(db(), { workspaceId: o.workspaceId, userId: o.userId, action: 'cancel', entity: 'monte_carlo_run', entityId: o.runId });
-    return { ...run, status: 'cancelled' };
-  }
-  const finishedAt = nowIso();
-  const marked = await db().transaction(async (trx) => {
-    const n = await trx('monte_carlo_runs').where({ id: o.runId, status: 'running' }).whereNull('finishedAt').update({ status: 'cancelled', error: CANCELLED_NOT_RUNNING, finishedAt });
-    if (n === 1) await writeAudit(trx, { workspaceId: o.workspaceId, userId: o.userId, action: 'cancel', entity: 'monte_carlo_run', entityId: o.runId, after: { reason: CANCELLED_NOT_RUNNING } });
-    return n === 1;
-  });
-  if (!marked) return readRun(o.workspaceId, o.caseId, o.runId); // it finished meanwhile: show how
-  return { ...run, status: 'cancelled', error: CANCELLED_NOT_RUNNING, finishedAt };
 }
 
 /** A pinned run as the decision summary and the frozen record quote it. */

@@ -9,16 +9,17 @@ import { seedDemo } from '@/db/seeds/demo';
  * A fresh, migrated and seeded database for one test file: SQLite in a temp folder,
  * or a new database on the test PostgreSQL server when `pgUrl` is given.
  */
-export async function createTestDb(opts: { pgUrl?: string; seed?: boolean } = {}): Promise<{ k: Knex; dataDir: string; destroy: () => Promise<void> }> {
+export async function createTestDb(opts: { pgUrl?: string; seed?: boolean } = {}): Promise<{ k: Knex; dataDir: string; url: string | null; destroy: () => Promise<void> }> {
   const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'haulcase-test-'));
   let k: Knex;
   let dropDb: (() => Promise<void>) | null = null;
+  let url: string | null = null;
   if (opts.pgUrl) {
     const name = `t_${Date.now()}_${Math.floor(Math.random() * 1e6)}`;
     const admin = knex({ client: 'pg', connection: opts.pgUrl });
     await admin.raw(`create database ${name}`);
     await admin.destroy();
-    const url = opts.pgUrl.replace(/\/[^/]*$/, `/${name}`);
+    url = opts.pgUrl.replace(/\/[^/]*$/, `/${name}`);
     k = knex(knexConfig({ DATABASE_URL: url }));
     dropDb = async () => {
       const a = knex({ client: 'pg', connection: opts.pgUrl });
@@ -33,6 +34,7 @@ export async function createTestDb(opts: { pgUrl?: string; seed?: boolean } = {}
   return {
     k,
     dataDir,
+    url,
     destroy: async () => {
       await k.destroy();
       if (dropDb) await dropDb();

@@ -21,6 +21,8 @@ describe('the environment schema', () => {
     expect(e.HAULCASE_MC_MAX_RUNNING).toBe(2);
     expect(e.HAULCASE_MC_WORKERS).toBe(2);
     expect(e.HAULCASE_MC_TIME_LIMIT_MS).toBe(120_000);
+    expect(e.HAULCASE_MC_QUEUE_EXPIRE_S).toBe(150);
+    expect(e.HAULCASE_MC_QUEUE_RETRIES).toBe(1);
     expect(e.DATABASE_URL).toBeUndefined();
     expect(e.S3_BUCKET).toBeUndefined();
   });
@@ -58,6 +60,11 @@ describe('the environment schema', () => {
     ['AWS_ENDPOINT_URL', '127.0.0.1:9000', /http\(s\) URL/],
     ['NEXTAUTH_SECRET', 'short', /at least 16 characters/],
     ['HAULCASE_MAIL_SINK', '1', /no longer read/],
+    ['HAULCASE_MC_QUEUE_EXPIRE_S', '1', /from 2 to 3,600 seconds/],
+    ['HAULCASE_MC_QUEUE_EXPIRE_S', '90s', /whole number of seconds from 2 to 3,600/],
+    ['HAULCASE_MC_QUEUE_EXPIRE_S', '3601', /from 2 to 3,600 seconds/],
+    ['HAULCASE_MC_QUEUE_RETRIES', '6', /from 0 to 5 retries/],
+    ['HAULCASE_MC_QUEUE_RETRIES', 'once', /whole number of retries from 0 to 5/],
   ])('refuses %s=%s, naming it', (variable, value, message) => {
     // with what the variable needs beside it, so that it is the only problem
     const companions: Record<string, Record<string, string>> = { DATABASE_URL: { NEXTAUTH_SECRET: PG.NEXTAUTH_SECRET }, S3_BUCKET: { AWS_REGION: 'us-east-1' } };
@@ -71,6 +78,15 @@ describe('the environment schema', () => {
     expect(problems({ DATABASE_URL: PG.DATABASE_URL })).toEqual([expect.stringMatching(/^NEXTAUTH_SECRET is required with PostgreSQL/)]);
     expect(problems(PG)).toEqual([]);
     expect(problems({})).toEqual([]); // SQLite: the demo keeps a generated secret in its data folder
+  });
+
+  it('with PostgreSQL, refuses a queue expiry no longer than a run may take (a live server would lose its runs)', () => {
+    expect(problems({ ...PG, HAULCASE_MC_QUEUE_EXPIRE_S: '120' })).toEqual([expect.stringMatching(/^HAULCASE_MC_QUEUE_EXPIRE_S must be longer than a run may take \(HAULCASE_MC_TIME_LIMIT_MS is 120,000 ms\)/)]);
+    expect(problems({ ...PG, HAULCASE_MC_QUEUE_EXPIRE_S: '121' })).toEqual([]);
+    expect(problems({ ...PG, HAULCASE_MC_QUEUE_EXPIRE_S: '5', HAULCASE_MC_TIME_LIMIT_MS: '4000' })).toEqual([]);
+    expect(parseEnv({ ...PG, HAULCASE_MC_QUEUE_EXPIRE_S: '5', HAULCASE_MC_TIME_LIMIT_MS: '4000' }).HAULCASE_MC_QUEUE_EXPIRE_S).toBe(5);
+    // SQLite has no queue: the expiry is not read
+    expect(problems({ HAULCASE_MC_QUEUE_EXPIRE_S: '60' })).toEqual([]);
   });
 
   it.each([
