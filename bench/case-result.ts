@@ -18,7 +18,6 @@
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { spawn } from 'node:child_process';
 import autocannon from 'autocannon';
 import knex from 'knex';
 import { seedDemo } from '@/db/seeds/demo';
@@ -27,6 +26,7 @@ import { useDbForTests } from '@/lib/db';
 import { knexConfig } from '@/lib/db/config';
 import { evaluateStoredCase } from '@/lib/cases/evaluate';
 import { cachedResultBody, clearResultCache } from '@/lib/cases/result-cache';
+import { startServer } from '../tests/e2e/support/next-server';
 import { createSyntheticWorkspace } from '../tests/e2e/support/synthetic-fleet';
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
@@ -44,18 +44,6 @@ async function timed(runs: number, fn: () => Promise<unknown>): Promise<number> 
 }
 
 const root = path.resolve(__dirname, '..');
-
-async function freePort(): Promise<number> {
-  const net = await import('node:net');
-  return new Promise((resolve, reject) => {
-    const srv = net.createServer();
-    srv.listen(0, '127.0.0.1', () => {
-      const { port } = srv.address() as { port: number };
-      srv.close(() => resolve(port));
-    });
-    srv.on('error', reject);
-  });
-}
 
 /** Signs in through next-auth's credentials callback; the session cookie. */
 async function signInCookie(base: string, email: string): Promise<string> {
@@ -79,24 +67,10 @@ async function overHttp(dir: string, cases: Array<{ slug: string; id: number; la
     console.log('case result over HTTP: no production build here (run `npm run build` first); not measured');
     return;
   }
-  const port = await freePort();
-  const base = `http://127.0.0.1:${port}`;
-  const server = spawn(path.join(root, 'node_modules/.bin/next'), ['start', '-p', String(port), '-H', '127.0.0.1'], {
-    cwd: root,
-    env: { ...process.env, NEXT_DIST_DIR: distDir, NODE_ENV: 'production', HAULCASE_DATA_DIR: dir, NEXTAUTH_URL: base, NEXTAUTH_SECRET: 'bench-secret-not-for-production', HAULCASE_MC_PREWARM: '0' },
-    stdio: 'ignore',
-  });
+  const server = await startServer({ NEXT_DIST_DIR: distDir, HAULCASE_DATA_DIR: dir, NEXTAUTH_SECRET: 'bench-secret-not-for-production' });
+  const base = server.base;
   try {
-    for (let i = 0; ; i++) {
-      if (server.exitCode !== null) throw new Error(`next start exited with ${server.exitCode}`);
-      try {
-        if ((await fetch(`${base}/sign-in`)).ok) break;
-      } catch {
-        /* not up yet */
-      }
-      if (i > 240) throw new Error('next start did not answer within 60 s');
-      await new Promise((r) => setTimeout(r, 250));
-    }
+    if (server.exited !== null) throw new Error(`next start exited with ${server.exited}: ${server.output()}`);
     const cookie = await signInCookie(base, 'analyst@aldervane.test');
     const duration = process.env.BENCH_FULL === '1' ? 20 : 10;
     for (const c of cases) {
@@ -116,7 +90,7 @@ async function overHttp(dir: string, cases: Array<{ slug: string; id: number; la
       }
     }
   } finally {
-    server.kill('SIGTERM');
+    server.process.kill('SIGTERM');
   }
 }
 
