@@ -45,7 +45,8 @@ describe('two cases side by side', () => {
     await page.getByLabel('Case B (to)').selectOption({ label: `Compare me: high fuel (#${high}, draft)` });
     const inputs = page.getByTestId('input-changes');
     await inputs.waitFor();
-    expect(page.url()).toContain(`a=${base}&b=${high}`);
+    // the address follows the choice (the page replaces it once the comparison is shown)
+    await page.waitForURL((u) => u.search.includes(`a=${base}&b=${high}`));
 
     // the fuel price of the two demo sets: Base 1.05, High fuel 1.35 USD per litre
     const fuel = inputs.locator('tbody tr', { has: page.getByRole('cell', { name: 'Fuel price', exact: true }) });
