@@ -21,7 +21,7 @@ describe('case settings on the case page, and the truck charts', () => {
     await signIn(page, baseURL, 'analyst@aldervane.test');
     await page.goto(`${baseURL}/${WS}/cases`);
     await page.getByRole('button', { name: 'New case' }).first().click();
-    await page.getByLabel('Name').fill('Settings trial');
+    await page.getByLabel('Name', { exact: true }).fill('Settings trial');
     await page.getByRole('button', { name: 'Create case' }).click();
     await page.waitForURL(/\/cases\/\d+$/);
     caseUrl = page.url();

@@ -54,7 +54,7 @@ describe('business cases in the browser', () => {
     await signIn(page, baseURL, 'analyst@aldervane.test');
     await page.goto(`${baseURL}/${WS}/cases`);
     await page.getByRole('button', { name: 'New case' }).first().click();
-    await page.getByLabel('Name').fill('Demo fleet — base, own offers');
+    await page.getByLabel('Name', { exact: true }).fill('Demo fleet — base, own offers');
     expect(await page.getByLabel('Assumption set').locator('option:checked').textContent()).toBe('Base');
     expect(await page.getByLabel('All trucks').isChecked()).toBe(true);
     await page.getByRole('button', { name: 'Create case' }).click();

@@ -30,7 +30,7 @@ describe('recommended overhaul life in the engine library, adopted in a case', (
     // a draft case to adopt the life in, made as a person makes one
     await page.goto(`${baseURL}/${WS}/cases`);
     await page.getByRole('button', { name: 'New case' }).first().click();
-    await page.getByLabel('Name').fill('Overhaul life trial');
+    await page.getByLabel('Name', { exact: true }).fill('Overhaul life trial');
     await page.getByRole('button', { name: 'Create case' }).click();
     await page.waitForURL(/\/cases\/\d+$/);
     caseUrl = page.url();
