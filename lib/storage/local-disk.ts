@@ -28,10 +28,14 @@ export function localDiskStorage(root: string): Storage {
       const f = file(key);
       await fsp.mkdir(path.dirname(f), { recursive: true });
       const tmp = `${f}.part-${randomUUID()}`;
+      const out = fs.createWriteStream(tmp, { flags: 'wx' });
       try {
-        await pipeline(exactly(key, body, size), fs.createWriteStream(tmp, { flags: 'wx' }));
+        await pipeline(exactly(key, body, size), out);
         await fsp.rename(tmp, f);
       } catch (e) {
+        // a body refused before the file was opened still creates it when the open completes: wait for the
+        // stream to close, then remove what it left
+        if (!out.closed) await new Promise<void>((resolve) => out.once('close', () => resolve()));
         await fsp.rm(tmp, { force: true });
         throw e;
       }
